@@ -23,7 +23,7 @@ public static class DesignFileDiagnostics
 
     /// <summary>A value that cannot be read as a number with a unit.</summary>
     public static readonly DiagnosticDescriptor MalformedValue = Make(
-        "DR904", "Malformed value", "'{0}' for '{1}' is not a value: {2}. Expected {3}.");
+        "DR904", "Malformed value", "'{0}' for '{1}' is not accepted: {2}.");
 
     /// <summary>A value outside the range that makes physical sense.</summary>
     public static readonly DiagnosticDescriptor OutOfRange = Make(

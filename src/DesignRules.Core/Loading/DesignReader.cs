@@ -130,7 +130,7 @@ internal static class DesignReader
             }
             else if (!hasFrequency && !hasBand && kind is not null)
             {
-                d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Span, Capital(what), "frequency", "or 'band', e.g. band: 20 Hz..20 kHz"));
+                d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, Capital(what), "frequency", "or 'band', e.g. band: 20 Hz..20 kHz"));
             }
 
             frequency = m.Quantity("frequency", Dimension.Frequency, required: false, ValueChecks.Within(1e-3, 1e9, "a signal frequency lies between 1 mHz and 1 GHz"));
@@ -280,7 +280,7 @@ internal static class DesignReader
 
         if (!hasBlock)
         {
-            d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Span, Capital(m.What), "block", "a built-in block name, or 'netlist' with elements"));
+            d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, Capital(m.What), "block", "a built-in block name, or 'netlist' with elements"));
             return null;
         }
 
@@ -327,7 +327,7 @@ internal static class DesignReader
             var rule = m.Text("rule", required: true, "a rule id such as DR104");
             if (rule is not null && !System.Text.RegularExpressions.Regex.IsMatch(rule.Value, "^DR[0-9]{3}$", System.Text.RegularExpressions.RegexOptions.CultureInvariant))
             {
-                d(m).Add(DesignFileDiagnostics.MalformedValue.At(rule.Span, rule.Value, "rule", "a rule id is DR and three digits", "a rule id such as DR104"));
+                d(m).Add(DesignFileDiagnostics.MalformedValue.At(rule.Span, rule.Value, "rule", "a rule id is DR and three digits; expected a rule id such as DR104"));
                 rule = null;
             }
 

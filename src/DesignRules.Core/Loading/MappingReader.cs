@@ -24,6 +24,7 @@ internal sealed partial class MappingReader
         this.mapping = mapping;
         What = what;
         this.diagnostics = diagnostics;
+        Anchor = mapping.Span;
         foreach (var entry in mapping.Entries)
         {
             if (entries.TryGetValue(entry.Key.Value, out var first))
@@ -40,6 +41,9 @@ internal sealed partial class MappingReader
     public string What { get; set; }
 
     public SourceSpan Span => mapping.Span;
+
+    /// <summary>The key that introduced this mapping, where a missing key is best reported; the mapping itself otherwise.</summary>
+    public SourceSpan Anchor { get; private set; } = null!;
 
     public List<Diagnostic> Diagnostics => diagnostics;
 
@@ -76,7 +80,7 @@ internal sealed partial class MappingReader
 
         if (required)
         {
-            diagnostics.Add(DesignFileDiagnostics.MissingKey.At(e.Key?.Span ?? mapping.Span, Capitalised(What), key, hint));
+            diagnostics.Add(DesignFileDiagnostics.MissingKey.At(e.Key?.Span ?? Anchor, Capitalised(What), key, hint));
         }
 
         return null;
@@ -132,10 +136,9 @@ internal sealed partial class MappingReader
     {
         if (!Quantities.Quantity.TryParse(s.Value, dimension, out var q, out var error))
         {
-            var descriptor = error?.Kind == QuantityErrorKind.WrongDimension
-                ? DesignFileDiagnostics.WrongUnit
-                : DesignFileDiagnostics.MalformedValue;
-            diagnostics.Add(descriptor.At(s.Span, s.Value, key, error?.Message ?? "unreadable", QuantityForms.Example(dimension)));
+            diagnostics.Add(error?.Kind == QuantityErrorKind.WrongDimension
+                ? DesignFileDiagnostics.WrongUnit.At(s.Span, s.Value, key, error.Message.TrimEnd('.'), QuantityForms.Example(dimension))
+                : DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, error?.Message.TrimEnd('.') ?? "unreadable"));
             return null;
         }
 
@@ -159,10 +162,9 @@ internal sealed partial class MappingReader
 
         if (!QuantityRange.TryParse(s.Value, dimension, out var r, out var error))
         {
-            var descriptor = error?.Kind == QuantityErrorKind.WrongDimension
-                ? DesignFileDiagnostics.WrongUnit
-                : DesignFileDiagnostics.MalformedValue;
-            diagnostics.Add(descriptor.At(s.Span, s.Value, key, error?.Message ?? "unreadable", "a range such as 20 Hz..20 kHz"));
+            diagnostics.Add(error?.Kind == QuantityErrorKind.WrongDimension
+                ? DesignFileDiagnostics.WrongUnit.At(s.Span, s.Value, key, error.Message.TrimEnd('.'), "a range such as 20 Hz..20 kHz")
+                : DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, (error?.Message.TrimEnd('.') ?? "unreadable") + "; expected a range such as 20 Hz..20 kHz"));
             return null;
         }
 
@@ -252,8 +254,16 @@ internal sealed partial class MappingReader
         }
     }
 
-    public MappingReader? Child(string key, string what, bool required, string hint) =>
-        Of(Node(key, required, hint), what, diagnostics);
+    public MappingReader? Child(string key, string what, bool required, string hint)
+    {
+        var child = Of(Node(key, required, hint), what, diagnostics);
+        if (child is not null)
+        {
+            child.Anchor = KeySpan(key);
+        }
+
+        return child;
+    }
 
     /// <summary>The entries present, in file order.</summary>
     public IEnumerable<KeyValuePair<YamlScalar, YamlNode>> Entries => mapping.Entries;

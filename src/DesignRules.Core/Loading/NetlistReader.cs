@@ -78,7 +78,7 @@ internal static partial class NetlistReader
         var s = m.Text(key, required: true, "a node name such as in or out");
         if (s is not null && !NodePattern().IsMatch(s.Value))
         {
-            m.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, "a node name is letters, digits, '-' and '_'", "a node name such as in, out or n1"));
+            m.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, "a node name is letters, digits, '-' and '_'; expected a node name such as in, out or n1"));
             return null;
         }
 
@@ -175,7 +175,7 @@ internal static partial class NetlistReader
             }
             else
             {
-                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(item.Span, (item as YamlScalar)?.Value ?? item.ShapeName, "between", "a node name is letters, digits, '-' and '_'", hint));
+                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(item.Span, (item as YamlScalar)?.Value ?? item.ShapeName, "between", "a node name is letters, digits, '-' and '_'; expected " + hint));
             }
         }
 
@@ -206,7 +206,7 @@ internal static partial class NetlistReader
             }
             else if (s is not null)
             {
-                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, pin, "a node name is letters, digits, '-' and '_'", "a node name such as n1"));
+                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, pin, "a node name is letters, digits, '-' and '_'; expected a node name such as n1"));
             }
         }
 

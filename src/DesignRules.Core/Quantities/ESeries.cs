@@ -104,6 +104,10 @@ public sealed record ESeries
         return Scale(best, bestDecade - 2);
     }
 
+    /// <summary>The series name, e.g. "E24".</summary>
+    /// <returns><see cref="Name"/>.</returns>
+    public override string ToString() => Name;
+
     /// <summary>value = mantissa × 10^decade with 1 ≤ mantissa &lt; 10 (guarded against log10 rounding).</summary>
     private static double Mantissa(double value, out int decade)
     {

@@ -9,52 +9,6 @@ namespace DesignRules.Quantities;
 /// </summary>
 internal static class QuantityParser
 {
-    /// <summary>A unit spelling: its dimension, its power of ten relative to SI, whether an SI prefix may precede it.</summary>
-    private sealed record UnitForm(Dimension Dimension, int Exponent, bool TakesPrefix, bool IsDecibel = false);
-
-    private static readonly UnitForm Ohm = new(Dimension.Resistance, 0, TakesPrefix: true);
-
-    private static readonly Dictionary<string, UnitForm> Units = BuildUnits();
-
-    private static Dictionary<string, UnitForm> BuildUnits()
-    {
-        var units = new Dictionary<string, UnitForm>(StringComparer.Ordinal)
-        {
-            ["V"] = new(Dimension.Voltage, 0, true),
-            ["A"] = new(Dimension.Current, 0, true),
-            ["\u03A9"] = Ohm, // Greek capital omega
-            ["\u2126"] = Ohm, // ohm sign
-            ["R"] = Ohm,
-            ["F"] = new(Dimension.Capacitance, 0, true),
-            ["H"] = new(Dimension.Inductance, 0, true),
-            ["Hz"] = new(Dimension.Frequency, 0, true),
-            ["s"] = new(Dimension.Time, 0, true),
-            ["sec"] = new(Dimension.Time, 0, true),
-            ["W"] = new(Dimension.Power, 0, true),
-            ["V/s"] = new(Dimension.SlewRate, 0, true),
-            ["V/ms"] = new(Dimension.SlewRate, 3, true),
-            ["V/us"] = new(Dimension.SlewRate, 6, true),
-            ["V/\u00B5s"] = new(Dimension.SlewRate, 6, true),
-            ["V/\u03BCs"] = new(Dimension.SlewRate, 6, true),
-            ["V/ns"] = new(Dimension.SlewRate, 9, true),
-            ["V/√Hz"] = new(Dimension.VoltageNoiseDensity, 0, true),
-            ["V/rtHz"] = new(Dimension.VoltageNoiseDensity, 0, true),
-            ["V/sqrt(Hz)"] = new(Dimension.VoltageNoiseDensity, 0, true),
-            ["%"] = new(Dimension.Ratio, -2, false),
-            ["ppm"] = new(Dimension.Ratio, -6, false),
-            ["dB"] = new(Dimension.Ratio, 0, false, IsDecibel: true),
-        };
-        foreach (string celsius in new[] { "°C", "C", "℃" })
-        {
-            units[celsius] = new(Dimension.Temperature, 0, false);
-            units["ppm/" + celsius] = new(Dimension.TemperatureCoefficient, -6, false);
-            units["/" + celsius] = new(Dimension.TemperatureCoefficient, 0, true);
-        }
-        units["ppm/K"] = new(Dimension.TemperatureCoefficient, -6, false);
-        units["/K"] = new(Dimension.TemperatureCoefficient, 0, true);
-        return units;
-    }
-
     /// <summary>Reads <paramref name="text"/> as a value of the <paramref name="expected"/> dimension.</summary>
     internal static bool TryParse(string? text, Dimension expected, out Quantity value, [NotNullWhen(false)] out QuantityError? error)
     {
@@ -109,7 +63,7 @@ internal static class QuantityParser
         }
 
         NumberText number;
-        UnitForm? unit;
+        UnitSpellings.UnitForm? unit;
         Dimension found;
         if (TryReadRkm(s, i, out var rkm, out int end))
         {
@@ -119,7 +73,7 @@ internal static class QuantityParser
             {
                 unit = null;
             }
-            else if (!TryUnit(suffix, out unit) || unit.IsDecibel)
+            else if (!UnitSpellings.TryUnit(suffix, out unit) || unit.IsDecibel)
             {
                 return Malformed(s, expected, "an RKM code may be followed only by a unit without prefix");
             }
@@ -190,7 +144,7 @@ internal static class QuantityParser
         number = default;
         int mark = ScanDigits(s, start);
         end = mark;
-        if (mark + 1 >= s.Length || !char.IsAsciiDigit(s[mark + 1]) || RkmExponent(s[mark]) is not int exponent)
+        if (mark + 1 >= s.Length || !char.IsAsciiDigit(s[mark + 1]) || UnitSpellings.RkmExponent(s[mark]) is not int exponent)
         {
             return false;
         }
@@ -244,11 +198,11 @@ internal static class QuantityParser
     }
 
     /// <summary>What follows the number: nothing, a unit, a prefix, or a prefix and a unit that takes one.</summary>
-    private static bool TryReadSuffix(string suffix, out int prefixExponent, out UnitForm? unit)
+    private static bool TryReadSuffix(string suffix, out int prefixExponent, out UnitSpellings.UnitForm? unit)
     {
         prefixExponent = 0;
         unit = null;
-        if (suffix.Length == 0 || TryUnit(suffix, out unit))
+        if (suffix.Length == 0 || UnitSpellings.TryUnit(suffix, out unit))
         {
             return true;
         }
@@ -259,7 +213,7 @@ internal static class QuantityParser
             prefixExponent = 6;
             prefixLength = 3;
         }
-        else if (PrefixExponent(suffix[0]) is int exponent)
+        else if (UnitSpellings.PrefixExponent(suffix[0]) is int exponent)
         {
             prefixExponent = exponent;
             prefixLength = 1;
@@ -270,38 +224,8 @@ internal static class QuantityParser
         }
 
         string rest = suffix[prefixLength..];
-        return rest.Length == 0 || (TryUnit(rest, out unit) && unit.TakesPrefix);
+        return rest.Length == 0 || (UnitSpellings.TryUnit(rest, out unit) && unit.TakesPrefix);
     }
-
-    private static bool TryUnit(string text, [NotNullWhen(true)] out UnitForm? unit)
-    {
-        if (Units.TryGetValue(text, out unit))
-        {
-            return true;
-        }
-        if (text.Equals("ohm", StringComparison.OrdinalIgnoreCase) || text.Equals("ohms", StringComparison.OrdinalIgnoreCase))
-        {
-            unit = Ohm;
-            return true;
-        }
-        return false;
-    }
-
-    private static int? PrefixExponent(char c) => c switch
-    {
-        'f' => -15,
-        'p' => -12,
-        'n' => -9,
-        'u' or '\u00B5' or '\u03BC' => -6,
-        'm' => -3,
-        'k' or 'K' => 3,
-        'M' => 6,
-        'G' => 9,
-        'T' => 12,
-        _ => null,
-    };
-
-    private static int? RkmExponent(char c) => c == 'R' ? 0 : c == 'f' ? null : PrefixExponent(c);
 
     private static bool NamesNonFinite(string s, int i) =>
         s.AsSpan(i).StartsWith("nan", StringComparison.OrdinalIgnoreCase)

@@ -1,0 +1,41 @@
+namespace DesignRules.Loading;
+
+/// <summary>Finds the design and parts files of a hardware repository.</summary>
+public static class RepositoryFiles
+{
+    /// <summary>
+    /// Expands each path: a file stands for itself; a folder stands for <c>designs/**/*.yaml</c> and
+    /// <c>parts/**/*.yaml</c> below it when it has those folders, else every <c>*.yaml</c> below it.
+    /// The result is sorted (ordinal) so runs are deterministic.
+    /// </summary>
+    /// <param name="paths">Files or folders.</param>
+    /// <param name="missing">Paths that named nothing.</param>
+    public static IReadOnlyList<string> Find(IEnumerable<string> paths, out IReadOnlyList<string> missing)
+    {
+        ArgumentNullException.ThrowIfNull(paths);
+        var files = new List<string>();
+        var absent = new List<string>();
+        foreach (var path in paths)
+        {
+            if (File.Exists(path))
+            {
+                files.Add(path);
+            }
+            else if (Directory.Exists(path))
+            {
+                var designs = Path.Combine(path, "designs");
+                var parts = Path.Combine(path, "parts");
+                var roots = Directory.Exists(designs) || Directory.Exists(parts) ? new[] { designs, parts } : [path];
+                files.AddRange(roots.Where(Directory.Exists).SelectMany(r =>
+                    Directory.EnumerateFiles(r, "*.yaml", SearchOption.AllDirectories).Order(StringComparer.Ordinal)));
+            }
+            else
+            {
+                absent.Add(path);
+            }
+        }
+
+        missing = absent;
+        return files;
+    }
+}
