@@ -101,6 +101,7 @@ public sealed class DesignLoader
             return;
         }
 
+        var errorsBefore = diagnostics.Count;
         var header = DesignReader.ReadHeader(root);
         var visible = new List<PartsLibrary> { builtin!.Library! };
         var seen = new HashSet<string>(StringComparer.Ordinal) { BuiltinLibraryFile };
@@ -115,7 +116,9 @@ public sealed class DesignLoader
 
         var catalog = new PartsCatalog(visible, diagnostics, file);
         var design = DesignReader.Read(file, root, header, visible, catalog);
-        if (design is not null)
+
+        // A design with any error is not handed on: later stages see only designs that loaded cleanly.
+        if (design is not null && !diagnostics.Skip(errorsBefore).Any(d => d.Severity == Severity.Error))
         {
             designs.Add(design);
         }

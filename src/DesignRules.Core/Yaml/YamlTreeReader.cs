@@ -39,6 +39,12 @@ internal static class YamlTreeReader
         {
             return null;
         }
+        catch (Exception ex) when (ex is InvalidOperationException or ArgumentException or IndexOutOfRangeException or FormatException or OverflowException)
+        {
+            // The YAML library can fail on some malformed input with a non-YAML exception; report it at the last good position.
+            diagnostics.Add(DesignFileDiagnostics.YamlSyntax.At(reader.LastSpan ?? SourceSpan.WholeFile(file), "the text after this point cannot be read as YAML"));
+            return null;
+        }
     }
 
     // YamlDotNet's messages start with "(Line: x, Col: y, Idx: z) - (…): "; the position is already in the span.
@@ -55,6 +61,9 @@ internal static class YamlTreeReader
     {
         private readonly Dictionary<string, YamlNode> anchors = new(StringComparer.Ordinal);
         private long total;
+
+        /// <summary>The span of the last event read, for errors the parser reports without a position.</summary>
+        public SourceSpan? LastSpan { get; private set; }
 
         public YamlNode? ReadDocument(Parser parser)
         {
@@ -83,6 +92,7 @@ internal static class YamlTreeReader
                 Refuse(parser.Current!, "Nesting", $"{limits.MaxDepth.ToString(CultureInfo.InvariantCulture)} levels");
             }
 
+            LastSpan = SpanOf(parser.Current!);
             Count(parser.Current!, 1);
             switch (parser.Current)
             {
