@@ -15,7 +15,7 @@ public static class DesignFileDiagnostics
 
     /// <summary>A key that must be present is missing.</summary>
     public static readonly DiagnosticDescriptor MissingKey = Make(
-        "DR902", "Missing required key", "{0} needs the key '{1}' ({2}).");
+        "DR902", "Missing required key", "Missing key '{1}' in {0}: expected {2}.");
 
     /// <summary>A value whose unit belongs to another dimension.</summary>
     public static readonly DiagnosticDescriptor WrongUnit = Make(
@@ -31,7 +31,7 @@ public static class DesignFileDiagnostics
 
     /// <summary>A part reference that names no part of the expected kind.</summary>
     public static readonly DiagnosticDescriptor UnknownPart = Make(
-        "DR906", "Unknown part", "No {0} named '{1}' in the parts libraries this design uses.{2} Known {0}s: {3}.");
+        "DR906", "Unknown part", "No {0} named '{1}' in the parts libraries this design uses.{2} Known: {3}.");
 
     /// <summary>A block name that is not a built-in topology.</summary>
     public static readonly DiagnosticDescriptor UnknownBlock = Make(
@@ -39,7 +39,7 @@ public static class DesignFileDiagnostics
 
     /// <summary>A netlist node that nothing else connects to, or an input/output node that no element uses.</summary>
     public static readonly DiagnosticDescriptor UnknownNode = Make(
-        "DR908", "Unknown node", "Node '{0}' in stage '{1}' is not connected to any element.{2} Nodes of this stage: {3}.");
+        "DR908", "Unknown node", "Node '{0}' in stage '{1}' {2}.{3} Nodes of this stage: {4}.");
 
     /// <summary>An id used twice where ids must be unique.</summary>
     public static readonly DiagnosticDescriptor DuplicateId = Make(

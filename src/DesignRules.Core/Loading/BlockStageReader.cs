@@ -186,7 +186,7 @@ internal static class BlockStageReader
             {
                 if (specific is null)
                 {
-                    m.Diagnostics.Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, DesignReader.Capital(m.What), kind, $"the {kind} part for slot {slot}"));
+                    m.Diagnostics.Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, m.What, kind, $"the {kind} part for slot {slot}"));
                 }
 
                 ok = false;

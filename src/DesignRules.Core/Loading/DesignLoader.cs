@@ -83,7 +83,7 @@ public sealed class DesignLoader
             return;
         }
 
-        if (root.Has("library"))
+        if (IsPartsFile(root))
         {
             var full = FullPath(file);
             if (!libraries.TryGetValue(full, out var entry))
@@ -151,7 +151,7 @@ public sealed class DesignLoader
             var why = hasDesign ? "The file has both 'design:' and 'library:'" : "The file has neither 'design:' nor 'library:'";
             var firstKey = mapping.Entries.FirstOrDefault().Key;
             var hint = firstKey is null ? string.Empty : SpellingSuggestion.Hint(firstKey.Value, ["design", "library"]);
-            diagnostics.Add(DesignFileDiagnostics.NotADesignFile.At(firstKey?.Span ?? mapping.Span, why + (hint.Length > 0 ? "." + hint.TrimEnd('?').Replace(" Did", " did", StringComparison.Ordinal) + "?" : string.Empty)));
+            diagnostics.Add(DesignFileDiagnostics.NotADesignFile.At(firstKey?.Span ?? mapping.Span, why + "." + hint.TrimEnd('?', '.')));
             return null;
         }
 
@@ -212,7 +212,7 @@ public sealed class DesignLoader
             return libraries[full];
         }
 
-        if (!root.Has("library"))
+        if (!IsPartsFile(root))
         {
             diagnostics.Add(DesignFileDiagnostics.NotADesignFile.At(reference.Span, $"'{reference.Value}' is a design file, not a parts file"));
             libraries[full] = new LibraryEntry(path, null);
@@ -326,6 +326,8 @@ public sealed class DesignLoader
 
         return File.ReadAllText(path);
     }
+
+    private static bool IsPartsFile(MappingReader root) => root.Entries.Any(e => e.Key.Value == "library");
 
     private static string FullPath(string path) =>
         path == BuiltinLibraryFile ? path : Path.GetFullPath(path);

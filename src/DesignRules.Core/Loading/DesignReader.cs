@@ -130,7 +130,7 @@ internal static class DesignReader
             }
             else if (!hasFrequency && !hasBand && kind is not null)
             {
-                d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, Capital(what), "frequency", "or 'band', e.g. band: 20 Hz..20 kHz"));
+                d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, what, "frequency", "or 'band', e.g. band: 20 Hz..20 kHz"));
             }
 
             frequency = m.Quantity("frequency", Dimension.Frequency, required: false, ValueChecks.Within(1e-3, 1e9, "a signal frequency lies between 1 mHz and 1 GHz"));
@@ -177,7 +177,7 @@ internal static class DesignReader
 
             if (items.Count == 0 && m.Has("components"))
             {
-                d(m).Add(DesignFileDiagnostics.MissingKey.At(m.KeySpan("components"), Capital(what), "components", "at least one entry"));
+                d(m).Add(DesignFileDiagnostics.MissingKey.At(m.KeySpan("components"), what, "components", "at least one entry"));
             }
         }
 
@@ -212,7 +212,7 @@ internal static class DesignReader
         {
             if (root.Has("stages"))
             {
-                d(root).Add(DesignFileDiagnostics.MissingKey.At(root.KeySpan("stages"), "The design", "stages", "at least one stage"));
+                d(root).Add(DesignFileDiagnostics.MissingKey.At(root.KeySpan("stages"), "the design", "stages", "at least one stage"));
             }
 
             return null;
@@ -268,6 +268,11 @@ internal static class DesignReader
         var requirements = ReadRequirements(m.Child("requires", $"the requirements of {m.What}", false, string.Empty), m.Span);
         if (hasBlock && hasNetlist)
         {
+            foreach (var key in new[] { "amplifier", "amplifiers", "diode", "diodes", "resistors", "capacitors", "values" })
+            {
+                m.Know(key);
+            }
+
             d(m).Add(DesignFileDiagnostics.ConflictingKeys.At(m.KeySpan("netlist"),
                 $"{Capital(m.What)} has both 'block' and 'netlist'; a stage is either a built-in block or an explicit netlist."));
             return null;
@@ -280,7 +285,7 @@ internal static class DesignReader
 
         if (!hasBlock)
         {
-            d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, Capital(m.What), "block", "a built-in block name, or 'netlist' with elements"));
+            d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, m.What, "block", "a built-in block name, or 'netlist' with elements"));
             return null;
         }
 
@@ -342,7 +347,7 @@ internal static class DesignReader
             var reason = m.Text("reason", required: true, "why the finding is accepted");
             if (reason is not null && string.IsNullOrWhiteSpace(reason.Value))
             {
-                d(m).Add(DesignFileDiagnostics.MissingKey.At(reason.Span, "A waiver", "reason", "a non-empty reason"));
+                d(m).Add(DesignFileDiagnostics.MissingKey.At(reason.Span, "a waiver", "reason", "a non-empty reason"));
                 reason = null;
             }
 

@@ -80,7 +80,7 @@ internal sealed partial class MappingReader
 
         if (required)
         {
-            diagnostics.Add(DesignFileDiagnostics.MissingKey.At(e.Key?.Span ?? Anchor, Capitalised(What), key, hint));
+            diagnostics.Add(DesignFileDiagnostics.MissingKey.At(e.Key?.Span ?? Anchor, What, key, hint));
         }
 
         return null;
@@ -295,9 +295,6 @@ internal sealed partial class MappingReader
 
     public static string Position(SourceSpan span) =>
         string.Create(CultureInfo.InvariantCulture, $"line {span.Line}, column {span.Column}");
-
-    private static string Capitalised(string text) =>
-        text.Length == 0 ? text : char.ToUpperInvariant(text[0]) + text[1..];
 
     [GeneratedRegex("^[a-z][a-z0-9-]{0,63}$", RegexOptions.CultureInvariant)]
     private static partial Regex IdPattern();

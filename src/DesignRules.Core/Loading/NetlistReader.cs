@@ -59,7 +59,7 @@ internal static partial class NetlistReader
         m.Finish();
         if (items.Count == 0 && m.Has("elements"))
         {
-            d.Add(DesignFileDiagnostics.MissingKey.At(m.KeySpan("elements"), DesignReader.Capital(m.What), "elements", "at least one element"));
+            d.Add(DesignFileDiagnostics.MissingKey.At(m.KeySpan("elements"), m.What, "elements", "at least one element"));
             ok = false;
         }
 
@@ -237,7 +237,7 @@ internal static partial class NetlistReader
         {
             if (!uses.ContainsKey(end.Value))
             {
-                d.Add(DesignFileDiagnostics.UnknownNode.At(end.Span, end.Value, stage, SpellingSuggestion.Hint(end.Value, names), string.Join(", ", names)));
+                d.Add(DesignFileDiagnostics.UnknownNode.At(end.Span, end.Value, stage, "is used by no element", SpellingSuggestion.Hint(end.Value, names), string.Join(", ", names)));
                 ok = false;
             }
         }
@@ -247,7 +247,7 @@ internal static partial class NetlistReader
             if (list.Count == 1 && name != input.Value && name != output.Value && !GlobalNodes.Contains(name))
             {
                 var others = names.Where(n => n != name).Concat(GlobalNodes);
-                d.Add(DesignFileDiagnostics.UnknownNode.At(list[0].Span, name, stage, SpellingSuggestion.Hint(name, others), string.Join(", ", names)));
+                d.Add(DesignFileDiagnostics.UnknownNode.At(list[0].Span, name, stage, "connects to a single terminal, so it goes nowhere", SpellingSuggestion.Hint(name, others), string.Join(", ", names)));
                 ok = false;
             }
         }

@@ -190,7 +190,7 @@ internal static class PartsReader
 
         if (isat is null && forward is null && !m.Has("saturation-current"))
         {
-            m.Diagnostics.Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, $"Diode '{id.Value}'", "saturation-current", "or a forward-voltage point { voltage, current }"));
+            m.Diagnostics.Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, $"diode '{id.Value}'", "saturation-current", "or a forward-voltage point { voltage, current }"));
         }
         else if (m.Has("saturation-current") && forward is not null)
         {
