@@ -39,7 +39,7 @@ public static class DesignFileDiagnostics
 
     /// <summary>A netlist node that nothing else connects to, or an input/output node that no element uses.</summary>
     public static readonly DiagnosticDescriptor UnknownNode = Make(
-        "DR908", "Unknown node", "Node '{0}' in stage '{1}' {2}.{3} Nodes of this stage: {4}.");
+        "DR908", "Unconnected node", "Node '{0}' in stage '{1}' {2}.{3} Nodes of this stage: {4}.");
 
     /// <summary>An id used twice where ids must be unique.</summary>
     public static readonly DiagnosticDescriptor DuplicateId = Make(

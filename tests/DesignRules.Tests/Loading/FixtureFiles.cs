@@ -1,3 +1,5 @@
+using System.Reflection;
+
 namespace DesignRules.Tests.Loading;
 
 /// <summary>Finds fixture files copied beside the test assembly, and the repository root.</summary>
@@ -8,14 +10,8 @@ internal static class FixtureFiles
     public static IEnumerable<string> Yaml(string relative) =>
         System.IO.Directory.EnumerateFiles(Directory(relative), "*.yaml").Order(StringComparer.Ordinal);
 
-    public static string RepositoryRoot()
-    {
-        var dir = new DirectoryInfo(AppContext.BaseDirectory);
-        while (dir is not null && !File.Exists(Path.Combine(dir.FullName, "DesignRules.sln")))
-        {
-            dir = dir.Parent;
-        }
-
-        return dir?.FullName ?? throw new InvalidOperationException("DesignRules.sln not found above the test assembly");
-    }
+    /// <summary>The repository root, recorded at build time (outputs may live outside the source tree).</summary>
+    public static string RepositoryRoot() =>
+        typeof(FixtureFiles).Assembly.GetCustomAttributes<AssemblyMetadataAttribute>()
+            .Single(a => a.Key == "RepositoryRoot").Value!;
 }
