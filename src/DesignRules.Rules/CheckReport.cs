@@ -1,0 +1,17 @@
+using DesignRules.Diagnostics;
+
+namespace DesignRules.Rules;
+
+/// <summary>The result of one check run: every finding in a stable order, and the rules that were in force.</summary>
+/// <param name="Findings">Findings ordered by file, line, column and rule id.</param>
+/// <param name="Rules">Every rule the run knows, for reports that list the catalogue (e.g. SARIF's tool.driver).</param>
+/// <param name="DesignCount">How many designs loaded and were checked.</param>
+/// <param name="FileCount">How many files were read.</param>
+public sealed record CheckReport(IReadOnlyList<Finding> Findings, IReadOnlyList<DiagnosticDescriptor> Rules, int DesignCount, int FileCount)
+{
+    /// <summary>Findings at error level that no waiver covers.</summary>
+    public int ErrorCount => Findings.Count(f => f.Severity == Severity.Error && !f.IsWaived);
+
+    /// <summary>Findings at warning level that no waiver covers.</summary>
+    public int WarningCount => Findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived);
+}

@@ -1,0 +1,39 @@
+using DesignRules.Diagnostics;
+
+namespace DesignRules.Rules;
+
+/// <summary>
+/// One result of a check: a rule (or a design-file problem) that fired, with its message, the YAML node whose
+/// change would fix it, and the figures it used.
+/// </summary>
+/// <param name="RuleId">The rule id, <c>DR</c> and three digits.</param>
+/// <param name="Title">The rule's title.</param>
+/// <param name="Severity">The effective severity after configuration.</param>
+/// <param name="Message">Measured figure, limit and margin, in words.</param>
+/// <param name="Span">Where to change the design.</param>
+/// <param name="HelpPage">The rule's help page, relative to the repository root of the tool.</param>
+/// <param name="DesignId">The design the finding belongs to, if any.</param>
+/// <param name="StageId">The stage the finding belongs to, if any.</param>
+/// <param name="Waiver">The waiver's reason when a waiver covers this finding; null otherwise.</param>
+/// <param name="Figures">Named figures the rule used, in SI units (for reports).</param>
+public sealed record Finding(
+    string RuleId,
+    string Title,
+    Severity Severity,
+    string Message,
+    SourceSpan Span,
+    string HelpPage,
+    string? DesignId,
+    string? StageId,
+    string? Waiver,
+    IReadOnlyList<Figure> Figures)
+{
+    /// <summary>True when a waiver covers the finding; waived findings never fail a build.</summary>
+    public bool IsWaived => Waiver is not null;
+}
+
+/// <summary>A named figure with its unit symbol, e.g. ("demanded slew", 14.2e6, "V/s").</summary>
+/// <param name="Name">What the figure is.</param>
+/// <param name="Value">Its value in SI units.</param>
+/// <param name="Unit">The SI unit symbol.</param>
+public sealed record Figure(string Name, double Value, string Unit);
