@@ -16,22 +16,38 @@ namespace DesignRules.Diagnostics;
 public sealed record DiagnosticDescriptor(
     string Id, string Title, string Category, Severity DefaultSeverity, string MessageFormat, string HelpPage)
 {
+    /// <summary>The rule's adjustable limits with their defaults.</summary>
+    public IReadOnlyList<ThresholdDefinition> Thresholds { get; init; } = [];
+
+    /// <summary>Makes a diagnostic of this kind at <paramref name="span"/> from named message arguments.</summary>
+    public Diagnostic At(SourceSpan span, IReadOnlyDictionary<string, string> arguments) =>
+        new(Id, DefaultSeverity, Render(arguments), span, HelpPage);
+
+    /// <summary>Substitutes named arguments (<c>{name}</c>) into the message format without re-reading the result.</summary>
+    internal string Render(IReadOnlyDictionary<string, string> arguments) =>
+        Substitute(name => arguments.TryGetValue(name, out var v) ? v : "{" + name + "}");
+
     /// <summary>Makes a diagnostic of this kind at <paramref name="span"/>.</summary>
     public Diagnostic At(SourceSpan span, params object?[] args) =>
         new(Id, DefaultSeverity, Render(args), span, HelpPage);
 
-    /// <summary>Substitutes the arguments into the message format without re-reading the result.</summary>
-    internal string Render(object?[] args)
+    /// <summary>Substitutes positional arguments (<c>{0}</c>) into the message format without re-reading the result.</summary>
+    internal string Render(object?[] args) =>
+        Substitute(name => int.TryParse(name, NumberStyles.None, CultureInfo.InvariantCulture, out var i) && i < args.Length
+            ? Convert.ToString(args[i], CultureInfo.InvariantCulture) ?? string.Empty
+            : string.Empty);
+
+    private string Substitute(Func<string, string> value)
     {
         var text = new System.Text.StringBuilder(MessageFormat.Length + 32);
         for (var i = 0; i < MessageFormat.Length; i++)
         {
             var c = MessageFormat[i];
-            if (c == '{' && i + 2 < MessageFormat.Length && char.IsAsciiDigit(MessageFormat[i + 1]) && MessageFormat[i + 2] == '}')
+            var close = c == '{' ? MessageFormat.IndexOf('}', i + 1) : -1;
+            if (close > i + 1 && MessageFormat.AsSpan(i + 1, close - i - 1).IndexOfAnyExcept(PlaceholderCharacters) < 0)
             {
-                var index = MessageFormat[i + 1] - '0';
-                text.Append(index < args.Length ? Convert.ToString(args[index], CultureInfo.InvariantCulture) : string.Empty);
-                i += 2;
+                text.Append(value(MessageFormat[(i + 1)..close]));
+                i = close;
             }
             else
             {
@@ -41,4 +57,13 @@ public sealed record DiagnosticDescriptor(
 
         return text.ToString();
     }
+
+    private static readonly System.Buffers.SearchValues<char> PlaceholderCharacters =
+        System.Buffers.SearchValues.Create("abcdefghijklmnopqrstuvwxyz0123456789-");
 }
+
+/// <summary>An adjustable limit of a rule.</summary>
+/// <param name="Name">The threshold's key in the catalogue and in rule-set files.</param>
+/// <param name="Default">The default value.</param>
+/// <param name="Description">What it limits and where the default comes from.</param>
+public sealed record ThresholdDefinition(string Name, Quantities.Quantity Default, string Description);
