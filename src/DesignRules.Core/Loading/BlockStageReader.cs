@@ -117,8 +117,8 @@ internal static class BlockStageReader
         var check = dimension == Dimension.Voltage
             ? ValueChecks.Within(0, 1000, "a bias voltage lies within ±1 kV")
             : dimension == Dimension.Resistance
-                ? ValueChecks.Within(1e-3, 1e12, "a resistance lies between 1 mΩ and 1 TΩ")
-                : ValueChecks.Within(1e-15, 10, "a capacitance lies between 1 fF and 10 F");
+                ? ValueChecks.PositiveWithin(1e-3, 1e12, "a resistance lies between 1 mΩ and 1 TΩ")
+                : ValueChecks.PositiveWithin(1e-15, 10, "a capacitance lies between 1 fF and 10 F");
         var node = values.Node(name, required, QuantityForms.Example(dimension));
         switch (node)
         {

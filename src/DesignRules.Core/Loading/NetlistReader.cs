@@ -124,21 +124,21 @@ internal static partial class NetlistReader
         switch (kind.Value)
         {
             case ElementKind.Resistor:
-                value = e.Quantity("value", Dimension.Resistance, required: true, ValueChecks.Within(1e-3, 1e12, "a resistance lies between 1 mΩ and 1 TΩ"));
+                value = e.Quantity("value", Dimension.Resistance, required: true, ValueChecks.PositiveWithin(1e-3, 1e12, "a resistance lies between 1 mΩ and 1 TΩ"));
                 var rf = e.Text("family", required: false, "a resistor family id");
                 resistors = rf is null ? null : catalog.Resistors(rf, d);
                 ok &= value is not null && (rf is null || resistors is not null);
                 nodes = ReadBetween(e, "two nodes, e.g. [in, out]");
                 break;
             case ElementKind.Capacitor:
-                value = e.Quantity("value", Dimension.Capacitance, required: true, ValueChecks.Within(1e-15, 10, "a capacitance lies between 1 fF and 10 F"));
+                value = e.Quantity("value", Dimension.Capacitance, required: true, ValueChecks.PositiveWithin(1e-15, 10, "a capacitance lies between 1 fF and 10 F"));
                 var cf = e.Text("family", required: false, "a capacitor family id");
                 capacitors = cf is null ? null : catalog.Capacitors(cf, d);
                 ok &= value is not null && (cf is null || capacitors is not null);
                 nodes = ReadBetween(e, "two nodes, e.g. [out, ground]");
                 break;
             case ElementKind.Inductor:
-                value = e.Quantity("value", Dimension.Inductance, required: true, ValueChecks.Within(1e-12, 1e3, "an inductance lies between 1 pH and 1 kH"));
+                value = e.Quantity("value", Dimension.Inductance, required: true, ValueChecks.PositiveWithin(1e-12, 1e3, "an inductance lies between 1 pH and 1 kH"));
                 ok &= value is not null;
                 nodes = ReadBetween(e, "two nodes, e.g. [a, b]");
                 break;

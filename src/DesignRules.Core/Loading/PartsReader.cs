@@ -196,7 +196,8 @@ internal static class PartsReader
         {
             m.Diagnostics.Add(DesignFileDiagnostics.ConflictingKeys.At(m.KeySpan("forward-voltage"),
                 $"Diode '{id.Value}' gives both 'saturation-current' and 'forward-voltage'; give one of them."));
-            return null;
+            vf = null;
+            isat = null;
         }
 
         var rs = m.Quantity("series-resistance", Dimension.Resistance, new Quantity(0, Dimension.Resistance), ValueChecks.NotNegative);

@@ -21,6 +21,10 @@ internal static class ValueChecks
 
     public static string? Temperature(Quantity q) => q.Value is >= -273.15 and <= 1000 ? null : "it must lie between −273.15 °C and 1000 °C";
 
+    /// <summary>A positive value within a plausible range (component values).</summary>
+    public static Func<Quantity, string?> PositiveWithin(double low, double high, string what) =>
+        q => q.Value <= 0 ? "it must be greater than zero" : q.Value >= low && q.Value <= high ? null : what;
+
     /// <summary>Guards against values so large or small that they can only be typos (e.g. 10 GF).</summary>
     public static Func<Quantity, string?> Within(double low, double high, string what) =>
         q => Math.Abs(q.Value) >= low && Math.Abs(q.Value) <= high ? null : what;
