@@ -1,12 +1,14 @@
 using DesignRules.Diagnostics;
 using DesignRules.Loading;
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules;
 
 /// <summary>The one library entry point: the MSBuild task and the command line call only this.</summary>
 public static class DesignCheck
 {
-    /// <summary>Loads the design and parts files, evaluates every rule, and returns all findings.</summary>
+    /// <summary>Loads the design and parts files and the rule-set file, evaluates every rule, and returns all findings.</summary>
     /// <param name="files">Design and parts files; order does not matter (they are sorted).</param>
     /// <param name="options">Rule-set file and the date for waiver expiry.</param>
     public static CheckReport Run(IEnumerable<string> files, CheckOptions options)
@@ -14,14 +16,59 @@ public static class DesignCheck
         ArgumentNullException.ThrowIfNull(files);
         ArgumentNullException.ThrowIfNull(options);
         var ordered = files.Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal).ToList();
+        var findings = new List<Finding>();
+
+        var ruleSet = RuleSet.Default;
+        if (options.RuleSetFile is not null)
+        {
+            var (read, problems) = RuleSetLoader.Load(options.RuleSetFile);
+            ruleSet = read;
+            findings.AddRange(problems.Select(FromDiagnostic));
+        }
+
         var loaded = DesignLoader.LoadFiles(ordered);
-        var findings = loaded.Diagnostics.Select(FromDiagnostic).ToList();
-        return new CheckReport(Sort(findings), DesignFileDiagnostics.All, loaded.Designs.Count, ordered.Count);
+        findings.AddRange(loaded.Diagnostics.Select(FromDiagnostic));
+        findings.AddRange(UnknownDesignsInRuleSet(ruleSet, loaded));
+
+        // Designs are independent: evaluate them side by side, then order the findings so output is deterministic.
+        var perDesign = new List<Finding>[loaded.Designs.Count];
+        Parallel.For(0, loaded.Designs.Count, i => perDesign[i] = Evaluate(loaded.Designs[i], ruleSet, options.Today));
+        foreach (var list in perDesign)
+        {
+            findings.AddRange(list);
+        }
+
+        return new CheckReport(Sort(findings), RuleCatalogue.Default.Rules, loaded.Designs.Count, ordered.Count);
+    }
+
+    internal static List<Finding> Evaluate(Design design, RuleSet ruleSet, DateOnly today)
+    {
+        var evaluation = new DesignEvaluation(design, ruleSet);
+        foreach (var rule in RuleRegistry.All)
+        {
+            rule.Evaluate(evaluation);
+        }
+
+        return Waivers.Apply(design, evaluation.Findings, today, evaluation.IsOn);
+    }
+
+    private static IEnumerable<Finding> UnknownDesignsInRuleSet(RuleSet ruleSet, LoadResult loaded)
+    {
+        var ids = loaded.Designs.Select(d => d.Id.Value).ToList();
+        foreach (var design in ruleSet.Designs.Values.Where(d => !ids.Contains(d.Id.Value)))
+        {
+            // Only when every design loaded can an unknown id be told from a design that failed to load.
+            if (!loaded.HasErrors)
+            {
+                yield return FromDiagnostic(DesignFileDiagnostics.UnknownChoice.At(design.Id.Span, design.Id.Value, "a design id",
+                    SpellingSuggestion.Hint(design.Id.Value, ids), string.Join(", ", ids)));
+            }
+        }
     }
 
     private static Finding FromDiagnostic(Diagnostic d)
     {
-        var title = DesignFileDiagnostics.All.FirstOrDefault(x => x.Id == d.Id)?.Title ?? d.Id;
+        var title = RuleCatalogue.Default.TryGet(d.Id, out var rule) && rule is not null ? rule.Title : d.Id;
         return new Finding(d.Id, title, d.Severity, d.Message, d.Span, d.HelpPage, null, null, null, []);
     }
 

@@ -24,7 +24,7 @@ public sealed record DiagnosticDescriptor(
         new(Id, DefaultSeverity, Render(arguments), span, HelpPage);
 
     /// <summary>Substitutes named arguments (<c>{name}</c>) into the message format without re-reading the result.</summary>
-    internal string Render(IReadOnlyDictionary<string, string> arguments) =>
+    public string Render(IReadOnlyDictionary<string, string> arguments) =>
         Substitute(name => arguments.TryGetValue(name, out var v) ? v : "{" + name + "}");
 
     /// <summary>Makes a diagnostic of this kind at <paramref name="span"/>.</summary>
@@ -32,7 +32,7 @@ public sealed record DiagnosticDescriptor(
         new(Id, DefaultSeverity, Render(args), span, HelpPage);
 
     /// <summary>Substitutes positional arguments (<c>{0}</c>) into the message format without re-reading the result.</summary>
-    internal string Render(object?[] args) =>
+    public string Render(object?[] args) =>
         Substitute(name => int.TryParse(name, NumberStyles.None, CultureInfo.InvariantCulture, out var i) && i < args.Length
             ? Convert.ToString(args[i], CultureInfo.InvariantCulture) ?? string.Empty
             : string.Empty);

@@ -1,7 +1,7 @@
 namespace DesignRules.Diagnostics;
 
 /// <summary>Finds the closest known word to a misspelled one, for "did you mean" hints.</summary>
-internal static class SpellingSuggestion
+public static class SpellingSuggestion
 {
     /// <summary>The closest candidate within a distance that suggests a typo, or null.</summary>
     public static string? Closest(string word, IEnumerable<string> candidates)

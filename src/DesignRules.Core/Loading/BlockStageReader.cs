@@ -79,8 +79,9 @@ internal static class BlockStageReader
             amplifierSlots.AddRange(block.OptionalAmplifierSlots);
         }
 
-        var amplifiers = ResolveSlots(m, "amplifier", amplifier, perAmplifier, amplifierSlots, block.OptionalAmplifierSlots, catalog.Amplifier, ref ok);
-        var diodes = ResolveSlots(m, "diode", diode, perDiode, block.DiodeSlots, [], catalog.Diode, ref ok);
+        var spans = new Dictionary<string, SourceSpan>(StringComparer.Ordinal);
+        var amplifiers = ResolveSlots(m, "amplifier", amplifier, perAmplifier, amplifierSlots, block.OptionalAmplifierSlots, catalog.Amplifier, spans, ref ok);
+        var diodes = ResolveSlots(m, "diode", diode, perDiode, block.DiodeSlots, [], catalog.Diode, spans, ref ok);
         if (block.DiodeSlots.Count == 0 && diode is not null)
         {
             d.Add(DesignFileDiagnostics.UnknownKey.At(m.KeySpan("diode"), "diode", m.What, $" The block '{block.Name}' has no diodes.", "the block's slots only"));
@@ -98,7 +99,10 @@ internal static class BlockStageReader
             return null;
         }
 
-        return new BlockStage(id, block, blockName, amplifiers, diodes, componentValues, flags, requirements, m.Span);
+        return new BlockStage(id, block, blockName, amplifiers, diodes, componentValues, flags, requirements, m.Span)
+        {
+            PartSpans = spans,
+        };
     }
 
     /// <summary>The dimension of a block value from its name: r… resistance, c… capacitance, bias voltage.</summary>
@@ -164,7 +168,7 @@ internal static class BlockStageReader
 
     private static Dictionary<string, T> ResolveSlots<T>(
         MappingReader m, string kind, Located<string>? common, MappingReader? perSlot, IReadOnlyList<string> slots,
-        IReadOnlyList<string> optionalSlots, Func<Located<string>, List<Diagnostic>, T?> find, ref bool ok)
+        IReadOnlyList<string> optionalSlots, Func<Located<string>, List<Diagnostic>, T?> find, Dictionary<string, SourceSpan> spans, ref bool ok)
         where T : class
     {
         var result = new Dictionary<string, T>(StringComparer.Ordinal);
@@ -181,6 +185,7 @@ internal static class BlockStageReader
             if (part is not null)
             {
                 result[slot] = part;
+                spans[slot] = (specific ?? common)!.Span;
             }
             else if (specific is not null || common is null)
             {

@@ -35,7 +35,11 @@ public sealed record BlockStage(
     IReadOnlyDictionary<string, ComponentValue> Values,
     IReadOnlyDictionary<string, Located<bool>> Flags,
     Requirements Requirements,
-    SourceSpan Span) : Stage(Id, Requirements, Span);
+    SourceSpan Span) : Stage(Id, Requirements, Span)
+{
+    /// <summary>Where each slot's part is named in the design file (slot → span of the part id), for findings to point at.</summary>
+    public IReadOnlyDictionary<string, SourceSpan> PartSpans { get; init; } = new Dictionary<string, SourceSpan>(StringComparer.Ordinal);
+}
 
 /// <summary>Kinds of element an explicit netlist may hold.</summary>
 public enum ElementKind

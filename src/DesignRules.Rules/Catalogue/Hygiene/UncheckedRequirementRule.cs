@@ -1,0 +1,66 @@
+using DesignRules.Diagnostics;
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
+
+namespace DesignRules.Rules.Catalogue.Hygiene;
+
+/// <summary>DR702: a requirement that no rule can check, so that nobody relies on a check that never runs.</summary>
+internal sealed class UncheckedRequirementRule : Rule
+{
+    private static readonly HashSet<string> Rectifiers = new(StringComparer.Ordinal)
+    {
+        "half-wave-inverting", "half-wave-follower", "absolute-value",
+    };
+
+    public override string Id => "DR702";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        var design = evaluation.Design;
+        foreach (var stage in design.Stages)
+        {
+            var r = stage.Requirements;
+            var target = $"stage `{stage.Id.Value}`";
+            var rectifying = stage is BlockStage b ? Rectifiers.Contains(b.Block.Name) : stage is NetlistStage n && n.Elements.Any(e => e.Kind == ElementKind.Diode);
+            if (r.Glitch is not null && !rectifying)
+            {
+                Report(evaluation, stage.Id.Value, r.Glitch.Span, "glitch", target, "only rectifying stages have zero-crossing glitches");
+            }
+
+            if (r.MinSignal is not null && !rectifying)
+            {
+                Report(evaluation, stage.Id.Value, r.MinSignal.Span, "min-signal", target, "the smallest-signal check applies to precision rectifiers");
+            }
+
+            if (r.Yield is not null && r.Accuracy is null)
+            {
+                Report(evaluation, stage.Id.Value, r.Yield.Span, "yield", target, "a yield needs an accuracy to count samples against");
+            }
+
+            if (r.Transfer is { Value: TransferKind.Peak or TransferKind.Average } && r.Accuracy is not null)
+            {
+                Report(evaluation, stage.Id.Value, r.Accuracy.Span, "accuracy", target, "the accuracy of peak and average transfers is not yet computed");
+            }
+        }
+
+        var chain = design.Requirements;
+        foreach (var (name, span) in new (string, SourceSpan?)[]
+                 {
+                     ("transfer", chain.Transfer?.Span), ("gain", chain.Gain?.Span), ("accuracy", chain.Accuracy?.Span),
+                     ("glitch", chain.Glitch?.Span), ("yield", chain.Yield?.Span), ("bandwidth", chain.Bandwidth?.Span),
+                     ("output-offset", chain.OutputOffset?.Span), ("min-signal", chain.MinSignal?.Span),
+                 })
+        {
+            if (span is not null)
+            {
+                Report(evaluation, null, span, name, $"design `{design.Id.Value}`", "requirements are checked per stage; move it to the stage it concerns");
+            }
+        }
+    }
+
+    private void Report(DesignEvaluation evaluation, string? stage, SourceSpan span, string requirement, string target, string reason) =>
+        evaluation.Report(Id, stage, span, new Dictionary<string, string>
+        {
+            ["requirement"] = requirement, ["target"] = target, ["reason"] = reason,
+        });
+}

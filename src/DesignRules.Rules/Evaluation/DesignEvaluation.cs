@@ -1,0 +1,131 @@
+using System.Globalization;
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Quantities;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation;
+
+/// <summary>
+/// Everything the rules see of one design: the model, the analyses (each run at most once, on first use), the
+/// effective levels and thresholds, and the place findings are reported to.
+/// </summary>
+internal sealed class DesignEvaluation
+{
+    private readonly List<Finding> findings = [];
+    private readonly RuleSet ruleSet;
+
+    public DesignEvaluation(Design design, RuleSet ruleSet)
+    {
+        Design = design;
+        this.ruleSet = ruleSet;
+        Analyses = new DesignAnalyses(design, ruleSet.MonteCarlo);
+    }
+
+    public Design Design { get; }
+
+    public DesignAnalyses Analyses { get; }
+
+    public MonteCarloSettings MonteCarlo => ruleSet.MonteCarlo;
+
+    public IReadOnlyList<Finding> Findings => findings;
+
+    /// <summary>The level a rule has for this design and stage after the rule-set file's changes.</summary>
+    public RuleLevel LevelOf(string ruleId, string? stageId)
+    {
+        var level = ToLevel(RuleCatalogue.Default[ruleId].DefaultSeverity);
+        foreach (var change in ruleSet.OverridesFor(ruleId, Design.Id.Value, stageId))
+        {
+            level = change.Level?.Value ?? level;
+        }
+
+        return level;
+    }
+
+    /// <summary>A threshold's value for this design and stage: catalogue default, then global, design and stage changes.</summary>
+    public double Threshold(string ruleId, string name, string? stageId)
+    {
+        var definition = RuleCatalogue.Default[ruleId].Thresholds.FirstOrDefault(t => t.Name == name)
+            ?? throw new KeyNotFoundException($"{ruleId} has no threshold '{name}' in the catalogue.");
+        var value = definition.Default.Value;
+        foreach (var change in ruleSet.OverridesFor(ruleId, Design.Id.Value, stageId))
+        {
+            if (change.Thresholds.TryGetValue(name, out var q))
+            {
+                value = q.Value.Value;
+            }
+        }
+
+        return value;
+    }
+
+    /// <summary>True when the rule is not switched off for this stage.</summary>
+    public bool IsOn(string ruleId, string? stageId) => LevelOf(ruleId, stageId) != RuleLevel.Off;
+
+    /// <summary>Reports a finding of <paramref name="ruleId"/> unless the rule is off for the stage.</summary>
+    public void Report(string ruleId, string? stageId, SourceSpan span, IReadOnlyDictionary<string, string> arguments, params Figure[] figures)
+    {
+        var level = LevelOf(ruleId, stageId);
+        if (level == RuleLevel.Off)
+        {
+            return;
+        }
+
+        var rule = RuleCatalogue.Default[ruleId];
+        findings.Add(new Finding(ruleId, rule.Title, ToSeverity(level), rule.Render(arguments), span, rule.HelpPage,
+            Design.Id.Value, stageId, null, figures));
+    }
+
+    /// <summary>Reports an analysis that could not be completed, at the element or node it names.</summary>
+    public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain)
+    {
+        var rule = RuleCatalogue.Default["DR920"];
+        var message = rule.Render([analysis, Design.Id.Value, failure.ToString()]);
+        if (findings.Any(f => f.RuleId == "DR920" && f.Message == message))
+        {
+            return;
+        }
+
+        findings.Add(new Finding("DR920", rule.Title, Severity.Error, message, chain.Locate(failure), rule.HelpPage, Design.Id.Value, null, null, []));
+    }
+
+    private static RuleLevel ToLevel(Severity severity) => severity switch
+    {
+        Severity.Error => RuleLevel.Error,
+        Severity.Warning => RuleLevel.Warning,
+        _ => RuleLevel.Note,
+    };
+
+    private static Severity ToSeverity(RuleLevel level) => level switch
+    {
+        RuleLevel.Error => Severity.Error,
+        RuleLevel.Warning => Severity.Warning,
+        _ => Severity.Note,
+    };
+}
+
+/// <summary>Formats figures for messages: engineering notation, invariant culture.</summary>
+internal static class Say
+{
+    public static string Volts(double v) => new Quantity(v, Dimension.Voltage).Format();
+
+    public static string Amps(double a) => new Quantity(a, Dimension.Current).Format();
+
+    public static string Ohms(double r) => new Quantity(r, Dimension.Resistance).Format();
+
+    public static string Hertz(double f) => new Quantity(f, Dimension.Frequency).Format();
+
+    public static string Seconds(double t) => new Quantity(t, Dimension.Time).Format();
+
+    public static string Slew(double s) => new Quantity(s, Dimension.SlewRate).Format();
+
+    public static string Watts(double p) => new Quantity(p, Dimension.Power).Format();
+
+    public static string Percent(double ratio) => new Quantity(ratio, Dimension.Ratio).FormatPercent();
+
+    public static string Ratio(double r) => new Quantity(r, Dimension.Ratio).Format();
+
+    public static string Decibels(double ratio) =>
+        (20 * Math.Log10(ratio)).ToString("0.#", CultureInfo.InvariantCulture) + " dB";
+}
