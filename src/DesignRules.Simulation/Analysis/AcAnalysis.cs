@@ -1,0 +1,54 @@
+using System.Numerics;
+
+namespace DesignRules.Simulation;
+
+/// <summary>
+/// AC small-signal analysis: at each frequency the devices stamp their admittances linearised at the operating point
+/// (G + jωC), the complex MNA system is factored and solved.
+/// </summary>
+internal static class AcAnalysis
+{
+    public static AcResult Run(CompiledCircuit compiled, double[] operatingPoint, IReadOnlyList<double> frequencies, SolverLimits limits, OperatingPointResult op)
+    {
+        var layout = compiled.Layout;
+        var context = new AcLoadContext(layout.Size) { Gmin = limits.Gmin, Temperature = compiled.Temperature };
+        Array.Copy(operatingPoint, context.X, operatingPoint.Length);
+        var map = new SignalMap(compiled);
+        var table = new SampleTable<Complex>(map.Width);
+        var conductances = compiled.Amplifiers.Select(a => a.Evaluate(operatingPoint, dc: true).OutputConductance).ToArray();
+        var solved = new List<double>(frequencies.Count);
+        foreach (double f in frequencies)
+        {
+            context.Omega = 2 * Math.PI * f;
+            context.System.Clear();
+            foreach (var device in compiled.Devices) device.LoadAc(context);
+            int singular = context.System.Factor();
+            if (singular >= 0)
+            {
+                string? owner = layout.Owners[singular];
+                var failure = new SimulationFailure(FailureKind.SingularMatrix, $"the small-signal equations are singular at '{layout.Names[singular]}'")
+                {
+                    Node = owner is null ? layout.Names[singular] : null,
+                    ElementId = owner,
+                    SweepValue = f,
+                };
+                return new AcResult(map, table, [.. solved], op, failure);
+            }
+
+            context.System.Solve();
+            var row = table.AddRow();
+            var x = context.System.Rhs;
+            x.AsSpan().CopyTo(row);
+            for (int i = 0; i < compiled.Amplifiers.Length; i++)
+            {
+                var nodes = compiled.Amplifiers[i].Nodes;
+                Complex vo = nodes.Output >= 0 ? x[nodes.Output] : Complex.Zero;
+                row[layout.Size + i] = conductances[i] * (x[nodes.Stage] - vo);
+            }
+
+            solved.Add(f);
+        }
+
+        return new AcResult(map, table, [.. solved], op, null);
+    }
+}

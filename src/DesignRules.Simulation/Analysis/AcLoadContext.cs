@@ -1,0 +1,49 @@
+using System.Numerics;
+
+namespace DesignRules.Simulation;
+
+/// <summary>The complex MNA system of an AC small-signal point, linearised at the operating point held in <see cref="X"/>.</summary>
+internal sealed class AcLoadContext(int size)
+{
+    /// <summary>Complex matrix and right-hand side.</summary>
+    public DenseLu<Complex> System { get; } = new(size);
+
+    /// <summary>Operating point.</summary>
+    public double[] X { get; } = new double[size];
+
+    /// <summary>Angular frequency ω in rad/s.</summary>
+    public double Omega { get; set; }
+
+    /// <summary>Minimum junction conductance in S.</summary>
+    public double Gmin { get; set; }
+
+    /// <summary>Circuit temperature in K.</summary>
+    public double Temperature { get; set; } = PhysicalConstants.DefaultTemperature;
+
+    /// <summary>Adds <paramref name="value"/> at (row, column) unless either is the reference.</summary>
+    public void Add(int row, int column, Complex value)
+    {
+        if (row >= 0 && column >= 0) System.Matrix[(row * System.Size) + column] += value;
+    }
+
+    /// <summary>Adds to the right-hand side unless the row is the reference.</summary>
+    public void AddRhs(int row, Complex value)
+    {
+        if (row >= 0) System.Rhs[row] += value;
+    }
+
+    /// <summary>Operating-point voltage of unknown <paramref name="index"/> (0 for the reference).</summary>
+    public double V(int index) => index >= 0 ? X[index] : 0;
+
+    /// <summary>Stamps an admittance between two nodes.</summary>
+    public void Admittance(int a, int b, Complex y)
+    {
+        Add(a, a, y);
+        Add(b, b, y);
+        Add(a, b, -y);
+        Add(b, a, -y);
+    }
+
+    /// <summary>Phasor of a source waveform.</summary>
+    public static Complex Phasor(Waveform waveform) => Complex.FromPolarCoordinates(waveform.AcMagnitude, waveform.AcPhase);
+}

@@ -1,0 +1,107 @@
+namespace DesignRules.Simulation;
+
+/// <summary>
+/// Finds a DC operating point: plain Newton first; if it fails, gmin stepping (node-to-reference shunts from 1e-2 S
+/// down one decade per step, each step halved on failure) and then source stepping (all independent sources ramped
+/// from zero). Every loop is bounded by <see cref="SolverLimits"/>.
+/// </summary>
+internal static class OperatingPointSolver
+{
+    /// <summary>Solves in the present context; X holds the starting guess and, on success, the solution.</summary>
+    public static SimulationFailure? Solve(NewtonSolver solver, string what, bool fromScratch = true)
+    {
+        var context = solver.Context;
+        var limits = solver.Limits;
+        context.Mode = AnalysisMode.Dc;
+        context.Alpha = 0;
+        context.SourceScale = 1;
+        double[] start = (double[])context.X.Clone();
+        if (fromScratch) solver.ResetDevices();
+        var outcome = solver.Solve(limits.MaxDcIterations, 0);
+        if (outcome.Status == NewtonStatus.Converged) return null;
+        if (outcome.Status == NewtonStatus.Singular) return solver.Describe(outcome, what);
+        var first = outcome;
+
+        if (GminStepping(solver, start)) return null;
+        if (SourceStepping(solver)) return null;
+        Array.Copy(start, context.X, start.Length);
+        context.SourceScale = 1;
+        return solver.Describe(first, what + " (also with gmin and source stepping)");
+    }
+
+    private static bool GminStepping(NewtonSolver solver, double[] start)
+    {
+        var limits = solver.Limits;
+        if (limits.GminSteps <= 0) return false;
+        var context = solver.Context;
+        Array.Copy(start, context.X, start.Length);
+        solver.ResetDevices();
+        double[] good = (double[])context.X.Clone();
+        double logShunt = -2;
+        double logStep = Math.Max((-2.0 - Math.Log10(Math.Max(limits.Gmin, 1e-15))) / limits.GminSteps, 0.1);
+        double lastGood = double.NaN;
+        int halvings = 0;
+        int guard = limits.GminSteps * (limits.MaxStepHalvings + 2) + 4;
+        while (guard-- > 0)
+        {
+            double shunt = Math.Pow(10, logShunt);
+            bool final = shunt <= limits.Gmin;
+            var outcome = solver.Solve(limits.MaxDcIterations, final ? 0 : shunt);
+            if (outcome.Status == NewtonStatus.Converged)
+            {
+                if (final) return true;
+                Array.Copy(context.X, good, good.Length);
+                lastGood = logShunt;
+                logShunt -= logStep;
+                if (Math.Pow(10, logShunt) < limits.Gmin) logShunt = Math.Log10(Math.Max(limits.Gmin, 1e-300)) - 1;
+                continue;
+            }
+
+            if (outcome.Status == NewtonStatus.Singular || double.IsNaN(lastGood) || ++halvings > limits.MaxStepHalvings) return false;
+            Array.Copy(good, context.X, good.Length);
+            logStep /= 2;
+            logShunt = lastGood - logStep;
+        }
+
+        return false;
+    }
+
+    private static bool SourceStepping(NewtonSolver solver)
+    {
+        var limits = solver.Limits;
+        var context = solver.Context;
+        Array.Clear(context.X);
+        solver.ResetDevices();
+        double[] good = new double[context.X.Length];
+        double scale = 0, step = 1.0 / limits.SourceSteps, lastGood = -1;
+        int halvings = 0;
+        int guard = limits.SourceSteps * (limits.MaxStepHalvings + 2) + 4;
+        try
+        {
+            while (guard-- > 0)
+            {
+                context.SourceScale = scale;
+                var outcome = solver.Solve(limits.MaxDcIterations, 0);
+                if (outcome.Status == NewtonStatus.Converged)
+                {
+                    if (scale >= 1) return true;
+                    Array.Copy(context.X, good, good.Length);
+                    lastGood = scale;
+                    scale = Math.Min(1, scale + step);
+                    continue;
+                }
+
+                if (outcome.Status == NewtonStatus.Singular || lastGood < 0 || ++halvings > limits.MaxStepHalvings) return false;
+                Array.Copy(good, context.X, good.Length);
+                step /= 2;
+                scale = lastGood + step;
+            }
+
+            return false;
+        }
+        finally
+        {
+            context.SourceScale = 1;
+        }
+    }
+}

@@ -1,0 +1,130 @@
+namespace DesignRules.Simulation;
+
+/// <summary>
+/// Entry points of the engine: DC operating point, DC sweep, AC small-signal sweep and transient. Each compiles the
+/// circuit afresh (so one circuit may be analysed from several threads at once) and returns a result that carries
+/// either the figures or a located <see cref="SimulationFailure"/>; problems of the circuit never throw.
+/// </summary>
+public static class Simulate
+{
+    /// <summary>DC operating point with the sources at their quiescent values (<see cref="Waveform.DcValue"/>).</summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="limits">Solver bounds (default <see cref="SolverLimits.Default"/>).</param>
+    public static OperatingPointResult OperatingPoint(Circuit circuit, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        limits ??= SolverLimits.Default;
+        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return Failed(failure!);
+        failure = OperatingPointSolver.Solve(solver, "the DC operating point");
+        return Result(compiled!, solver, failure);
+    }
+
+    /// <summary>
+    /// DC sweep: the operating point at each value of an independent voltage or current source, each solved from the
+    /// previous solution.
+    /// </summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="sourceId">Id of the voltage or current source to sweep.</param>
+    /// <param name="values">Source values, in V or A.</param>
+    /// <param name="limits">Solver bounds.</param>
+    public static DcSweepResult DcSweep(Circuit circuit, string sourceId, IReadOnlyList<double> values, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        ArgumentNullException.ThrowIfNull(sourceId);
+        ArgumentNullException.ThrowIfNull(values);
+        limits ??= SolverLimits.Default;
+        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new DcSweepResult(sourceId, null, null, [], failure);
+        if (!compiled!.Devices.Any(d => d.Id == sourceId && d is VoltageSourceDevice or CurrentSourceDevice))
+        {
+            return new DcSweepResult(sourceId, null, null, [], new SimulationFailure(FailureKind.InvalidRequest, $"'{sourceId}' is not an independent voltage or current source of this circuit") { ElementId = sourceId });
+        }
+
+        if (values.Count == 0 || values.Count > limits.MaxSweepPoints || values.Any(v => !double.IsFinite(v)))
+        {
+            return new DcSweepResult(sourceId, null, null, [], new SimulationFailure(FailureKind.InvalidRequest, "sweep values must be finite, at least one and no more than the sweep-point limit") { ElementId = sourceId });
+        }
+
+        var map = new SignalMap(compiled);
+        var table = new SampleTable<double>(map.Width);
+        var context = solver.Context;
+        context.OverrideSource = sourceId;
+        var solved = new List<double>(values.Count);
+        for (int i = 0; i < values.Count; i++)
+        {
+            context.OverrideValue = values[i];
+            failure = OperatingPointSolver.Solve(solver, $"the DC sweep of '{sourceId}'", fromScratch: i == 0);
+            if (failure is not null)
+            {
+                failure = failure with { SweepValue = values[i] };
+                break;
+            }
+
+            SignalMap.Fill(compiled, context.X, table.AddRow(), null);
+            solved.Add(values[i]);
+        }
+
+        return new DcSweepResult(sourceId, map, table, [.. solved], failure);
+    }
+
+    /// <summary>AC small-signal sweep, linearised at the DC operating point; sources contribute their <see cref="Waveform.AcMagnitude"/> and phase.</summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="sweep">Frequencies.</param>
+    /// <param name="limits">Solver bounds.</param>
+    public static AcResult AcSweep(Circuit circuit, AcSweep sweep, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        ArgumentNullException.ThrowIfNull(sweep);
+        limits ??= SolverLimits.Default;
+        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new AcResult(null, null, [], Failed(failure!), failure);
+        failure = OperatingPointSolver.Solve(solver, "the DC operating point");
+        var op = Result(compiled!, solver, failure);
+        if (failure is not null) return new AcResult(null, null, [], op, failure);
+        var frequencies = sweep.Frequencies;
+        if (frequencies is null || frequencies.Count == 0 || frequencies.Count > limits.MaxSweepPoints || frequencies.Any(f => !(f > 0) || !double.IsFinite(f)))
+        {
+            return new AcResult(null, null, [], op, new SimulationFailure(FailureKind.InvalidRequest, "AC frequencies must be positive, finite, at least one and no more than the sweep-point limit"));
+        }
+
+        return AcAnalysis.Run(compiled!, solver.Context.X, frequencies, limits, op);
+    }
+
+    /// <summary>Transient analysis from the DC operating point at t = 0 (see <see cref="TransientOptions"/>).</summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="options">Stop time, step bounds, method and tolerances.</param>
+    /// <param name="limits">Solver bounds.</param>
+    public static TransientResult Transient(Circuit circuit, TransientOptions options, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        ArgumentNullException.ThrowIfNull(options);
+        limits ??= SolverLimits.Default;
+        var empty = new TransientStatistics(0, 0, 0, 0);
+        if (options.Validate() is { } bad) return new TransientResult(null, null, [], [], empty, new SimulationFailure(FailureKind.InvalidRequest, bad));
+        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new TransientResult(null, null, [], [], empty, failure);
+        return new TransientAnalysis(compiled!, solver, options).Run();
+    }
+
+    private static NewtonSolver? Prepare(Circuit circuit, SolverLimits limits, out CompiledCircuit? compiled, out SimulationFailure? failure)
+    {
+        compiled = null;
+        if (limits.Validate() is { } bad)
+        {
+            failure = new SimulationFailure(FailureKind.InvalidRequest, "solver limits: " + bad);
+            return null;
+        }
+
+        (compiled, failure) = CompiledCircuit.Compile(circuit);
+        return compiled is null ? null : new NewtonSolver(compiled, limits);
+    }
+
+    private static OperatingPointResult Failed(SimulationFailure failure) => new(null, [], [], failure);
+
+    private static OperatingPointResult Result(CompiledCircuit compiled, NewtonSolver solver, SimulationFailure? failure)
+    {
+        if (failure is not null) return Failed(failure);
+        var map = new SignalMap(compiled);
+        var values = new double[map.Width];
+        var samples = new AmplifierSample[compiled.Amplifiers.Length];
+        SignalMap.Fill(compiled, solver.Context.X, values, samples);
+        return new OperatingPointResult(map, values, samples, null);
+    }
+}

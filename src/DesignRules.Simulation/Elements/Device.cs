@@ -1,0 +1,22 @@
+namespace DesignRules.Simulation;
+
+/// <summary>
+/// A compiled element of one analysis run: knows its unknown indices and loads its equations. Devices are created
+/// fresh for every analysis from the circuit's element definitions, so circuits can be analysed concurrently.
+/// </summary>
+internal abstract class Device(string id)
+{
+    /// <summary>Element id.</summary>
+    public string Id { get; } = id;
+
+    /// <summary>Loads the linearised equations at the present guess.</summary>
+    public abstract void Load(LoadContext context);
+
+    /// <summary>Loads the small-signal complex equations at the operating point.</summary>
+    public abstract void LoadAc(AcLoadContext context);
+
+    /// <summary>Called once before a new solve starts from scratch (resets junction-limiting memory).</summary>
+    public virtual void Reset()
+    {
+    }
+}

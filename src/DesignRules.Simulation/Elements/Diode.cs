@@ -1,0 +1,129 @@
+using System.Numerics;
+
+namespace DesignRules.Simulation;
+
+/// <summary>A junction diode from Anode to Cathode (see <see cref="DiodeModel"/> for its equations).</summary>
+internal sealed record DiodeDefinition(string Id, string Anode, string Cathode, DiodeModel Model) : ElementDefinition(Id)
+{
+    public override IEnumerable<string> Nodes => [Anode, Cathode];
+
+    public override IEnumerable<(string A, string B)> DcPaths => [(Anode, Cathode)];
+
+    public override string? Validate() => Model is null ? "diode model is missing" : Model.Validate();
+
+    public override Device Compile(CircuitLayout layout)
+    {
+        int anode = layout.Node(Anode), cathode = layout.Node(Cathode);
+        int junction = Model.SeriesResistance > 0 ? layout.InternalNode(Id, "junction") : anode;
+        int state = Model.JunctionCapacitance > 0 ? layout.IntegratedState(Id, Model.JunctionCapacitance) : -1;
+        return new DiodeDevice(Id, anode, junction, cathode, state, Model);
+    }
+}
+
+/// <summary>
+/// Compiled diode. The junction voltage is limited between Newton iterations with the logarithmic junction-voltage
+/// limiting of Nagel (1975): a forward step larger than 2·n·V_T above the critical voltage
+/// V_crit = n·V_T·ln(n·V_T/(√2·Is)) is replaced by the voltage at which the exponential's current would change by the
+/// linearised amount, so the exponential never overflows and Newton converges from any start.
+/// </summary>
+internal sealed class DiodeDevice(string id, int anode, int junction, int cathode, int state, DiodeModel model) : Device(id)
+{
+    private readonly double seriesConductance = model.SeriesResistance > 0 ? 1 / model.SeriesResistance : 0;
+    private double lastVoltage;
+    private double cachedTemperature = double.NaN;
+    private double nvt;
+    private double criticalForward;
+    private double criticalBreakdown;
+
+    public override void Reset() => lastVoltage = 0;
+
+    public override void Load(LoadContext context)
+    {
+        Prepare(context.Temperature);
+        if (junction != anode) context.Conductance(anode, junction, seriesConductance);
+        double v = context.V(junction) - context.V(cathode);
+        double limitedV = Limit(v, lastVoltage, out bool limited);
+        if (limited)
+        {
+            context.Limited = true;
+            context.LimitedBy = Id;
+        }
+
+        lastVoltage = limitedV;
+        double current = Current(limitedV, context.Gmin, out double g);
+        context.NonlinearBranch(junction, cathode, current, g, limitedV);
+        if (state >= 0)
+        {
+            double c = model.JunctionCapacitance;
+            double chargeCurrent = context.Derivative(state, c * limitedV);
+            context.NonlinearBranch(junction, cathode, chargeCurrent, context.Alpha * c, limitedV);
+        }
+    }
+
+    public override void LoadAc(AcLoadContext context)
+    {
+        Prepare(context.Temperature);
+        if (junction != anode) context.Admittance(anode, junction, seriesConductance);
+        double v = context.V(junction) - context.V(cathode);
+        Current(v, context.Gmin, out double g);
+        context.Admittance(junction, cathode, new Complex(g, context.Omega * model.JunctionCapacitance));
+    }
+
+    /// <summary>Junction current (Shockley law plus breakdown plus gmin) and its conductance.</summary>
+    internal double Current(double v, double gmin, out double conductance)
+    {
+        double e = SmoothFunctions.LimitedExp(v / nvt, out double slope);
+        double current = model.SaturationCurrent * (e - 1);
+        conductance = model.SaturationCurrent * slope / nvt;
+        if (model.BreakdownVoltage is { } bv)
+        {
+            double eb = SmoothFunctions.LimitedExp(-(v + bv) / nvt, out double slopeB);
+            current -= model.BreakdownCurrent * eb;
+            conductance += model.BreakdownCurrent * slopeB / nvt;
+        }
+
+        current += gmin * v;
+        conductance += gmin;
+        return current;
+    }
+
+    private void Prepare(double temperature)
+    {
+        if (temperature == cachedTemperature) return;
+        cachedTemperature = temperature;
+        nvt = model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature);
+        criticalForward = nvt * Math.Log(nvt / (Math.Sqrt(2) * model.SaturationCurrent));
+        criticalBreakdown = nvt * Math.Log(nvt / (Math.Sqrt(2) * model.BreakdownCurrent));
+    }
+
+    private double Limit(double v, double previous, out bool limited)
+    {
+        v = LimitExponential(v, previous, criticalForward, out limited);
+        if (model.BreakdownVoltage is { } bv)
+        {
+            double w = LimitExponential(-(v + bv), -(previous + bv), criticalBreakdown, out bool limitedB);
+            v = -w - bv;
+            limited |= limitedB;
+        }
+
+        return v;
+    }
+
+    private double LimitExponential(double v, double previous, double critical, out bool limited)
+    {
+        limited = false;
+        if (v > critical && Math.Abs(v - previous) > 2 * nvt)
+        {
+            limited = true;
+            if (previous > 0)
+            {
+                double arg = 1 + ((v - previous) / nvt);
+                return arg > 0 ? previous + (nvt * Math.Log(arg)) : critical;
+            }
+
+            return nvt * Math.Log(v / nvt);
+        }
+
+        return v;
+    }
+}

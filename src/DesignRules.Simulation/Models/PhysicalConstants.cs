@@ -1,0 +1,23 @@
+namespace DesignRules.Simulation;
+
+/// <summary>
+/// Exact physical constants of the 2019 revision of the SI and the thermal voltage derived from them.
+/// </summary>
+public static class PhysicalConstants
+{
+    /// <summary>Boltzmann constant k in J/K (exact since the 2019 SI revision).</summary>
+    public const double Boltzmann = 1.380649e-23;
+
+    /// <summary>Elementary charge e in C (exact since the 2019 SI revision).</summary>
+    public const double ElementaryCharge = 1.602176634e-19;
+
+    /// <summary>0 °C in kelvin.</summary>
+    public const double ZeroCelsius = 273.15;
+
+    /// <summary>Default circuit temperature: 27 °C = 300.15 K, the customary "room temperature" of circuit analysis.</summary>
+    public const double DefaultTemperature = 300.15;
+
+    /// <summary>Thermal voltage V_T = k·T/e in volts at <paramref name="temperature"/> kelvin (≈ 25.865 mV at 300.15 K).</summary>
+    /// <param name="temperature">Absolute temperature in K.</param>
+    public static double ThermalVoltage(double temperature) => Boltzmann * temperature / ElementaryCharge;
+}
