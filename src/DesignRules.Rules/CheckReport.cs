@@ -9,9 +9,21 @@ namespace DesignRules.Rules;
 /// <param name="FileCount">How many files were read.</param>
 public sealed record CheckReport(IReadOnlyList<Finding> Findings, IReadOnlyList<DiagnosticDescriptor> Rules, int DesignCount, int FileCount)
 {
+    /// <summary>Per design: its model and the key figures the rules computed, for datasheet pages and JSON.</summary>
+    public IReadOnlyList<DesignSummary> Designs { get; init; } = [];
+
     /// <summary>Findings at error level that no waiver covers.</summary>
     public int ErrorCount => Findings.Count(f => f.Severity == Severity.Error && !f.IsWaived);
 
     /// <summary>Findings at warning level that no waiver covers.</summary>
     public int WarningCount => Findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived);
 }
+
+/// <summary>One checked design with its key figures.</summary>
+/// <param name="Design">The loaded design.</param>
+/// <param name="DesignFigures">Figures of the design as a whole.</param>
+/// <param name="StageFigures">Figures per stage id, in stage order.</param>
+public sealed record DesignSummary(
+    DesignRules.Model.Design Design,
+    IReadOnlyList<Figure> DesignFigures,
+    IReadOnlyList<KeyValuePair<string, IReadOnlyList<Figure>>> StageFigures);

@@ -31,17 +31,20 @@ public static class DesignCheck
         findings.AddRange(UnknownDesignsInRuleSet(ruleSet, loaded));
 
         // Designs are independent: evaluate them side by side, then order the findings so output is deterministic.
-        var perDesign = new List<Finding>[loaded.Designs.Count];
+        var perDesign = new (List<Finding> Findings, DesignSummary Summary)[loaded.Designs.Count];
         Parallel.For(0, loaded.Designs.Count, i => perDesign[i] = Evaluate(loaded.Designs[i], ruleSet, options.Today));
-        foreach (var list in perDesign)
+        foreach (var (list, _) in perDesign)
         {
             findings.AddRange(list);
         }
 
-        return new CheckReport(Sort(findings), RuleCatalogue.Default.Rules, loaded.Designs.Count, ordered.Count);
+        return new CheckReport(Sort(findings), RuleCatalogue.Default.Rules, loaded.Designs.Count, ordered.Count)
+        {
+            Designs = perDesign.Select(p => p.Summary).ToList(),
+        };
     }
 
-    internal static List<Finding> Evaluate(Design design, RuleSet ruleSet, DateOnly today)
+    internal static (List<Finding> Findings, DesignSummary Summary) Evaluate(Design design, RuleSet ruleSet, DateOnly today)
     {
         var evaluation = new DesignEvaluation(design, ruleSet);
         foreach (var rule in RuleRegistry.All)
@@ -49,7 +52,13 @@ public static class DesignCheck
             rule.Evaluate(evaluation);
         }
 
-        return Waivers.Apply(design, evaluation.Findings, today, evaluation.IsOn);
+        var findings = Waivers.Apply(design, evaluation.Findings, today, evaluation.IsOn);
+        static IReadOnlyList<Figure> Sorted(List<Figure>? list) => list?.ToList() ?? [];
+        var summary = new DesignSummary(
+            design,
+            Sorted(evaluation.Figures.GetValueOrDefault(string.Empty)),
+            design.Stages.Select(s => new KeyValuePair<string, IReadOnlyList<Figure>>(s.Id.Value, Sorted(evaluation.Figures.GetValueOrDefault(s.Id.Value)))).ToList());
+        return (findings, summary);
     }
 
     private static IEnumerable<Finding> UnknownDesignsInRuleSet(RuleSet ruleSet, LoadResult loaded)

@@ -12,10 +12,30 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 {
     private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
     private readonly Dictionary<BandEnd, TransientResult> transients = [];
+    private readonly Dictionary<string, object> shared = new(StringComparer.Ordinal);
     private OperatingPointResult? operatingPoint;
     private AcResult? ac;
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
+
+    /// <summary>The design the analyses are of.</summary>
+    public Design Design { get; } = design;
+
+    /// <summary>
+    /// Any further analysis, computed once under <paramref name="key"/> and shared by every rule that asks for it
+    /// (e.g. "tolerance:rect" for a stage's worst-case corners).
+    /// </summary>
+    public T Shared<T>(string key, Func<T> compute)
+        where T : notnull
+    {
+        if (!shared.TryGetValue(key, out var value))
+        {
+            value = compute();
+            shared[key] = value;
+        }
+
+        return (T)value;
+    }
 
     /// <summary>The band ends a time-domain rule should look at: both ends of a band, or the single frequency once.</summary>
     public IReadOnlyList<BandEnd> BandEnds =>

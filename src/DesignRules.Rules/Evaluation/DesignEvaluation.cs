@@ -14,6 +14,7 @@ namespace DesignRules.Rules.Evaluation;
 internal sealed class DesignEvaluation
 {
     private readonly List<Finding> findings = [];
+    private readonly Dictionary<string, List<Figure>> figures = new(StringComparer.Ordinal);
     private readonly RuleSet ruleSet;
 
     public DesignEvaluation(Design design, RuleSet ruleSet)
@@ -30,6 +31,30 @@ internal sealed class DesignEvaluation
     public MonteCarloSettings MonteCarlo => ruleSet.MonteCarlo;
 
     public IReadOnlyList<Finding> Findings => findings;
+
+    /// <summary>
+    /// Records a key figure of a stage (or of the design, with a null stage) for the reports, whether or not a rule
+    /// fires: e.g. ("slew demanded at stage.u1.out", 14.2e6, "V/s"). A figure recorded twice keeps the first value.
+    /// </summary>
+    public void Record(string? stageId, string name, double value, string unit)
+    {
+        var key = stageId ?? string.Empty;
+        lock (figures)
+        {
+            if (!figures.TryGetValue(key, out var list))
+            {
+                figures[key] = list = [];
+            }
+
+            if (list.All(f => f.Name != name))
+            {
+                list.Add(new Figure(name, value, unit));
+            }
+        }
+    }
+
+    /// <summary>The recorded figures, per stage id ("" for the design).</summary>
+    public IReadOnlyDictionary<string, List<Figure>> Figures => figures;
 
     /// <summary>The level a rule has for this design and stage after the rule-set file's changes.</summary>
     public RuleLevel LevelOf(string ruleId, string? stageId)

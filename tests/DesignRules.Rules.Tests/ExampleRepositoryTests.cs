@@ -1,0 +1,45 @@
+using DesignRules.Diagnostics;
+using DesignRules.Loading;
+
+namespace DesignRules.Rules.Tests;
+
+/// <summary>The example hardware repository is evaluated with no errors, and its warnings are explained in its README.</summary>
+public sealed class ExampleRepositoryTests
+{
+    private static CheckReport Check()
+    {
+        var root = Path.Combine(RuleFixture.RepositoryRoot(), "example-design");
+        var files = RepositoryFiles.Find([root], out _);
+        var ruleSet = Path.Combine(root, RuleSetLoader.DefaultFileName);
+        return DesignCheck.Run(files, new CheckOptions(File.Exists(ruleSet) ? ruleSet : null, new DateOnly(2026, 12, 1)));
+    }
+
+    [Fact]
+    public void The_example_designs_are_evaluated_with_no_errors()
+    {
+        var report = Check();
+        Assert.True(report.DesignCount >= 3, $"{report.DesignCount} designs");
+        Assert.True(report.ErrorCount == 0, RuleFixture.Describe(report));
+    }
+
+    [Fact]
+    public void Every_warning_of_the_examples_is_explained_in_their_README()
+    {
+        var readme = File.ReadAllText(Path.Combine(RuleFixture.RepositoryRoot(), "example-design", "README.md"));
+        foreach (var warning in Check().Findings.Where(f => f.Severity == Severity.Warning && !f.IsWaived))
+        {
+            Assert.Contains(warning.RuleId, readme, StringComparison.Ordinal);
+        }
+    }
+
+    [Fact]
+    public void Two_runs_give_the_same_findings_and_figures()
+    {
+        var a = Check();
+        var b = Check();
+        Assert.Equal(RuleFixture.Describe(a), RuleFixture.Describe(b));
+        Assert.Equal(
+            a.Designs.SelectMany(d => d.StageFigures).SelectMany(s => s.Value).Select(f => $"{f.Name}={f.Value:R}"),
+            b.Designs.SelectMany(d => d.StageFigures).SelectMany(s => s.Value).Select(f => $"{f.Name}={f.Value:R}"));
+    }
+}
