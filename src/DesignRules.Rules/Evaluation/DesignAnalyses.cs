@@ -39,7 +39,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>The band ends a time-domain rule should look at: both ends of a band, or the single frequency once.</summary>
     public IReadOnlyList<BandEnd> BandEnds =>
-        design.Source.Waveform.Band is not null ? [BandEnd.Top, BandEnd.Bottom] : [BandEnd.Top];
+        Design.Source.Waveform.Band is not null ? [BandEnd.Top, BandEnd.Bottom] : [BandEnd.Top];
 
     /// <summary>True when the source is periodic, so transient rules apply.</summary>
     public bool IsPeriodic => Chain(BandEnd.Top).Period is not null;
@@ -48,7 +48,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     {
         if (!chains.TryGetValue(end, out var chain))
         {
-            chain = ChainElaborator.Elaborate(design, ElaborationOptions.Default with { BandEnd = end });
+            chain = ChainElaborator.Elaborate(Design, ElaborationOptions.Default with { BandEnd = end });
             chains[end] = chain;
         }
 
