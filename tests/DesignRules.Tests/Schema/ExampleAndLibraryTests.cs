@@ -10,7 +10,7 @@ public sealed class ShippedFilesMatchTheSchemas
     public static TheoryData<string> ExampleFiles() => new(ExampleFilePaths());
 
     private static List<string> ExampleFilePaths() =>
-        Directory.EnumerateFiles(SchemaTestFiles.InRepository("example-design"), "*.yaml", SearchOption.AllDirectories)
+        DesignRules.Loading.RepositoryFiles.Find([SchemaTestFiles.InRepository("example-design")], out _)
             .Select(f => Path.GetRelativePath(SchemaTestFiles.RepositoryRoot(), f).Replace('\\', '/'))
             .Order(StringComparer.Ordinal)
             .ToList();
