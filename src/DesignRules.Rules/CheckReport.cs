@@ -19,11 +19,15 @@ public sealed record CheckReport(IReadOnlyList<Finding> Findings, IReadOnlyList<
     public int WarningCount => Findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived);
 }
 
-/// <summary>One checked design with its key figures.</summary>
+/// <summary>One checked design with its key figures and plot data.</summary>
 /// <param name="Design">The loaded design.</param>
 /// <param name="DesignFigures">Figures of the design as a whole.</param>
 /// <param name="StageFigures">Figures per stage id, in stage order.</param>
 public sealed record DesignSummary(
     DesignRules.Model.Design Design,
     IReadOnlyList<Figure> DesignFigures,
-    IReadOnlyList<KeyValuePair<string, IReadOnlyList<Figure>>> StageFigures);
+    IReadOnlyList<KeyValuePair<string, IReadOnlyList<Figure>>> StageFigures)
+{
+    /// <summary>Plot data per stage, in stage order (empty when the design could not be analysed).</summary>
+    public IReadOnlyList<StagePlots> Plots { get; init; } = [];
+}

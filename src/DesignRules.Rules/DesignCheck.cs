@@ -57,7 +57,10 @@ public static class DesignCheck
         var summary = new DesignSummary(
             design,
             Sorted(evaluation.Figures.GetValueOrDefault(string.Empty)),
-            design.Stages.Select(s => new KeyValuePair<string, IReadOnlyList<Figure>>(s.Id.Value, Sorted(evaluation.Figures.GetValueOrDefault(s.Id.Value)))).ToList());
+            design.Stages.Select(s => new KeyValuePair<string, IReadOnlyList<Figure>>(s.Id.Value, Sorted(evaluation.Figures.GetValueOrDefault(s.Id.Value)))).ToList())
+        {
+            Plots = PlotCollector.Collect(evaluation),
+        };
         return (findings, summary);
     }
 

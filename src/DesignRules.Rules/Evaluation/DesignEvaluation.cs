@@ -15,6 +15,7 @@ internal sealed class DesignEvaluation
 {
     private readonly List<Finding> findings = [];
     private readonly Dictionary<string, List<Figure>> figures = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, SampleDistribution> distributions = new(StringComparer.Ordinal);
     private readonly RuleSet ruleSet;
 
     public DesignEvaluation(Design design, RuleSet ruleSet)
@@ -52,6 +53,21 @@ internal sealed class DesignEvaluation
             }
         }
     }
+
+    /// <summary>
+    /// Records the Monte Carlo samples of a stage's main figure with the requirement's limits, for the histogram of
+    /// the datasheet page. A stage keeps the first distribution recorded.
+    /// </summary>
+    public void RecordDistribution(string stageId, SampleDistribution distribution)
+    {
+        lock (distributions)
+        {
+            distributions.TryAdd(stageId, distribution);
+        }
+    }
+
+    /// <summary>The recorded Monte Carlo distributions, per stage id.</summary>
+    public IReadOnlyDictionary<string, SampleDistribution> Distributions => distributions;
 
     /// <summary>The recorded figures, per stage id ("" for the design).</summary>
     public IReadOnlyDictionary<string, List<Figure>> Figures => figures;

@@ -1,0 +1,105 @@
+using System.Numerics;
+using DesignRules.Elaboration;
+
+namespace DesignRules.Rules.Evaluation;
+
+/// <summary>
+/// Gathers plot data from the analyses the rules already ran (band-top transient, AC sweep) and the Monte Carlo
+/// samples the tolerance rules recorded. Runs no analysis a rule has not asked for, except the AC sweep when no
+/// rule needed it.
+/// </summary>
+internal static class PlotCollector
+{
+    /// <summary>Points per transient trace: enough for a smooth two-period plot, small enough for a diff-able SVG.</summary>
+    private const int TracePoints = 400;
+
+    public static IReadOnlyList<StagePlots> Collect(DesignEvaluation evaluation)
+    {
+        var analyses = evaluation.Analyses;
+        var chain = analyses.Chain(BandEnd.Top);
+        if (!chain.Succeeded)
+        {
+            return [];
+        }
+
+        var transient = chain.Period is null ? null : analyses.Transient(BandEnd.Top);
+        var ac = analyses.Ac();
+        var plots = new List<StagePlots>();
+        foreach (var stage in chain.Stages)
+        {
+            TransientPlot? t = null;
+            if (transient is { Succeeded: true } && chain.Period is { } period)
+            {
+                var stop = transient.Time[^1];
+                var start = Math.Max(chain.Window.MeasureFrom, stop - (2 * period));
+                var grid = Enumerable.Range(0, TracePoints).Select(i => start + ((stop - start) * i / (TracePoints - 1))).ToArray();
+                var traces = new List<Trace>
+                {
+                    new(stage.InputNode, TraceRole.Input, Resample(transient.Time, transient.Voltage(stage.InputNode), grid)),
+                    new(stage.OutputNode, TraceRole.StageOutput, Resample(transient.Time, transient.Voltage(stage.OutputNode), grid)),
+                };
+                foreach (var amp in stage.Amplifiers.Where(a => a.OutputNode != stage.OutputNode))
+                {
+                    traces.Add(new Trace(amp.OutputNode, TraceRole.AmplifierOutput, Resample(transient.Time, transient.Voltage(amp.OutputNode), grid)));
+                }
+
+                var swing = stage.Amplifiers.Select(a => new SwingBand(a.ElementId,
+                    a.Rails.Negative + a.Model.SwingHeadroomNegative, a.Rails.Positive - a.Model.SwingHeadroomPositive)).ToList();
+                t = new TransientPlot(chain.TestFrequency ?? 0, grid.Select(x => x - start).ToArray(), traces, swing);
+            }
+
+            BodePlot? bode = null;
+            if (ac.Succeeded)
+            {
+                var vin = ac.Voltage(stage.InputNode);
+                var vout = ac.Voltage(stage.OutputNode);
+                var magnitude = new double[vin.Length];
+                var phase = new double[vin.Length];
+                var previous = 0.0;
+                for (var i = 0; i < vin.Length; i++)
+                {
+                    var h = vin[i] == Complex.Zero ? Complex.Zero : vout[i] / vin[i];
+                    magnitude[i] = 20 * Math.Log10(Math.Max(h.Magnitude, 1e-12));
+                    var p = h.Phase * 180 / Math.PI;
+                    while (i > 0 && p - previous > 180)
+                    {
+                        p -= 360;
+                    }
+
+                    while (i > 0 && p - previous < -180)
+                    {
+                        p += 360;
+                    }
+
+                    phase[i] = previous = p;
+                }
+
+                bode = new BodePlot(ac.Frequencies.ToArray(), magnitude, phase);
+            }
+
+            plots.Add(new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId)));
+        }
+
+        return plots;
+    }
+
+    // Linear interpolation onto a uniform grid: the accepted time points of the engine are not uniform.
+    private static double[] Resample(IReadOnlyList<double> time, double[] values, double[] grid)
+    {
+        var result = new double[grid.Length];
+        var j = 0;
+        for (var i = 0; i < grid.Length; i++)
+        {
+            while (j < time.Count - 2 && time[j + 1] < grid[i])
+            {
+                j++;
+            }
+
+            var span = time[j + 1] - time[j];
+            var w = span <= 0 ? 0 : Math.Clamp((grid[i] - time[j]) / span, 0, 1);
+            result[i] = values[j] + (w * (values[j + 1] - values[j]));
+        }
+
+        return result;
+    }
+}

@@ -1,0 +1,52 @@
+namespace DesignRules.Rules;
+
+/// <summary>What a trace of a transient plot shows.</summary>
+public enum TraceRole
+{
+    /// <summary>The stage's input node.</summary>
+    Input,
+    /// <summary>The stage's output node.</summary>
+    StageOutput,
+    /// <summary>An amplifier's own output node (inside the stage).</summary>
+    AmplifierOutput,
+}
+
+/// <summary>One named waveform on a uniform time grid.</summary>
+/// <param name="Name">The node name, e.g. <c>rect.u1.out</c>.</param>
+/// <param name="Role">What the node is.</param>
+/// <param name="Values">Volts, one per time point of the plot.</param>
+public sealed record Trace(string Name, TraceRole Role, IReadOnlyList<double> Values);
+
+/// <summary>An amplifier's output swing limits, drawn as lines on the transient plot.</summary>
+/// <param name="Amplifier">The amplifier element id.</param>
+/// <param name="Low">Lowest output voltage the part reaches.</param>
+/// <param name="High">Highest output voltage the part reaches.</param>
+public sealed record SwingBand(string Amplifier, double Low, double High);
+
+/// <summary>Two periods of the transient at the band top: input, stage output and every amplifier output.</summary>
+/// <param name="Frequency">Signal frequency of the run.</param>
+/// <param name="Time">Seconds, uniform grid.</param>
+/// <param name="Traces">The waveforms.</param>
+/// <param name="SwingLimits">Swing limits of the stage's amplifiers.</param>
+public sealed record TransientPlot(double Frequency, IReadOnlyList<double> Time, IReadOnlyList<Trace> Traces, IReadOnlyList<SwingBand> SwingLimits);
+
+/// <summary>The stage's small-signal response, output over input.</summary>
+/// <param name="Frequency">Hertz, log-spaced.</param>
+/// <param name="MagnitudeDb">Gain in dB.</param>
+/// <param name="PhaseDegrees">Phase in degrees, unwrapped.</param>
+public sealed record BodePlot(IReadOnlyList<double> Frequency, IReadOnlyList<double> MagnitudeDb, IReadOnlyList<double> PhaseDegrees);
+
+/// <summary>Monte Carlo samples of a stage's main figure with the requirement's limits.</summary>
+/// <param name="Figure">What was sampled, e.g. "gain".</param>
+/// <param name="Unit">Its SI unit symbol ("1" for ratios).</param>
+/// <param name="Samples">The sampled values, in sample order.</param>
+/// <param name="Low">Lowest acceptable value, if any.</param>
+/// <param name="High">Highest acceptable value, if any.</param>
+public sealed record SampleDistribution(string Figure, string Unit, IReadOnlyList<double> Samples, double? Low, double? High);
+
+/// <summary>The plot data of one stage; each part is absent when it does not apply or its analysis failed.</summary>
+/// <param name="StageId">The stage id.</param>
+/// <param name="Transient">The band-top transient.</param>
+/// <param name="Bode">The closed-loop response.</param>
+/// <param name="Distribution">The Monte Carlo distribution of the main figure.</param>
+public sealed record StagePlots(string StageId, TransientPlot? Transient, BodePlot? Bode, SampleDistribution? Distribution);
