@@ -1,7 +1,7 @@
 namespace DesignRules.Simulation;
 
 /// <summary>
-/// Finds a DC operating point: plain Newton first; if it fails, gmin stepping (node-to-reference shunts from 1e-2 S
+/// Finds a DC operating point: plain Newton first; if it fails (or meets a numerically singular iterate), gmin stepping (node-to-reference shunts from 1e-2 S
 /// down one decade per step, each step halved on failure) and then source stepping (all independent sources ramped
 /// from zero). Every loop is bounded by <see cref="SolverLimits"/>.
 /// </summary>
@@ -19,7 +19,9 @@ internal static class OperatingPointSolver
         if (fromScratch) solver.ResetDevices();
         var outcome = solver.Solve(limits.MaxDcIterations, 0);
         if (outcome.Status == NewtonStatus.Converged) return null;
-        if (outcome.Status == NewtonStatus.Singular) return solver.Describe(outcome, what);
+
+        // A matrix that is singular at one Newton iterate (a device far into saturation) is not a structural fault —
+        // those are caught before solving — so it goes on to the continuation methods like any non-convergence.
         var first = outcome;
 
         if (GminStepping(solver, start)) return null;
@@ -27,6 +29,52 @@ internal static class OperatingPointSolver
         Array.Copy(start, context.X, start.Length);
         context.SourceScale = 1;
         return solver.Describe(first, what + " (also with gmin and source stepping)");
+    }
+
+    /// <summary>
+    /// Continuation in a swept value: from the solution at <paramref name="from"/> (in X) toward <paramref name="to"/>
+    /// in steps that halve on failure and grow on success, at most <see cref="SolverLimits.MaxStepHalvings"/> halvings
+    /// in a row and a bounded number of steps. X holds the solution at <paramref name="to"/> on success.
+    /// </summary>
+    public static bool Continue(NewtonSolver solver, Action<double> setValue, double from, double to)
+    {
+        var limits = solver.Limits;
+        var context = solver.Context;
+        context.Mode = AnalysisMode.Dc;
+        context.Alpha = 0;
+        context.SourceScale = 1;
+        setValue(from);
+        if (solver.Solve(limits.MaxDcIterations, 0).Status != NewtonStatus.Converged && Solve(solver, "the continuation start") is not null)
+        {
+            setValue(to);
+            return false;
+        }
+
+        double[] good = (double[])context.X.Clone();
+        double at = from, step = (to - from) / 4;
+        int halvings = 0;
+        int guard = 64 * (limits.MaxStepHalvings + 2);
+        while (guard-- > 0)
+        {
+            double next = Math.Abs(to - at) <= Math.Abs(step) ? to : at + step;
+            setValue(next);
+            if (solver.Solve(limits.MaxDcIterations, 0).Status == NewtonStatus.Converged)
+            {
+                if (next == to) return true;
+                Array.Copy(context.X, good, good.Length);
+                at = next;
+                step *= 2;
+                halvings = 0;
+                continue;
+            }
+
+            Array.Copy(good, context.X, good.Length);
+            if (++halvings > limits.MaxStepHalvings) break;
+            step /= 2;
+        }
+
+        setValue(to);
+        return false;
     }
 
     private static bool GminStepping(NewtonSolver solver, double[] start)

@@ -53,6 +53,13 @@ public static class Simulate
         {
             context.OverrideValue = values[i];
             failure = OperatingPointSolver.Solve(solver, $"the DC sweep of '{sourceId}'", fromScratch: i == 0);
+            if (failure is not null && OperatingPointSolver.Continue(solver, v => context.OverrideValue = v, i > 0 ? values[i - 1] : 0, values[i]))
+            {
+                // A large jump in the swept value (a diode changing state) was reached in smaller steps; the first
+                // point is approached from a zero source value, which is where circuits are easiest to solve.
+                failure = null;
+            }
+
             if (failure is not null)
             {
                 failure = failure with { SweepValue = values[i] };

@@ -211,9 +211,13 @@ internal sealed class AmplifierDevice(string id, AmplifierParameters parameters,
         double drive = x[n.Drive];
         double r = (p.UnityOmega * (vp - vm + model.InputOffsetVoltage)) - (p.PoleOmega * drive);
         double slewLimit = r >= 0 ? model.SlewRateRising : model.SlewRateFalling;
-        double t = Math.Tanh(r / slewLimit);
-        double s = slewLimit * t;
-        double sSlope = 1 - (t * t);
+
+        // Slew limiting is a large-signal, time-domain effect. At DC (operating points, sweeps, and the point an AC
+        // analysis is linearised at) the drive follows r itself; a saturated tanh there would leave the drive row with
+        // no slope whenever a diode opens the loop, and the matrix singular.
+        double t = dc ? 0 : Math.Tanh(r / slewLimit);
+        double s = dc ? r : slewLimit * t;
+        double sSlope = dc ? 1 : 1 - (t * t);
         double f = s, fSlope = sSlope, fMemory = 0;
         if (n.Memory >= 0 && !dc)
         {

@@ -1,0 +1,158 @@
+using System.Numerics;
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Catalogue.Bandwidth;
+
+/// <summary>
+/// DR501: each linear stage's closed-loop response from the AC analysis, v(stage out) / v(stage in): the −3 dB bandwidth
+/// (recorded, and compared with a stated <c>bandwidth</c> requirement) and the gain at the top of the band against the
+/// gain at 1 Hz (the DC gain of a DC-coupled stage), compared with the stage's accuracy. A chain-level <c>bandwidth</c>
+/// requirement is checked on the whole chain (source emf to chain output) when every stage is linear.
+/// </summary>
+internal sealed class ClosedLoopBandwidthRule : Rule
+{
+    public override string Id => "DR501";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        var top = SourceSignal.TopFrequency(evaluation.Design.Source.Waveform);
+        var small = SmallSignal.Of(evaluation);
+        if (small is null)
+        {
+            return;
+        }
+
+        var sweep = evaluation.Analyses.Ac();
+        if (!sweep.Succeeded)
+        {
+            evaluation.ReportFailure("AC", sweep.Failure!, small.Chain);
+            return;
+        }
+
+        foreach (var stage in small.Chain.Stages.Where(s => s.Transfer.Kind == TransferKind.Gain))
+        {
+            var response = Response(sweep, i => SmallSignal.InputVoltage(sweep, stage, i), stage.OutputNode);
+            var atTop = top is { } f ? Response(small.Result, i => SmallSignal.InputVoltage(small.Result, stage, i), stage.OutputNode)[small.IndexOf(f)] : (Complex?)null;
+            Check(evaluation, stage.StageId, stage.Stage.Requirements, StageFacts.Accuracy(evaluation, Id, stage.Stage), sweep, response, atTop, top,
+                Location(stage));
+        }
+
+        var chainBandwidth = evaluation.Design.Requirements.Bandwidth;
+        if (chainBandwidth is not null && small.Chain.Stages.All(s => s.Transfer.Kind == TransferKind.Gain))
+        {
+            var emf = small.Chain.SourceEmfNode;
+            var response = Response(sweep, i => sweep.Voltage(emf)[i], small.Chain.OutputNode);
+            var bandwidth = Bandwidth(sweep, response);
+            var required = chainBandwidth.Value.Value;
+            if (bandwidth is { } bw)
+            {
+                evaluation.Record(null, "closed-loop bandwidth of the chain", bw, "Hz");
+            }
+
+            if (bandwidth is { } found && found < required)
+            {
+                evaluation.Report(Id, null, chainBandwidth.Span, new Dictionary<string, string>
+                {
+                    ["target"] = $"Design `{evaluation.Design.Id.Value}` (whole chain)",
+                    ["bandwidth"] = Say.Hertz(found),
+                    ["required"] = $"at least {Say.Hertz(required)} required, {Say.Hertz(required - found)} short",
+                    ["gain-error"] = string.Empty,
+                }, new Figure("closed-loop bandwidth", found, "Hz"), new Figure("required bandwidth", required, "Hz"));
+            }
+        }
+    }
+
+    private void Check(DesignEvaluation evaluation, string stageId, Requirements requirements, double accuracy, AcResult sweep, Complex[] response,
+        Complex? atTop, double? top, SourceSpan span)
+    {
+        var bandwidth = Bandwidth(sweep, response);
+        if (bandwidth is { } bw)
+        {
+            evaluation.Record(stageId, "closed-loop bandwidth", bw, "Hz");
+        }
+
+        double reference = Reference(sweep, response, top);
+        double error = atTop is { } h && reference > 0 ? Math.Abs((h.Magnitude / reference) - 1) : 0;
+        if (top is not null)
+        {
+            evaluation.Record(stageId, "gain error at the band top", error, "1");
+        }
+
+        var required = requirements.Bandwidth?.Value.Value;
+        bool short_ = required is { } r && (bandwidth ?? double.PositiveInfinity) < r;
+        if (error <= accuracy && !short_)
+        {
+            return;
+        }
+
+        var bandwidthText = bandwidth is { } b ? Say.Hertz(b) : $"above {Say.Hertz(sweep.Frequencies[^1])}";
+        evaluation.Report(Id, stageId, short_ && error <= accuracy ? requirements.Bandwidth!.Span : span, new Dictionary<string, string>
+        {
+            ["target"] = $"Stage `{stageId}`",
+            ["bandwidth"] = bandwidthText,
+            ["required"] = required is { } req
+                ? short_ ? $"at least {Say.Hertz(req)} required, {Say.Hertz(req - bandwidth!.Value)} short" : $"at least {Say.Hertz(req)} required"
+                : "no bandwidth stated",
+            ["gain-error"] = top is { } f
+                ? $"; gain at {Say.Hertz(f)} is off by {Say.Percent(error)} ({Say.Percent(accuracy)} allowed{(error > accuracy ? $", {Say.Percent(error - accuracy)} over" : string.Empty)})"
+                : string.Empty,
+        }, new Figure("closed-loop bandwidth", bandwidth ?? sweep.Frequencies[^1], "Hz"), new Figure("gain error at the band top", error, "1"), new Figure("accuracy", accuracy, "1"));
+    }
+
+    private static Complex[] Response(AcResult result, Func<int, Complex> input, string output)
+    {
+        var vout = result.Voltage(output);
+        var h = new Complex[vout.Length];
+        for (int i = 0; i < h.Length; i++)
+        {
+            var vin = input(i);
+            h[i] = vin == Complex.Zero ? Complex.Zero : vout[i] / vin;
+        }
+
+        return h;
+    }
+
+    /// <summary>The reference gain: at the lowest swept frequency, or the largest below the band top where that is much lower (a coupling capacitor).</summary>
+    private static double Reference(AcResult sweep, Complex[] h, double? top)
+    {
+        double first = h[0].Magnitude;
+        double largest = Enumerable.Range(0, h.Length).Where(i => sweep.Frequencies[i] <= (top ?? sweep.Frequencies[^1])).Select(i => h[i].Magnitude).DefaultIfEmpty(first).Max();
+        return first < 0.5 * largest ? largest : first;
+    }
+
+    /// <summary>The frequency above the reference where |H| first falls 3 dB below it, interpolated in dB against log-frequency.</summary>
+    internal static double? Bandwidth(AcResult sweep, Complex[] h)
+    {
+        if (h.Length < 2)
+        {
+            return null;
+        }
+
+        double reference = Reference(sweep, h, null);
+        int start = Array.FindIndex(h, x => x.Magnitude >= reference * (1 - 1e-12));
+        double level = 20 * Math.Log10(reference / Math.Sqrt(2));
+        for (int i = Math.Max(start, 0) + 1; i < h.Length; i++)
+        {
+            double db = 20 * Math.Log10(h[i].Magnitude);
+            if (db > level)
+            {
+                continue;
+            }
+
+            double previous = 20 * Math.Log10(h[i - 1].Magnitude);
+            double f0 = Math.Log10(sweep.Frequencies[i - 1]), f1 = Math.Log10(sweep.Frequencies[i]);
+            double fraction = previous == db ? 0 : (previous - level) / (previous - db);
+            return Math.Pow(10, f0 + ((f1 - f0) * fraction));
+        }
+
+        return null;
+    }
+
+    private static SourceSpan Location(StageProbe stage) =>
+        stage.Amplifiers.Count > 0 ? StageFacts.PartSpan(stage.Stage, stage.Amplifiers[0].Slot) : stage.Stage.Span;
+}

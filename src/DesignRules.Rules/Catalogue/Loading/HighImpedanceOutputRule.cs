@@ -1,0 +1,181 @@
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+
+namespace DesignRules.Rules.Catalogue.Loading;
+
+/// <summary>
+/// DR303: a stage output driven only through a diode (half-wave follower, unbuffered peak detector, a netlist output
+/// reached from its amplifier only through a diode) is high-impedance while the diode is off. In the transient at each
+/// band end, while that diode carries less than a thousandth of its peak current, the output is compared with the
+/// ideal: the ideal transfer of the input for a rectifier, the held value decaying with the stage's own time constant
+/// for a peak detector. Only the half-cycle a rectifier blocks is looked at (elsewhere an off diode is the zero-crossing
+/// glitch, which the slew rules judge), and not while an amplifier of the stage is slewing. The largest deviation, over the full-scale output, is compared with the stage's accuracy.
+/// </summary>
+internal sealed class HighImpedanceOutputRule : Rule
+{
+    public override string Id => "DR303";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        if (!evaluation.Analyses.IsPeriodic)
+        {
+            return;
+        }
+
+        var worst = new Dictionary<string, double>(StringComparer.Ordinal);
+        var probes = new Dictionary<string, StageProbe>(StringComparer.Ordinal);
+        foreach (var (_, chain, result) in TransientRuns.Of(evaluation))
+        {
+            foreach (var stage in chain.Stages)
+            {
+                if (OutputDiode(stage) is not { } diode)
+                {
+                    continue;
+                }
+
+                double error = Deviation(chain, result, stage, diode);
+                probes[stage.StageId] = stage;
+                worst[stage.StageId] = Math.Max(worst.GetValueOrDefault(stage.StageId), error);
+            }
+        }
+
+        foreach (var (stageId, error) in worst.OrderBy(w => w.Key, StringComparer.Ordinal))
+        {
+            var stage = probes[stageId];
+            evaluation.Record(stageId, "output error while the diode is off", error, "1");
+            double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
+            if (error <= accuracy)
+            {
+                continue;
+            }
+
+            evaluation.Report(Id, stageId, Location(stage.Stage), new Dictionary<string, string>
+            {
+                ["stage"] = stageId,
+                ["error"] = Say.Percent(error),
+                ["limit"] = Say.Percent(accuracy),
+                ["margin"] = Say.Percent(error - accuracy),
+            }, new Figure("output error while the diode is off", error, "1"), new Figure("accuracy", accuracy, "1"));
+        }
+    }
+
+    /// <summary>The diode through which alone the stage output is driven, or null when an amplifier drives it.</summary>
+    internal static DiodeProbe? OutputDiode(StageProbe stage)
+    {
+        var output = stage.OutputNode;
+        if (stage.Amplifiers.Any(a => a.OutputNode == output) || stage.Diodes.Count == 0)
+        {
+            return null;
+        }
+
+        // A feedback resistor from the output to a summing junction (the two-diode rectifier's rf) holds the output at the
+        // virtual ground while the diode is off: the stage drives it, not the diode alone.
+        var held = stage.SummingJunctions.Concat(stage.Amplifiers.Select(a => a.InvertingNode)).Where(n => n != output).ToHashSet(StringComparer.Ordinal);
+        if (stage.Components.Any(c => c.Kind == ElementKind.Resistor && ((c.NodeA == output && held.Contains(c.NodeB)) || (c.NodeB == output && held.Contains(c.NodeA)))))
+        {
+            return null;
+        }
+
+        var direct = stage.Diodes.FirstOrDefault(d => d.Anode == output || d.Cathode == output);
+        if (direct is not null)
+        {
+            return direct;
+        }
+
+        // A series resistor between the diode and the output (a peak detector's rser).
+        foreach (var r in stage.Components.Where(c => c.Kind == ElementKind.Resistor && (c.NodeA == output || c.NodeB == output)))
+        {
+            var other = r.NodeA == output ? r.NodeB : r.NodeA;
+            var diode = stage.Diodes.FirstOrDefault(d => d.Anode == other || d.Cathode == other);
+            if (diode is not null && !stage.Amplifiers.Any(a => a.OutputNode == other))
+            {
+                return diode;
+            }
+        }
+
+        return null;
+    }
+
+    private static double Deviation(ElaboratedChain chain, Simulation.TransientResult result, StageProbe stage, DiodeProbe diode)
+    {
+        var (start, end) = TransientRuns.Window(chain, result);
+        var time = result.Time;
+        var anode = result.Voltage(diode.Anode);
+        var cathode = result.Voltage(diode.Cathode);
+        var output = result.Voltage(stage.OutputNode);
+        var inPlus = result.Voltage(stage.InputNode);
+        var inMinus = Simulation.Circuit.IsReference(stage.ReferenceInputNode) ? null : result.Voltage(stage.ReferenceInputNode);
+        double temperature = chain.Options.Temperature;
+        var current = new double[time.Count];
+        double peakCurrent = 0, fullScale = 0;
+        for (int i = 0; i < time.Count; i++)
+        {
+            current[i] = DiodeConduction.ForwardCurrent(diode.Model, anode[i] - cathode[i], temperature);
+            if (time[i] >= start && time[i] <= end)
+            {
+                peakCurrent = Math.Max(peakCurrent, current[i]);
+                fullScale = Math.Max(fullScale, Math.Abs(stage.Transfer.At(inPlus[i] - (inMinus?[i] ?? 0))));
+            }
+        }
+
+        if (!(fullScale > 0) || !(peakCurrent > 0))
+        {
+            return 0;
+        }
+
+        var slewing = stage.Amplifiers.Select(a => result.Amplifier(a.ElementId)).ToList();
+        bool holds = stage.Transfer.Kind == TransferKind.Peak;
+        double tau = stage.TimeConstant ?? double.PositiveInfinity;
+        double worst = 0, heldAt = double.NaN, heldValue = 0;
+        for (int i = 0; i < time.Count; i++)
+        {
+            bool off = current[i] < 1e-3 * peakCurrent;
+            if (!off)
+            {
+                heldAt = double.NaN;
+                continue;
+            }
+
+            if (double.IsNaN(heldAt))
+            {
+                heldAt = time[i];
+                heldValue = output[i];
+            }
+
+            if (time[i] < start || time[i] > end)
+            {
+                continue;
+            }
+
+            // A rectifier's diode is off by design only in the half-cycle its transfer blocks; off in the passed half-cycle
+            // it is slewing across its dead zone, which is the glitch rules' concern, not the load's.
+            double input = inPlus[i] - (inMinus?[i] ?? 0);
+            if (!holds && (input >= 0 ? stage.Transfer.SlopePositive : stage.Transfer.SlopeNegative) != 0)
+            {
+                continue;
+            }
+
+            // Nor is the time an amplifier of the stage spends slewing (the loop is open then, whatever the load).
+            if (slewing.Any(trace => trace.SlewLimited[i]))
+            {
+                continue;
+            }
+
+            double ideal = holds ? heldValue * Math.Exp(-(time[i] - heldAt) / tau) : stage.Transfer.At(input);
+            worst = Math.Max(worst, Math.Abs(output[i] - ideal));
+        }
+
+        return worst / fullScale;
+    }
+
+    private static SourceSpan Location(Stage stage) => stage switch
+    {
+        BlockStage block when block.Flags.TryGetValue("buffer", out var flag) => flag.Span,
+        BlockStage block => block.BlockName.Span,
+        NetlistStage netlist => netlist.Output.Span,
+        _ => stage.Span,
+    };
+}

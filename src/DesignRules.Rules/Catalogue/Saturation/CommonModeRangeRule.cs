@@ -1,0 +1,62 @@
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.SlewSaturation;
+
+namespace DesignRules.Rules.Catalogue.Saturation;
+
+/// <summary>
+/// DR203: both inputs of every amplifier stay inside the part's common-mode range [Vneg + negative headroom,
+/// Vpos − positive headroom] (a negative headroom reaches beyond the rail) throughout the transient at every band end.
+/// The negative side of a single-supply stage that lacks a bias point is left to DR205.
+/// </summary>
+internal sealed class CommonModeRangeRule : Rule
+{
+    public override string Id => "DR203";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        var worst = new Dictionary<string, Excess>(StringComparer.Ordinal);
+        var order = new List<string>();
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        {
+            foreach (var a in band.Amplifiers)
+            {
+                double high = a.Probe.Rails.Positive - a.Probe.Part.InputRange.Positive.Value.Value;
+                double low = a.Probe.Rails.Negative + a.Probe.Part.InputRange.Negative.Value.Value;
+                double top = Math.Max(a.PlusMaximum, a.MinusMaximum), bottom = Math.Min(a.PlusMinimum, a.MinusMinimum);
+                var upper = new Excess(a, "positive", top, high, top - high);
+                var lower = new Excess(a, "negative", bottom, low, low - bottom);
+                var current = upper.Over >= lower.Over || SingleSupply.NeedsBias(evaluation, a.Stage.StageId) ? upper : lower;
+                if (!worst.TryGetValue(a.Name, out var previous))
+                {
+                    order.Add(a.Name);
+                    worst[a.Name] = current;
+                }
+                else if (current.Over > previous.Over)
+                {
+                    worst[a.Name] = current;
+                }
+            }
+        }
+
+        foreach (var x in order.Select(n => worst[n]))
+        {
+            var a = x.Amplifier;
+            evaluation.Record(a.Stage.StageId, $"input common-mode margin {a.Probe.Slot}", -x.Over, "V");
+            if (x.Over <= 0)
+            {
+                continue;
+            }
+
+            evaluation.Report(Id, a.Stage.StageId, a.Named.PartSpan, new Dictionary<string, string>
+            {
+                ["amplifier"] = a.Name,
+                ["extreme"] = Say.Volts(x.Extreme),
+                ["limit"] = Say.Volts(x.Limit),
+                ["rail"] = x.Rail,
+                ["margin"] = Say.Volts(x.Over),
+            }, new Figure("input extreme", x.Extreme, "V"), new Figure("common-mode limit", x.Limit, "V"));
+        }
+    }
+
+    private sealed record Excess(AmplifierWaveform Amplifier, string Rail, double Extreme, double Limit, double Over);
+}

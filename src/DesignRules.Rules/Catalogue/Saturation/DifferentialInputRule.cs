@@ -1,0 +1,48 @@
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.SlewSaturation;
+
+namespace DesignRules.Rules.Catalogue.Saturation;
+
+/// <summary>
+/// DR204: the largest voltage between an amplifier's inputs in the transient at every band end (it grows only while
+/// the loop is open: a rectifier's diode off, a peak detector between peaks, a slewing edge) against the part's
+/// maximum differential input.
+/// </summary>
+internal sealed class DifferentialInputRule : Rule
+{
+    public override string Id => "DR204";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        var worst = new Dictionary<string, AmplifierWaveform>(StringComparer.Ordinal);
+        var order = new List<string>();
+        foreach (var a in AmplifierWaveforms.AtEveryEnd(evaluation).SelectMany(b => b.Amplifiers))
+        {
+            if (!worst.TryGetValue(a.Name, out var previous))
+            {
+                order.Add(a.Name);
+                worst[a.Name] = a;
+            }
+            else if (a.PeakDifferentialInput > previous.PeakDifferentialInput)
+            {
+                worst[a.Name] = a;
+            }
+        }
+
+        foreach (var a in order.Select(n => worst[n]))
+        {
+            evaluation.Record(a.Stage.StageId, $"peak differential input {a.Probe.Slot}", a.PeakDifferentialInput, "V");
+            if (a.Probe.Part.MaxDifferentialInput is not { } rating || a.PeakDifferentialInput <= rating.Value.Value)
+            {
+                continue;
+            }
+
+            evaluation.Report(Id, a.Stage.StageId, a.Named.PartSpan, new Dictionary<string, string>
+            {
+                ["amplifier"] = a.Name,
+                ["vd"] = Say.Volts(a.PeakDifferentialInput),
+                ["limit"] = Say.Volts(rating.Value.Value),
+            }, new Figure("peak differential input", a.PeakDifferentialInput, "V"), new Figure("maximum differential input", rating.Value.Value, "V"));
+        }
+    }
+}

@@ -1,0 +1,84 @@
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.SlewSaturation;
+
+namespace DesignRules.Rules.Catalogue.Saturation;
+
+/// <summary>
+/// DR201: every amplifier output stays inside its swing limits (rail less the part's headroom) by the margin threshold,
+/// at the largest amplitude (the transient at every band end) with the part's maximum offset voltage added in the
+/// unfavourable direction. Amplifiers whose loop opens by design are left to DR202.
+/// </summary>
+internal sealed class OutputSwingRule : Rule
+{
+    public override string Id => "DR201";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        var worst = new Dictionary<string, Swing>(StringComparer.Ordinal);
+        var order = new List<string>();
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        {
+            foreach (var a in band.Amplifiers.Where(a => !OpenLoop.ByDesign(a.Stage, a.Probe)))
+            {
+                double margin = evaluation.Threshold(Id, "margin", a.Stage.StageId);
+                var (up, down) = OffsetShift.Of(evaluation, a);
+
+                // An output the engine held at a limit clips whatever the offset; the drop across the output resistance
+                // may keep the pin itself a little inside the limit, so the flag decides, on the side it is nearer to.
+                bool clipsHigh = a.ReachedSwingLimit && a.SwingHigh - a.Maximum <= a.Minimum - a.SwingLow;
+                bool clipsLow = a.ReachedSwingLimit && !clipsHigh;
+                var high = new Swing(a, "positive", clipsHigh ? a.Maximum : a.Maximum + up, clipsHigh ? 0 : up, a.SwingHigh, a.SwingHigh - margin, margin, clipsHigh);
+                var low = new Swing(a, "negative", clipsLow ? a.Minimum : a.Minimum - down, clipsLow ? 0 : down, a.SwingLow, a.SwingLow + margin, margin, clipsLow);
+                var current = high.Over >= low.Over ? high : low;
+                if (!worst.TryGetValue(a.Name, out var previous))
+                {
+                    order.Add(a.Name);
+                    worst[a.Name] = current;
+                }
+                else if (current.Over > previous.Over)
+                {
+                    worst[a.Name] = current;
+                }
+            }
+        }
+
+        foreach (var s in order.Select(n => worst[n]))
+        {
+            var a = s.Amplifier;
+            evaluation.Record(a.Stage.StageId, $"output swing margin {a.Probe.Slot}", s.Rail == "positive" ? s.Limit - s.Extreme : s.Extreme - s.Limit, "V");
+            if (s.Over <= 0 && !s.Clips)
+            {
+                continue;
+            }
+
+            var extreme = Say.Volts(s.Extreme);
+            var notes = new List<string>();
+            if (s.Clips)
+            {
+                notes.Add("clipping");
+            }
+
+            if (s.Offset > 0)
+            {
+                notes.Add($"including {Say.Volts(s.Offset)} from the maximum offset voltage");
+            }
+
+            evaluation.Report(Id, a.Stage.StageId, a.Named.PartSpan, new Dictionary<string, string>
+            {
+                ["node"] = a.Node,
+                ["extreme"] = notes.Count > 0 ? $"{extreme} ({string.Join("; ", notes)})" : extreme,
+                ["limit"] = $"{Say.Volts(s.WithMargin)} ({Say.Volts(s.Limit)} less {Say.Volts(s.Margin)} margin)",
+                ["rail"] = s.Rail,
+                ["margin"] = s.Clips ? "the output clips" : $"{Say.Volts(s.Over)} over",
+            }, new Figure("output extreme", s.Extreme, "V"), new Figure("swing limit", s.Limit, "V"), new Figure("offset shift", s.Offset, "V"));
+        }
+    }
+
+    private sealed record Swing(AmplifierWaveform Amplifier, string Rail, double Extreme, double Offset, double Limit, double WithMargin, double Margin, bool Clips)
+    {
+        /// <summary>How far the extreme goes past the limit less the margin (positive: a violation; clipping counts as the whole margin), V.</summary>
+        public double Over => Clips ? Math.Max(Margin, Raw) : Raw;
+
+        private double Raw => Rail == "positive" ? Extreme - WithMargin : WithMargin - Extreme;
+    }
+}

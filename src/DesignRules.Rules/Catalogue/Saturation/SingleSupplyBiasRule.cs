@@ -1,0 +1,36 @@
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.SlewSaturation;
+
+namespace DesignRules.Rules.Catalogue.Saturation;
+
+/// <summary>
+/// DR205: in a single-supply design (negative rail 0 V), a stage whose input swings below the negative rail plus the
+/// larger of its amplifiers' input common-mode headroom and output swing headroom needs a bias point it does not have.
+/// Points at the source's offset (first stage) or the stage (later stages), where the bias belongs.
+/// </summary>
+internal sealed class SingleSupplyBiasRule : Rule
+{
+    public override string Id => "DR205";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        var design = evaluation.Design;
+        foreach (var s in SingleSupply.Stages(evaluation))
+        {
+            evaluation.Record(s.Stage.StageId, "single-supply input headroom", s.Minimum - s.Limit, "V");
+            if (!s.NeedsBias)
+            {
+                continue;
+            }
+
+            bool first = design.Stages.Count > 0 && design.Stages[0].Id.Value == s.Stage.StageId;
+            var span = first ? design.Source.Waveform.Offset?.Span ?? design.Source.Waveform.Span : s.Stage.Stage.Span;
+            evaluation.Report(Id, s.Stage.StageId, span, new Dictionary<string, string>
+            {
+                ["stage"] = s.Stage.StageId,
+                ["extreme"] = Say.Volts(s.Minimum),
+                ["limit"] = Say.Volts(s.Limit),
+            }, new Figure("input minimum", s.Minimum, "V"), new Figure("usable input minimum", s.Limit, "V"));
+        }
+    }
+}

@@ -1,0 +1,42 @@
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Tolerance;
+
+namespace DesignRules.Rules.Catalogue.Tolerance;
+
+/// <summary>DR404: the worst-case mismatch of an absolute-value stage's two half-cycle gains against its accuracy.</summary>
+internal sealed class HalfCycleSymmetryRule : Rule
+{
+    public override string Id => "DR404";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        foreach (var stage in ToleranceAnalyses.Stages(evaluation))
+        {
+            string id = stage.StageId;
+            var analysis = ToleranceAnalyses.WorstCase(evaluation, stage);
+            if (analysis.Target.Kind != TransferKind.AbsoluteValue || ToleranceAnalyses.ReportFailure(evaluation, analysis))
+            {
+                continue;
+            }
+
+            double scale = Math.Abs(analysis.Target.SlopePositive);
+            double mismatch = analysis.Mismatch.Magnitude / scale;
+            if (double.IsNaN(mismatch)) continue;
+            evaluation.Record(id, "worst-case half-cycle mismatch", mismatch, "1");
+            if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || mismatch <= accuracy)
+            {
+                continue;
+            }
+
+            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Mismatch, scale, evaluation.Design);
+            evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, stage.Stage.Requirements.Accuracy!.Span), new Dictionary<string, string>
+            {
+                ["stage"] = id,
+                ["error"] = Say.Percent(mismatch),
+                ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
+                ["limit"] = Say.Percent(accuracy),
+            }, new Figure("worst-case half-cycle mismatch", mismatch, "1"), new Figure("accuracy", accuracy, "1"));
+        }
+    }
+}

@@ -1,0 +1,37 @@
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Tolerance;
+
+namespace DesignRules.Rules.Catalogue.Tolerance;
+
+/// <summary>DR405: a stage's output with zero input, offset voltages and bias currents at their maxima, against its output-offset requirement.</summary>
+internal sealed class OutputOffsetRule : Rule
+{
+    public override string Id => "DR405";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        foreach (var stage in ToleranceAnalyses.Stages(evaluation))
+        {
+            string id = stage.StageId;
+            var analysis = ToleranceAnalyses.WorstCase(evaluation, stage);
+            if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
+            double offset = analysis.OutputOffset;
+            if (double.IsNaN(offset)) continue;
+            evaluation.Record(id, "worst-case output offset", offset, "V");
+            if (stage.Stage.Requirements.OutputOffset is not { } required || offset <= required.Value.Value)
+            {
+                continue;
+            }
+
+            int zero = analysis.Plan.ZeroIndex;
+            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[zero], 1, evaluation.Design);
+            evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, required.Span), new Dictionary<string, string>
+            {
+                ["stage"] = id,
+                ["offset"] = Say.Volts(offset),
+                ["limit"] = Say.Volts(required.Value.Value),
+                ["cause"] = dominant is null ? "the nominal circuit" : dominant.What,
+            }, new Figure("worst-case output offset", offset, "V"), new Figure("allowed output offset", required.Value.Value, "V"));
+        }
+    }
+}

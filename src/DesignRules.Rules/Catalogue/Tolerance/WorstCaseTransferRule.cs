@@ -1,0 +1,58 @@
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Tolerance;
+
+namespace DesignRules.Rules.Catalogue.Tolerance;
+
+/// <summary>
+/// DR401: the extreme-value worst case of a stage's transfer (resistor corners, offsets and bias currents at their maxima,
+/// diode forward-voltage spread; for a peak stage also the held value's droop in the nominal transient) against its accuracy.
+/// </summary>
+internal sealed class WorstCaseTransferRule : Rule
+{
+    public override string Id => "DR401";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        foreach (var stage in ToleranceAnalyses.Stages(evaluation))
+        {
+            string id = stage.StageId;
+            var analysis = ToleranceAnalyses.WorstCase(evaluation, stage);
+            if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
+            var (error, level) = analysis.TransferError;
+            if (double.IsNaN(error)) continue;
+            evaluation.Record(id, "worst-case transfer error", error, "1");
+            if (analysis.Target.IsLinear && double.IsFinite(analysis.Gain.Low))
+            {
+                evaluation.Record(id, "nominal gain", analysis.Nominal.Gain, "1");
+                evaluation.Record(id, "worst-case gain low", analysis.Gain.Low, "1");
+                evaluation.Record(id, "worst-case gain high", analysis.Gain.High, "1");
+            }
+
+            if (analysis.Metric.Dynamic is { } hold)
+            {
+                evaluation.Record(id, "held value deviation (nominal transient)", hold.Magnitude, "V");
+            }
+
+            // An average is judged over time (ripple, settling), which this DC analysis does not see.
+            if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || analysis.Target.Kind == TransferKind.Average || error <= accuracy)
+            {
+                continue;
+            }
+
+            var scale = analysis.Metric.FullScale;
+            var extra = analysis.Metric.Dynamic is { } dyn ? $"held value in the transient {Say.Percent(dyn.Magnitude / scale)}" : null;
+            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design, extra);
+            var nominal = Math.Abs(analysis.Nominal.Deviations[level]);
+            var span = dominant is not null && dominant.Size >= nominal ? dominant.Span : stage.Stage.Requirements.Accuracy!.Span;
+            evaluation.Report(Id, id, span, new Dictionary<string, string>
+            {
+                ["stage"] = id,
+                ["error"] = Say.Percent(error),
+                ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
+                ["limit"] = Say.Percent(accuracy),
+                ["margin"] = Say.Percent(error - accuracy),
+            }, new Figure("worst-case transfer error", error, "1"), new Figure("accuracy", accuracy, "1"));
+        }
+    }
+}

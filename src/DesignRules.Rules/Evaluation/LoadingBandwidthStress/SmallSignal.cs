@@ -1,0 +1,148 @@
+using System.Numerics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+
+/// <summary>
+/// Small-signal (AC) figures of a design at the frequencies the rules care about: the band-end test frequencies, 1 Hz (the
+/// reference of a DC-coupled transfer) and 1 mHz (DC, for signals that carry a mean: rectified, averaged, or DC sources).
+/// The sweep is run once per design on the band-top chain and shared.
+/// </summary>
+internal sealed class SmallSignal
+{
+    /// <summary>The frequency taken as DC, Hz.</summary>
+    public const double Dc = 1e-3;
+
+    private SmallSignal(ElaboratedChain chain, AcResult result, IReadOnlyList<double> bandFrequencies)
+    {
+        Chain = chain;
+        Result = result;
+        BandFrequencies = bandFrequencies;
+    }
+
+    public ElaboratedChain Chain { get; }
+
+    public AcResult Result { get; }
+
+    /// <summary>The source's test frequencies at the band ends (empty for a DC source).</summary>
+    public IReadOnlyList<double> BandFrequencies { get; }
+
+    /// <summary>The shared small-signal sweep of a design; null when the chain could not be built or the analysis failed (reported once).</summary>
+    public static SmallSignal? Of(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("loading-bandwidth-stress:small-signal", () => Compute(evaluation)).Value;
+
+    private static Holder Compute(DesignEvaluation evaluation)
+    {
+        var analyses = evaluation.Analyses;
+        var chain = analyses.Chain(BandEnd.Top);
+        if (!chain.Succeeded)
+        {
+            return new Holder(null);
+        }
+
+        var band = analyses.BandEnds.Select(e => analyses.Chain(e).TestFrequency).OfType<double>().Distinct().Order().ToList();
+        var top = SourceSignal.TopFrequency(evaluation.Design.Source.Waveform);
+        var frequencies = new[] { Dc, 1.0 }.Concat(band).Concat(top is { } t ? [t] : []).Distinct().Order().ToArray();
+        var result = Simulate.AcSweep(chain.Circuit, AcSweep.List(frequencies));
+        if (!result.Succeeded)
+        {
+            evaluation.ReportFailure("AC", result.Failure!, chain);
+            return new Holder(null);
+        }
+
+        return new Holder(new SmallSignal(chain, result, band));
+    }
+
+    /// <summary>Index of a frequency of the sweep.</summary>
+    public int IndexOf(double frequency)
+    {
+        for (int i = 0; i < Result.Frequencies.Count; i++)
+        {
+            if (Result.Frequencies[i] == frequency)
+            {
+                return i;
+            }
+        }
+
+        throw new ArgumentOutOfRangeException(nameof(frequency), frequency, "not a frequency of the sweep");
+    }
+
+    /// <summary>The differential voltage of a stage's input (input node minus its reference input node).</summary>
+    public static Complex InputVoltage(AcResult result, StageProbe stage, int index) =>
+        result.Voltage(stage.InputNode)[index] - (Circuit.IsReference(stage.ReferenceInputNode) ? Complex.Zero : result.Voltage(stage.ReferenceInputNode)[index]);
+
+    /// <summary>
+    /// The loading between a stage's output node and whatever is connected to it downstream (the next stage, or the load):
+    /// a 1 A AC test current is injected at the node, in a second elaboration of the same chain, and the share of it that
+    /// flows into the downstream elements is the loading loss Zout/(Zout + Zin) (current divider); Zin and Zout follow.
+    /// </summary>
+    public Loading? LoadingAt(DesignEvaluation evaluation, int stageIndex) =>
+        evaluation.Analyses.Shared($"loading-bandwidth-stress:loading:{stageIndex}", () => new LoadingHolder(ComputeLoading(evaluation, stageIndex))).Value;
+
+    private Loading? ComputeLoading(DesignEvaluation evaluation, int stageIndex)
+    {
+        var stage = Chain.Stages[stageIndex];
+        var node = stage.OutputNode;
+        var tested = ChainElaborator.Elaborate(evaluation.Design, Chain.Options);
+        const string testId = "loading-test";
+        tested.Circuit.AddCurrentSource(testId, "0", node, new DcWaveform(0) { AcMagnitude = 1 });
+        var result = Simulate.AcSweep(tested.Circuit, AcSweep.List([.. Result.Frequencies]));
+        if (!result.Succeeded)
+        {
+            evaluation.ReportFailure("AC", result.Failure!, Chain);
+            return null;
+        }
+
+        Complex Delta(string n, int i) => Circuit.IsReference(n) ? Complex.Zero : result.Voltage(n)[i] - Result.Voltage(n)[i];
+        var points = new List<LoadingPoint>();
+        for (int i = 0; i < Result.Frequencies.Count; i++)
+        {
+            double omega = 2 * Math.PI * Result.Frequencies[i];
+            var dv = Delta(node, i);
+            Complex into = Complex.Zero;
+            if (stageIndex + 1 < Chain.Stages.Count)
+            {
+                foreach (var c in Chain.Stages[stageIndex + 1].Components)
+                {
+                    if (c.NodeA != node && c.NodeB != node)
+                    {
+                        continue;
+                    }
+
+                    var other = c.NodeA == node ? c.NodeB : c.NodeA;
+                    into += Admittance(c.Kind, c.Value, omega) * (dv - Delta(other, i));
+                }
+            }
+            else
+            {
+                var load = evaluation.Design.Load;
+                into = dv * (Admittance(ElementKind.Resistor, load.Resistance.Value.Value, omega)
+                             + (load.Capacitance is { } cl ? Admittance(ElementKind.Capacitor, cl.Value.Value, omega) : Complex.Zero));
+            }
+
+            points.Add(new LoadingPoint(Result.Frequencies[i], into.Magnitude, dv / into, dv / (1 - into)));
+        }
+
+        return new Loading(points);
+    }
+
+    private static Complex Admittance(ElementKind kind, double value, double omega) => kind switch
+    {
+        ElementKind.Resistor => 1 / value,
+        ElementKind.Capacitor => new Complex(0, omega * value),
+        ElementKind.Inductor => 1 / new Complex(0, omega * value),
+        _ => Complex.Zero,
+    };
+
+    private sealed record Holder(SmallSignal? Value);
+
+    private sealed record LoadingHolder(Loading? Value);
+}
+
+/// <summary>The loading of one stage output at each swept frequency.</summary>
+internal sealed record Loading(IReadOnlyList<LoadingPoint> Points);
+
+/// <summary>Loading loss Zout/(Zout + Zin) at one frequency, with the impedances it follows from.</summary>
+internal sealed record LoadingPoint(double Frequency, double Error, Complex InputImpedance, Complex OutputImpedance);

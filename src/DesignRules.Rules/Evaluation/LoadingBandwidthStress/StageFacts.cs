@@ -1,0 +1,139 @@
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+
+/// <summary>Where a stage's parts are named, and the accuracy each stage must keep.</summary>
+internal static class StageFacts
+{
+    /// <summary>The span of the part reference of an amplifier or diode slot (block) or of the element (netlist).</summary>
+    public static SourceSpan PartSpan(Stage stage, string slot) => stage switch
+    {
+        BlockStage block when block.PartSpans.TryGetValue(slot, out var span) => span,
+        NetlistStage netlist when netlist.Elements.FirstOrDefault(e => e.Id.Value == slot) is { } element => element.Span,
+        _ => stage.Span,
+    };
+
+    /// <summary>The stage's stated accuracy, else the rule's default-accuracy threshold.</summary>
+    public static double Accuracy(DesignEvaluation evaluation, string ruleId, Stage stage) =>
+        stage.Requirements.Accuracy?.Value.Value ?? evaluation.Threshold(ruleId, "default-accuracy", stage.Id.Value);
+
+    /// <summary>True for stages that rectify (a precision rectifier: its transfer passes one or both half-cycles).</summary>
+    public static bool IsRectifier(StageProbe probe) =>
+        probe.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
+}
+
+/// <summary>Frequencies and amplitude of the design's source, read from the model.</summary>
+internal static class SourceSignal
+{
+    /// <summary>The highest frequency the source is tested at (band top, own frequency, or a sum's highest); null for DC.</summary>
+    public static double? TopFrequency(Model.Waveform w) => w.Kind switch
+    {
+        WaveformKind.Dc => null,
+        WaveformKind.Sum => w.Components.Select(TopFrequency).Where(f => f is not null).Max(),
+        _ => w.Band?.Value.High.Value ?? w.Frequency?.Value.Value,
+    };
+
+    /// <summary>The peak amplitude of the source (the sum of a sum's components; the level of a DC source).</summary>
+    public static double Amplitude(Model.Waveform w) => w.Kind switch
+    {
+        WaveformKind.Dc => Math.Abs(w.Offset?.Value.Value ?? 0),
+        WaveformKind.Sum => w.Components.Sum(Amplitude),
+        _ => Math.Abs(w.Amplitude?.Value.Value ?? 0),
+    };
+}
+
+/// <summary>The transients of a design at each band end, with failures reported once (DR920) and skipped.</summary>
+internal static class TransientRuns
+{
+    public static IEnumerable<(BandEnd End, ElaboratedChain Chain, TransientResult Result)> Of(DesignEvaluation evaluation)
+    {
+        foreach (var end in evaluation.Analyses.BandEnds)
+        {
+            var chain = evaluation.Analyses.Chain(end);
+            if (!chain.Succeeded)
+            {
+                yield break;
+            }
+
+            var result = evaluation.Analyses.Transient(end);
+            if (!result.Succeeded)
+            {
+                evaluation.ReportFailure("transient", result.Failure!, chain);
+                continue;
+            }
+
+            yield return (end, chain, result);
+        }
+    }
+
+    /// <summary>The measurement window: the last whole periods after start-up, or the window after start-up for a DC source.</summary>
+    public static (double Start, double End) Window(ElaboratedChain chain, TransientResult result)
+    {
+        double end = result.Time[^1];
+        double from = Math.Min(chain.Window.MeasureFrom, end);
+        if (chain.Period is not { } period || !(period > 0))
+        {
+            return (from, end);
+        }
+
+        int periods = (int)Math.Floor(((end - from) / period) + 1e-9);
+        return periods < 1 ? (from, end) : (end - (periods * period), end);
+    }
+
+    /// <summary>Average of f(sample) over [start, end] by the trapezoidal rule on the transient's own time points.</summary>
+    public static double Average(IReadOnlyList<double> time, Func<int, double> f, double start, double end)
+    {
+        double sum = 0, span = 0;
+        for (int i = 1; i < time.Count; i++)
+        {
+            if (time[i - 1] < start - 1e-15 || time[i] > end + 1e-15)
+            {
+                continue;
+            }
+
+            double dt = time[i] - time[i - 1];
+            sum += 0.5 * (f(i) + f(i - 1)) * dt;
+            span += dt;
+        }
+
+        return span > 0 ? sum / span : f(time.Count - 1);
+    }
+}
+
+/// <summary>The forward current of the engine's diode model at a given terminal voltage (Shockley law plus series resistance).</summary>
+internal static class DiodeConduction
+{
+    /// <summary>Current at terminal voltage <paramref name="v"/> (anode − cathode), A; 0 for v ≤ 0 (reverse currents are not forward stress).</summary>
+    public static double ForwardCurrent(DiodeModel model, double v, double temperature)
+    {
+        if (!(v > 0))
+        {
+            return 0;
+        }
+
+        double nvt = model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature);
+        double isat = model.SaturationCurrent;
+        if (!(model.SeriesResistance > 0))
+        {
+            return isat * double.ExpM1(Math.Min(v / nvt, 700));
+        }
+
+        // v = nvt·ln(1 + i/isat) + i·rs is increasing in i: bisect on [0, v/rs] (bounded, 200 halvings at most).
+        double lo = 0, hi = v / model.SeriesResistance;
+        for (int k = 0; k < 200 && hi - lo > 1e-15 * Math.Max(hi, 1e-12); k++)
+        {
+            double mid = 0.5 * (lo + hi);
+            double vm = (nvt * Math.Log(1 + (mid / isat))) + (mid * model.SeriesResistance);
+            if (vm > v) hi = mid; else lo = mid;
+        }
+
+        return 0.5 * (lo + hi);
+    }
+
+    /// <summary>Forward voltage at a forward current, V.</summary>
+    public static double ForwardVoltage(DiodeModel model, double current, double temperature) =>
+        (model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature) * Math.Log(1 + (current / model.SaturationCurrent))) + (current * model.SeriesResistance);
+}

@@ -1,0 +1,94 @@
+using DesignRules.Elaboration;
+
+namespace DesignRules.Rules.Evaluation.SlewSaturation;
+
+/// <summary>How low a single-supply stage's input signal goes, and how low its amplifiers allow.</summary>
+/// <param name="Stage">The stage.</param>
+/// <param name="Minimum">Lowest input voltage over the band ends, V.</param>
+/// <param name="Limit">
+/// The lowest input its amplifiers can handle: the negative rail plus the larger of the input common-mode headroom and
+/// the output swing headroom to that rail (a follower-like stage needs both), V.
+/// </param>
+/// <param name="Frequency">The frequency the minimum was seen at, Hz; null for a DC source.</param>
+internal sealed record SingleSupplyBias(StageProbe Stage, double Minimum, double Limit, double? Frequency)
+{
+    /// <summary>True when the signal swings below what the amplifiers allow.</summary>
+    public bool NeedsBias => Minimum < Limit;
+}
+
+/// <summary>DR205's measurement, shared with DR203 (which leaves the negative side of such stages to DR205).</summary>
+internal static class SingleSupply
+{
+    private sealed record Holder(IReadOnlyList<SingleSupplyBias> Stages);
+
+    /// <summary>True when the design runs from a single supply (negative rail 0 V).</summary>
+    public static bool IsSingleSupply(DesignEvaluation evaluation) => evaluation.Design.Supplies.Negative.Value.Value == 0;
+
+    /// <summary>Every stage with amplifiers of a single-supply design, with its input minimum and limit; empty otherwise.</summary>
+    public static IReadOnlyList<SingleSupplyBias> Stages(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("slew-saturation:single-supply", () => new Holder(Compute(evaluation))).Stages;
+
+    /// <summary>True when <paramref name="stageId"/> is a single-supply stage whose signal needs a bias point it lacks.</summary>
+    public static bool NeedsBias(DesignEvaluation evaluation, string stageId) =>
+        Stages(evaluation).Any(s => s.Stage.StageId == stageId && s.NeedsBias);
+
+    private static List<SingleSupplyBias> Compute(DesignEvaluation evaluation)
+    {
+        var result = new List<SingleSupplyBias>();
+        if (!IsSingleSupply(evaluation))
+        {
+            return result;
+        }
+
+        var worst = new Dictionary<string, SingleSupplyBias>(StringComparer.Ordinal);
+        var order = new List<string>();
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        {
+            foreach (var stage in band.Chain.Stages.Where(s => s.Amplifiers.Count > 0))
+            {
+                double rail = stage.Amplifiers[0].Rails.Negative;
+                double limit = rail + stage.Amplifiers.Max(a => Math.Max(a.Part.InputRange.Negative.Value.Value, a.Part.OutputHeadroom.Negative.Value.Value));
+                double minimum = Minimum(band, stage.InputNode);
+                if (stage.ReferenceInputNode is not ("0" or "ground"))
+                {
+                    minimum = Math.Min(minimum, Minimum(band, stage.ReferenceInputNode));
+                }
+
+                var current = new SingleSupplyBias(stage, minimum, limit, band.Frequency);
+                if (!worst.TryGetValue(stage.StageId, out var previous))
+                {
+                    order.Add(stage.StageId);
+                    worst[stage.StageId] = current;
+                }
+                else if (current.Minimum - current.Limit < previous.Minimum - previous.Limit)
+                {
+                    worst[stage.StageId] = current;
+                }
+            }
+        }
+
+        result.AddRange(order.Select(id => worst[id]));
+        return result;
+    }
+
+    private static double Minimum(BandWaveforms band, string node)
+    {
+        if (!band.Transient.HasNode(node))
+        {
+            return 0;
+        }
+
+        var time = band.Transient.Time;
+        var v = band.Transient.Voltage(node);
+        double min = double.PositiveInfinity;
+        for (int i = 0; i < time.Count; i++)
+        {
+            if (time[i] >= band.From)
+            {
+                min = Math.Min(min, v[i]);
+            }
+        }
+
+        return double.IsFinite(min) ? min : 0;
+    }
+}

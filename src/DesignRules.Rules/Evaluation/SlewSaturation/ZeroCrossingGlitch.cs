@@ -1,0 +1,157 @@
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation.SlewSaturation;
+
+/// <summary>The zero-crossing glitch of one rectifying stage at one band end.</summary>
+/// <param name="Width">Longest time the output stays outside the band around the ideal transfer after an input zero crossing, s.</param>
+/// <param name="Tolerance">Half-width of that band, V.</param>
+/// <param name="Delay">The stage's linear delay taken out before comparing, s.</param>
+internal sealed record StageGlitch(double Width, double Tolerance, double Delay);
+
+/// <summary>
+/// Measures the zero-crossing glitch at a rectifying stage's output against its ideal transfer: the stage output is
+/// compared with the ideal transfer of its own input (engine <see cref="TransferError"/>), after taking out the stage's
+/// small linear delay (the delay, up to 5 % of the period, that best fits the output where the input is at least half
+/// its peak, far from any crossing), so that a plain phase lag — a bandwidth matter — is not counted as a glitch.
+/// </summary>
+internal static class ZeroCrossingGlitch
+{
+    private const double FitLevel = 0.5;
+    private const double MaxDelayFraction = 0.05;
+    private const int GridSteps = 40;
+
+    /// <summary>True for a stage that rectifies: diodes, and an absolute-value or half-wave transfer.</summary>
+    public static bool IsRectifying(StageProbe stage) =>
+        stage.Diodes.Count > 0 && stage.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
+
+    /// <summary>The glitch, or null when the stage does not rectify or the signal is too small to measure.</summary>
+    /// <param name="band">The band end's waveforms.</param>
+    /// <param name="stage">The stage.</param>
+    /// <param name="bandFraction">Half-width of the error band as a fraction of the ideal output's peak.</param>
+    public static StageGlitch? Of(BandWaveforms band, StageProbe stage, double bandFraction)
+    {
+        if (!IsRectifying(stage) || band.Frequency is not { } frequency)
+        {
+            return null;
+        }
+
+        var transient = band.Transient;
+        var time = transient.Time;
+        var input = transient.Voltage(stage.InputNode);
+        if (stage.ReferenceInputNode is not ("0" or "ground") && transient.HasNode(stage.ReferenceInputNode))
+        {
+            var reference = transient.Voltage(stage.ReferenceInputNode);
+            input = input.Select((v, i) => v - reference[i]).ToArray();
+        }
+
+        var output = transient.Voltage(stage.OutputNode);
+        var ideal = stage.Transfer.At;
+        int first = 0;
+        while (first < time.Count - 1 && time[first] < band.From)
+        {
+            first++;
+        }
+
+        double peakInput = 0, peakIdeal = 0;
+        for (int i = first; i < time.Count; i++)
+        {
+            peakInput = Math.Max(peakInput, Math.Abs(input[i]));
+            peakIdeal = Math.Max(peakIdeal, Math.Abs(ideal(input[i])));
+        }
+
+        double tolerance = bandFraction * peakIdeal;
+        if (!(tolerance > 0))
+        {
+            return null;
+        }
+
+        double delay = FitDelay(time, input, output, ideal, first, peakInput * FitLevel, MaxDelayFraction / frequency);
+        var delayed = time.Select(t => At(time, input, t - delay)).ToArray();
+        var error = TransferError.Measure(time, delayed, output, ideal, tolerance, band.From);
+        return new StageGlitch(error.WorstGlitchWidth, tolerance, delay);
+    }
+
+    private static double FitDelay(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, double maxDelay)
+    {
+        double Cost(double delay)
+        {
+            double sum = 0;
+            for (int i = first; i < time.Count; i++)
+            {
+                if (Math.Abs(input[i]) < level)
+                {
+                    continue;
+                }
+
+                double e = output[i] - ideal(At(time, input, time[i] - delay));
+                sum += e * e;
+            }
+
+            return sum;
+        }
+
+        double step = maxDelay / GridSteps, best = 0, bestCost = Cost(0);
+        for (int k = 1; k <= GridSteps; k++)
+        {
+            double c = Cost(k * step);
+            if (c < bestCost)
+            {
+                bestCost = c;
+                best = k * step;
+            }
+        }
+
+        double centre = best;
+        for (int k = -GridSteps / 4; k <= GridSteps / 4; k++)
+        {
+            double d = centre + (k * step / (GridSteps / 4.0));
+            if (d < 0 || d > maxDelay)
+            {
+                continue;
+            }
+
+            double c = Cost(d);
+            if (c < bestCost)
+            {
+                bestCost = c;
+                best = d;
+            }
+        }
+
+        return best;
+    }
+
+    /// <summary>Linear interpolation on the transient's time grid (held at the ends).</summary>
+    private static double At(IReadOnlyList<double> time, double[] values, double t)
+    {
+        int count = time.Count;
+        if (t <= time[0])
+        {
+            return values[0];
+        }
+
+        if (t >= time[count - 1])
+        {
+            return values[count - 1];
+        }
+
+        int lo = 0, hi = count - 1;
+        while (hi - lo > 1)
+        {
+            int mid = (lo + hi) >>> 1;
+            if (time[mid] <= t)
+            {
+                lo = mid;
+            }
+            else
+            {
+                hi = mid;
+            }
+        }
+
+        double span = time[hi] - time[lo];
+        return span > 0 ? values[lo] + ((values[hi] - values[lo]) * (t - time[lo]) / span) : values[hi];
+    }
+}

@@ -1,0 +1,120 @@
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation.Tolerance;
+
+/// <summary>
+/// Where a stage's DC transfer is measured: the source emf replaced by DC levels (zero, the waveform's lowest and highest
+/// value and its mean), so every later stage sees its input at ±Vp scaled by the stages before it; and, for a difference
+/// stage fed from a split source, the common-mode source stepped from 0 V to the source's common-mode level.
+/// </summary>
+/// <param name="StageId">The stage measured.</param>
+/// <param name="Levels">Source emf levels, V, ascending; one of them is 0.</param>
+/// <param name="ZeroIndex">Index of the 0 V level.</param>
+/// <param name="CommonMode">The common-mode level to step to, V, for a split-fed difference stage (1 V when the source states 0 V); null otherwise.</param>
+internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroIndex, double? CommonMode)
+{
+    /// <summary>Id of the common-mode source the elaborator adds for a split source.</summary>
+    public const string CommonModeSourceId = "source.cm";
+
+    public static TransferPlan Of(ElaboratedChain chain, StageProbe stage)
+    {
+        var waveform = chain.SourceWaveform;
+        var levels = new List<double> { 0, waveform.DcValue };
+        if (chain.Period is { } period && period > 0)
+        {
+            double low = double.PositiveInfinity, high = double.NegativeInfinity;
+            const int points = 4096;
+            for (int i = 0; i < points; i++)
+            {
+                double v = waveform.ValueAt(period * i / points);
+                low = Math.Min(low, v);
+                high = Math.Max(high, v);
+            }
+
+            levels.Add(low);
+            levels.Add(high);
+            levels.Add((low + high) / 2);
+        }
+
+        // A peak detector holds positive peaks: its negative levels say nothing and are hard to solve (its loop is open).
+        bool positiveOnly = TransferTarget.Of(stage).Kind == TransferKind.Peak;
+        var distinct = new List<double>();
+        foreach (var level in levels.Where(l => !positiveOnly || l >= 0).Order())
+        {
+            if (distinct.Count == 0 || Math.Abs(level - distinct[^1]) > 1e-12 * Math.Max(1, Math.Abs(level)))
+            {
+                distinct.Add(level);
+            }
+        }
+
+        double? commonMode = !Circuit.IsReference(stage.ReferenceInputNode) && chain.Design.Source.CommonMode is { } cm
+            ? (cm.Value.Value != 0 ? cm.Value.Value : 1.0)
+            : null;
+        return new TransferPlan(stage.StageId, [.. distinct], distinct.FindIndex(l => l == 0), commonMode);
+    }
+}
+
+/// <summary>
+/// One measurement of a stage's DC transfer: its input (differential for a split-fed stage) and output at every level of
+/// the plan, and the output shift when the common-mode level is applied.
+/// </summary>
+/// <param name="Inputs">Stage input voltage at each level, V.</param>
+/// <param name="Outputs">Stage output voltage at each level, V.</param>
+/// <param name="CommonModeShift">Output change from 0 V to the plan's common-mode level, V (0 when not measured).</param>
+/// <param name="Failure">Why the measurement failed, if it did.</param>
+/// <param name="Chain">The chain measured (to locate a failure).</param>
+internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double CommonModeShift, SimulationFailure? Failure, ElaboratedChain Chain)
+{
+    public bool Succeeded => Failure is null;
+
+    /// <summary>Elaborates the design with <paramref name="options"/> and measures the plan's stage.</summary>
+    public static DcTransfer Measure(Design design, ElaborationOptions options, TransferPlan plan)
+    {
+        var chain = ChainElaborator.Elaborate(design, options);
+        if (!chain.Succeeded)
+        {
+            var problem = chain.Problems[0];
+            return Failed(chain, new SimulationFailure(FailureKind.InvalidRequest, problem.Message) { ElementId = problem.ElementId });
+        }
+
+        var stage = chain.Stage(plan.StageId);
+        if (stage is null)
+        {
+            return Failed(chain, new SimulationFailure(FailureKind.InvalidRequest, $"stage '{plan.StageId}' is not in the chain"));
+        }
+
+        var sweep = Simulate.DcSweep(chain.Circuit, chain.SourceId, plan.Levels);
+        if (!sweep.Succeeded)
+        {
+            return Failed(chain, sweep.Failure!);
+        }
+
+        var input = sweep.Voltage(stage.InputNode);
+        var outputs = sweep.Voltage(stage.OutputNode);
+        var inputs = input;
+        if (!Circuit.IsReference(stage.ReferenceInputNode))
+        {
+            var reference = sweep.Voltage(stage.ReferenceInputNode);
+            inputs = input.Select((v, i) => v - reference[i]).ToArray();
+        }
+
+        double shift = 0;
+        if (plan.CommonMode is { } cm)
+        {
+            var common = Simulate.DcSweep(chain.Circuit, TransferPlan.CommonModeSourceId, [0, cm]);
+            if (!common.Succeeded)
+            {
+                return Failed(chain, common.Failure!);
+            }
+
+            var y = common.Voltage(stage.OutputNode);
+            shift = y[1] - y[0];
+        }
+
+        return new DcTransfer(inputs, outputs, shift, null, chain);
+    }
+
+    private static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);
+}

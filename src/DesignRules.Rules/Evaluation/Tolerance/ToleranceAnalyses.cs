@@ -1,0 +1,112 @@
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+
+namespace DesignRules.Rules.Evaluation.Tolerance;
+
+/// <summary>
+/// The tolerance analyses of a design's stages, each computed once and shared by the 4xx rules through
+/// <see cref="DesignAnalyses.Shared{T}"/>: the extreme-value worst case of every stage and, for stages with an accuracy
+/// requirement, the seeded Monte Carlo yield.
+/// </summary>
+internal static class ToleranceAnalyses
+{
+    /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
+    public static IReadOnlyList<StageProbe> Stages(DesignEvaluation evaluation)
+    {
+        var chain = evaluation.Analyses.Chain(BandEnd.Top);
+        return chain.Succeeded ? chain.Stages : [];
+    }
+
+    public static WorstCaseAnalysis WorstCase(DesignEvaluation evaluation, StageProbe stage) =>
+        evaluation.Analyses.Shared($"tolerance:worst-case:{stage.StageId}", () =>
+            WorstCaseAnalysis.Run(evaluation.Design, evaluation.Analyses.Chain(BandEnd.Top), stage, HoldDeviation(evaluation, stage)));
+
+    public static MonteCarloYield MonteCarlo(DesignEvaluation evaluation, StageProbe stage) =>
+        evaluation.Analyses.Shared($"tolerance:monte-carlo:{stage.StageId}", () =>
+            MonteCarloYield.Run(evaluation.Design, evaluation.Analyses.Chain(BandEnd.Top).Options, WorstCase(evaluation, stage), evaluation.MonteCarlo));
+
+    /// <summary>Reports a failed run of the stage's analysis (DR920); true when the analysis has no figures at all.</summary>
+    public static bool ReportFailure(DesignEvaluation evaluation, WorstCaseAnalysis analysis)
+    {
+        if (analysis.Failure is { } failure && analysis.FailedChain is { } chain)
+        {
+            evaluation.ReportFailure($"tolerance analysis of stage '{analysis.Stage.StageId}'", failure, chain);
+        }
+
+        return !(analysis.Metric.FullScale > 0) && analysis.Failure is not null;
+    }
+
+    /// <summary>The accuracy a stage states, if any (peak and average included).</summary>
+    public static double? Accuracy(StageProbe stage) => stage.Stage.Requirements.Accuracy?.Value.Value;
+
+    /// <summary>
+    /// For a peak stage: the range of (held output − input peak) over the measured periods of the nominal transient at
+    /// each band end, V; null for other stages or when no transient could be run.
+    /// </summary>
+    private static Interval? HoldDeviation(DesignEvaluation evaluation, StageProbe stage)
+    {
+        if (TransferTarget.Of(stage).Kind != TransferKind.Peak || !evaluation.Analyses.IsPeriodic)
+        {
+            return null;
+        }
+
+        Interval? range = null;
+        foreach (var end in evaluation.Analyses.BandEnds)
+        {
+            var chain = evaluation.Analyses.Chain(end);
+            var result = evaluation.Analyses.Transient(end);
+            var probe = chain.Stage(stage.StageId);
+            if (!result.Succeeded || probe is null)
+            {
+                if (result.Failure is { } failure) evaluation.ReportFailure("transient", failure, chain);
+                continue;
+            }
+
+            var time = result.Time;
+            var input = result.Voltage(probe.InputNode);
+            var output = result.Voltage(probe.OutputNode);
+            double peak = double.NegativeInfinity;
+            for (int i = 0; i < time.Count; i++) if (time[i] >= chain.Window.MeasureFrom) peak = Math.Max(peak, input[i]);
+            if (!double.IsFinite(peak)) continue;
+            for (int i = 0; i < time.Count; i++)
+            {
+                if (time[i] < chain.Window.MeasureFrom) continue;
+                double d = output[i] - peak;
+                range = range is { } r ? r.Include(d) : Interval.Point(d);
+            }
+        }
+
+        return range;
+    }
+
+    /// <summary>
+    /// The variable that adds most to a figure and a breakdown by group as a fraction of <paramref name="scale"/>
+    /// ("resistors 1.8 %, offsets 0.9 %"), for a message and the YAML node it points at.
+    /// </summary>
+    public static (Contribution? Dominant, string Detail) Breakdown(WorstCaseAnalysis analysis, Func<StageFigures, double> figure, double scale, Design design, string? extra = null)
+    {
+        var contributions = analysis.ContributionsTo(figure, design).ToList();
+        var dominant = contributions.Where(c => c.Size > 0).OrderByDescending(c => c.Size).ThenBy(c => c.What, StringComparer.Ordinal).FirstOrDefault();
+        var parts = contributions.GroupBy(c => c.Group)
+            .Select(g => (g.Key, Size: g.Sum(c => c.Size) / scale))
+            .Where(g => g.Size >= 1e-5)
+            .Select(g => $"{g.Key} {Say.Percent(g.Size)}")
+            .ToList();
+        double nominal = Math.Abs(figure(analysis.Nominal)) / scale;
+        if (nominal >= 1e-5 && double.IsFinite(nominal)) parts.Add($"nominal {Say.Percent(nominal)}");
+
+        // When the nominal values themselves are off more than any tolerance adds, the fix is a component value:
+        // point at the resistor the figure is most sensitive to, not at an amplifier's offset.
+        if (double.IsFinite(nominal) && dominant is not null && nominal > dominant.Size / scale)
+        {
+            dominant = contributions.Where(c => c.Size > 0 && c.Group == "resistors").OrderByDescending(c => c.Size)
+                .ThenBy(c => c.What, StringComparer.Ordinal).FirstOrDefault() ?? dominant;
+        }
+        if (extra is not null) parts.Add(extra);
+        return (dominant, parts.Count == 0 ? "no tolerance" : string.Join(", ", parts));
+    }
+
+    /// <summary>The YAML node to point at: the dominant contributor, else the fallback (a requirement).</summary>
+    public static SourceSpan Target(Contribution? dominant, SourceSpan fallback) => dominant?.Span ?? fallback;
+}

@@ -1,0 +1,122 @@
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation.Tolerance;
+
+/// <summary>A resistor whose value may lie anywhere in nominal·(1 ± tolerance).</summary>
+/// <param name="ElementId">Engine element id, also the value-override key (<c>stage.rf</c>).</param>
+/// <param name="Name">The design's name for it (rf).</param>
+/// <param name="Nominal">Nominal value, Ω.</param>
+/// <param name="Tolerance">Its family's tolerance as a ratio (0 when it has no family: treated as exact).</param>
+/// <param name="Span">Where the value is written.</param>
+internal sealed record ResistorVariable(string ElementId, string Name, double Nominal, double Tolerance, SourceSpan Span);
+
+/// <summary>An amplifier whose input offset voltage and bias currents may reach the part's maxima, either sign.</summary>
+/// <param name="ElementId">Engine element id (<c>stage.u1</c>).</param>
+/// <param name="MaximumOffset">The part's maximum offset voltage, V.</param>
+/// <param name="MaximumBias">The part's maximum bias current, A.</param>
+internal sealed record AmplifierVariable(string ElementId, double MaximumOffset, double MaximumBias);
+
+/// <summary>A diode whose forward voltage may lie anywhere in the nominal ± <see cref="DiodeSpread.ForwardVoltage"/>.</summary>
+/// <param name="ElementId">Engine element id (<c>stage.d1</c>).</param>
+/// <param name="SlopeVoltage">n·V_T of its model, V: a forward-voltage shift δ is a saturation-current factor exp(−δ/(n·V_T)).</param>
+internal sealed record DiodeVariable(string ElementId, double SlopeVoltage);
+
+/// <summary>
+/// The diode forward-voltage spread the tolerance analysis assumes. Diodes of one type from different lots differ in
+/// forward voltage at a given current by a few tens of millivolts (common practice: about ±25 mV for small-signal silicon
+/// junctions; the parts format has no spread figure), applied as a saturation-current factor, since at a fixed current
+/// Vf = n·V_T·ln(I/Is).
+/// </summary>
+internal static class DiodeSpread
+{
+    /// <summary>Forward-voltage spread taken as the extreme (±3σ in Monte Carlo), V (common practice).</summary>
+    public const double ForwardVoltage = 25e-3;
+
+    /// <summary>The saturation-current factor that raises the forward voltage by <paramref name="shift"/> volts.</summary>
+    public static double SaturationScale(DiodeVariable diode, double shift) => Math.Exp(-shift / diode.SlopeVoltage);
+}
+
+/// <summary>
+/// One assignment of every variable of a stage: each a signed fraction of its extreme (−1 … +1): a resistor at
+/// nominal·(1 + u·t), an offset at u·Vos,max, bias currents u·Ib,max into both inputs, a diode at Vf + u·spread.
+/// </summary>
+/// <param name="Resistors">Per resistor variable, in order.</param>
+/// <param name="Offsets">Per amplifier variable.</param>
+/// <param name="Biases">Per amplifier variable.</param>
+/// <param name="Diodes">Per diode variable.</param>
+internal sealed record Variation(double[] Resistors, double[] Offsets, double[] Biases, double[] Diodes);
+
+/// <summary>
+/// The variables of one stage (its resistors with a tolerance, its amplifiers' offsets and bias currents, its diodes) and
+/// the elaboration options that set them. Every other stage stays at its nominal values; the stage's own amplifiers start
+/// from zero offset and zero bias current so that those enter only as variables.
+/// </summary>
+internal sealed class ToleranceVariables
+{
+    private ToleranceVariables(StageProbe stage, double temperature)
+    {
+        Stage = stage;
+        Resistors = stage.Components
+            .Where(c => c.Kind == DesignRules.Model.ElementKind.Resistor)
+            .OrderBy(c => c.ElementId, StringComparer.Ordinal)
+            .Select(c => new ResistorVariable(c.ElementId, c.Name, c.NominalValue, Math.Abs(c.ResistorFamily?.Tolerance.Value.Value ?? 0), c.Span))
+            .ToArray();
+        Amplifiers = stage.Amplifiers.OrderBy(a => a.ElementId, StringComparer.Ordinal)
+            .Select(a => new AmplifierVariable(a.ElementId, Math.Abs(a.Part.OffsetVoltage.Maximum.Value.Value), Math.Abs(a.Part.BiasCurrent.Maximum.Value.Value)))
+            .ToArray();
+        Diodes = stage.Diodes.OrderBy(d => d.ElementId, StringComparer.Ordinal)
+            .Select(d => new DiodeVariable(d.ElementId, d.Model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature)))
+            .ToArray();
+    }
+
+    public StageProbe Stage { get; }
+
+    public IReadOnlyList<ResistorVariable> Resistors { get; }
+
+    /// <summary>The resistors that actually vary (a tolerance above zero).</summary>
+    public IEnumerable<int> Toleranced => Enumerable.Range(0, Resistors.Count).Where(i => Resistors[i].Tolerance > 0);
+
+    public IReadOnlyList<AmplifierVariable> Amplifiers { get; }
+
+    public IReadOnlyList<DiodeVariable> Diodes { get; }
+
+    /// <summary>Every variable at its nominal value.</summary>
+    public Variation Nominal => new(new double[Resistors.Count], new double[Amplifiers.Count], new double[Amplifiers.Count], new double[Diodes.Count]);
+
+    public static ToleranceVariables Of(StageProbe stage, ElaborationOptions options) => new(stage, options.Temperature);
+
+    /// <summary>The elaboration options that realise a variation on top of <paramref name="baseline"/>.</summary>
+    public ElaborationOptions Options(ElaborationOptions baseline, Variation v)
+    {
+        var values = new Dictionary<string, double>(StringComparer.Ordinal);
+        for (int i = 0; i < Resistors.Count; i++)
+        {
+            if (Resistors[i].Tolerance > 0 && v.Resistors[i] != 0)
+            {
+                values[Resistors[i].ElementId] = Resistors[i].Nominal * (1 + (v.Resistors[i] * Resistors[i].Tolerance));
+            }
+        }
+
+        var offsets = new Dictionary<string, double>(StringComparer.Ordinal);
+        var biases = new Dictionary<string, BiasCurrents>(StringComparer.Ordinal);
+        for (int i = 0; i < Amplifiers.Count; i++)
+        {
+            offsets[Amplifiers[i].ElementId] = v.Offsets[i] * Amplifiers[i].MaximumOffset;
+            double ib = v.Biases[i] * Amplifiers[i].MaximumBias;
+            biases[Amplifiers[i].ElementId] = new BiasCurrents(ib, ib);
+        }
+
+        var diodes = new Dictionary<string, double>(StringComparer.Ordinal);
+        for (int i = 0; i < Diodes.Count; i++)
+        {
+            if (v.Diodes[i] != 0)
+            {
+                diodes[Diodes[i].ElementId] = DiodeSpread.SaturationScale(Diodes[i], v.Diodes[i] * DiodeSpread.ForwardVoltage);
+            }
+        }
+
+        return baseline with { Values = values, OffsetVoltages = offsets, BiasCurrents = biases, DiodeSaturationScales = diodes };
+    }
+}

@@ -1,0 +1,285 @@
+using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Model;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation.Tolerance;
+
+/// <summary>What one variable of a stage adds to a figure, and where in the design it is written.</summary>
+/// <param name="What">How a message names it ("resistor rf", "amplifier u1 offset").</param>
+/// <param name="Group">resistors, offsets, bias currents or diodes.</param>
+/// <param name="Span">The YAML node to change.</param>
+/// <param name="Plus">Figure change with the variable at +1 (its upper extreme).</param>
+/// <param name="Minus">Figure change with it at −1 (not measured for resistors: NaN).</param>
+internal sealed record Contribution(string What, string Group, SourceSpan Span, double Plus, double Minus)
+{
+    public double Size => Math.Max(Abs(Plus), Abs(Minus));
+
+    private static double Abs(double v) => double.IsNaN(v) ? 0 : Math.Abs(v);
+}
+
+/// <summary>
+/// Extreme-value worst case of one stage's DC transfer. Resistors: every vertex of the tolerance box (2^n corners for up to
+/// <see cref="MaxEnumerated"/> toleranced resistors; beyond that the two vertices per figure that its one-at-a-time
+/// sensitivities point to). Amplifier offset voltages and bias currents (at ± their maxima) and diode forward voltages (at
+/// ± <see cref="DiodeSpread.ForwardVoltage"/>) are superposed: each is applied alone at both signs with the resistors
+/// nominal and its change of every figure is added to the resistor range — exact for offsets and bias currents in a
+/// linear stage, first order otherwise.
+/// </summary>
+internal sealed class WorstCaseAnalysis
+{
+    public const int MaxEnumerated = 10;
+
+    public required StageProbe Stage { get; init; }
+
+    public required ToleranceVariables Variables { get; init; }
+
+    public required TransferPlan Plan { get; init; }
+
+    public required TransferTarget Target { get; init; }
+
+    public required AccuracyMetric Metric { get; init; }
+
+    public required StageFigures Nominal { get; init; }
+
+    /// <summary>Per level: the range of the deviation from the target, V.</summary>
+    public required Interval[] Deviations { get; init; }
+
+    public required Interval Gain { get; init; }
+
+    public required Interval Mismatch { get; init; }
+
+    public required Interval CommonModeShift { get; init; }
+
+    /// <summary>The smallest common-mode rejection over the resistor corners (infinite when not measured).</summary>
+    public required double WorstCommonModeRejection { get; init; }
+
+    /// <summary>Resistor corners evaluated.</summary>
+    public required int Corners { get; init; }
+
+    /// <summary>True when the corners were chosen by sensitivity rather than enumerated.</summary>
+    public required bool BySensitivity { get; init; }
+
+    /// <summary>Per variable, the change of every figure it causes alone.</summary>
+    public required IReadOnlyList<(ResistorVariable? Resistor, int Amplifier, string Kind, int Diode, StageFigures Plus, StageFigures? Minus)> Singles { get; init; }
+
+    /// <summary>The first failed run, if any (the figures are then those of the runs that succeeded).</summary>
+    public SimulationFailure? Failure { get; init; }
+
+    public ElaboratedChain? FailedChain { get; init; }
+
+    /// <summary>Worst relative transfer error and the level it occurs at.</summary>
+    public (double Error, int Index) TransferError => Metric.WorstOf(Deviations, Nominal);
+
+    /// <summary>Worst output offset (deviation at zero input), V.</summary>
+    public double OutputOffset => Deviations[Plan.ZeroIndex].Magnitude;
+
+    /// <summary>
+    /// The variables' contributions to a figure: each resistor's one-at-a-time change, each error source's change.
+    /// </summary>
+    public IEnumerable<Contribution> ContributionsTo(Func<StageFigures, double> figure, Design design)
+    {
+        double n = figure(Nominal);
+        foreach (var s in Singles)
+        {
+            double plus = figure(s.Plus) - n;
+            double minus = s.Minus is null ? double.NaN : figure(s.Minus) - n;
+            if (s.Resistor is { } r)
+            {
+                yield return new Contribution($"resistor {r.Name}", "resistors", r.Span, plus, minus);
+            }
+            else if (s.Amplifier >= 0)
+            {
+                var a = Stage.Amplifiers.Single(p => p.ElementId == Variables.Amplifiers[s.Amplifier].ElementId);
+                yield return new Contribution($"amplifier {a.Slot} {s.Kind}", s.Kind == "offset" ? "offsets" : "bias currents", ToleranceSpans.Amplifier(design, Stage, a.Slot), plus, minus);
+            }
+            else
+            {
+                var d = Stage.Diodes.Single(p => p.ElementId == Variables.Diodes[s.Diode].ElementId);
+                yield return new Contribution($"diode {d.Slot} forward voltage", "diodes", ToleranceSpans.Diode(Stage, d.Slot), plus, minus);
+            }
+        }
+    }
+
+    /// <summary>Runs the analysis of one stage of the nominal chain.</summary>
+    public static WorstCaseAnalysis Run(Design design, ElaboratedChain nominalChain, StageProbe stage, Interval? dynamic, int maxDegreeOfParallelism = -1)
+    {
+        var baseline = nominalChain.Options;
+        var variables = ToleranceVariables.Of(stage, baseline);
+        var plan = TransferPlan.Of(nominalChain, stage);
+        var target = TransferTarget.Of(stage);
+        var toleranced = variables.Toleranced.ToArray();
+
+        // Runs: nominal, each toleranced resistor alone at +1, each error source alone at ±1.
+        var runs = new List<Variation> { variables.Nominal };
+        var singles = new List<(int Resistor, int Amplifier, string Kind, int Diode, int Plus, int Minus)>();
+        foreach (int r in toleranced)
+        {
+            var v = variables.Nominal;
+            v.Resistors[r] = 1;
+            singles.Add((r, -1, "resistor", -1, runs.Count, -1));
+            runs.Add(v);
+        }
+
+        for (int a = 0; a < variables.Amplifiers.Count; a++)
+        {
+            foreach (var kind in new[] { "offset", "bias current" })
+            {
+                int plus = runs.Count;
+                foreach (double sign in new[] { 1.0, -1.0 })
+                {
+                    var v = variables.Nominal;
+                    (kind == "offset" ? v.Offsets : v.Biases)[a] = sign;
+                    runs.Add(v);
+                }
+
+                singles.Add((-1, a, kind, -1, plus, plus + 1));
+            }
+        }
+
+        for (int d = 0; d < variables.Diodes.Count; d++)
+        {
+            int plus = runs.Count;
+            foreach (double sign in new[] { 1.0, -1.0 })
+            {
+                var v = variables.Nominal;
+                v.Diodes[d] = sign;
+                runs.Add(v);
+            }
+
+            singles.Add((-1, -1, "diode", d, plus, plus + 1));
+        }
+
+        var first = Evaluate(design, baseline, variables, plan, runs, maxDegreeOfParallelism);
+        var nominalTransfer = first[0];
+        if (!nominalTransfer.Succeeded)
+        {
+            return Empty(stage, variables, plan, target, nominalTransfer);
+        }
+
+        var metric = AccuracyMetric.Of(target, nominalTransfer, dynamic);
+        var figures = first.Select(t => t.Succeeded ? StageFigures.Of(t, target, plan) : null).ToArray();
+        var nominal = figures[0]!;
+
+        // Resistor corners: every vertex, or those the sensitivities point to.
+        var corners = new List<Variation>();
+        bool bySensitivity = toleranced.Length > MaxEnumerated;
+        if (!bySensitivity)
+        {
+            for (int mask = 0; mask < (1 << toleranced.Length); mask++)
+            {
+                var v = variables.Nominal;
+                for (int b = 0; b < toleranced.Length; b++) v.Resistors[toleranced[b]] = (mask & (1 << b)) != 0 ? 1 : -1;
+                corners.Add(v);
+            }
+        }
+        else
+        {
+            var seen = new HashSet<string>(StringComparer.Ordinal);
+            foreach (var field in Fields(nominal))
+            {
+                foreach (double direction in new[] { 1.0, -1.0 })
+                {
+                    var v = variables.Nominal;
+                    for (int k = 0; k < toleranced.Length; k++)
+                    {
+                        var single = figures[1 + k];
+                        double slope = single is null ? 0 : field(single) - field(nominal);
+                        v.Resistors[toleranced[k]] = direction * (slope >= 0 ? 1 : -1);
+                    }
+
+                    if (seen.Add(string.Join(',', v.Resistors)))
+                    {
+                        corners.Add(v);
+                    }
+                }
+            }
+        }
+
+        var cornerRuns = Evaluate(design, baseline, variables, plan, corners, maxDegreeOfParallelism);
+        var cornerFigures = cornerRuns.Where(t => t.Succeeded).Select(t => StageFigures.Of(t, target, plan)).ToList();
+        cornerFigures.Add(nominal);
+
+        var deviations = Enumerable.Range(0, plan.Levels.Length)
+            .Select(i => cornerFigures.Aggregate(Interval.Point(nominal.Deviations[i]), (acc, f) => acc.Include(f.Deviations[i]))).ToArray();
+        var gain = cornerFigures.Aggregate(Interval.Point(nominal.Gain), (acc, f) => acc.Include(f.Gain));
+        var mismatch = cornerFigures.Aggregate(Interval.Point(nominal.Mismatch), (acc, f) => acc.Include(f.Mismatch));
+        var shift = cornerFigures.Aggregate(Interval.Point(nominal.CommonModeShift), (acc, f) => acc.Include(f.CommonModeShift));
+        double cmrr = cornerFigures.Min(f => f.CommonModeRejection);
+
+        var singleFigures = new List<(ResistorVariable?, int, string, int, StageFigures, StageFigures?)>();
+        foreach (var s in singles)
+        {
+            var plus = figures[s.Plus];
+            var minus = s.Minus >= 0 ? figures[s.Minus] : null;
+            if (plus is null || (s.Minus >= 0 && minus is null)) continue;
+            singleFigures.Add((s.Resistor >= 0 ? variables.Resistors[s.Resistor] : null, s.Amplifier, s.Kind, s.Diode, plus, minus));
+            if (s.Resistor >= 0) continue;
+
+            // Superpose the error source on the resistor range.
+            for (int i = 0; i < deviations.Length; i++)
+            {
+                deviations[i] = deviations[i].Widen(plus.Deviations[i] - nominal.Deviations[i], minus!.Deviations[i] - nominal.Deviations[i]);
+            }
+
+            gain = gain.Widen(plus.Gain - nominal.Gain, minus!.Gain - nominal.Gain);
+            mismatch = mismatch.Widen(plus.Mismatch - nominal.Mismatch, minus.Mismatch - nominal.Mismatch);
+        }
+
+        var failed = first.Concat(cornerRuns).FirstOrDefault(t => !t.Succeeded);
+        return new WorstCaseAnalysis
+        {
+            Stage = stage,
+            Variables = variables,
+            Plan = plan,
+            Target = target,
+            Metric = metric,
+            Nominal = nominal,
+            Deviations = deviations,
+            Gain = gain,
+            Mismatch = mismatch,
+            CommonModeShift = shift,
+            WorstCommonModeRejection = cmrr,
+            Corners = corners.Count,
+            BySensitivity = bySensitivity,
+            Singles = singleFigures,
+            Failure = failed?.Failure,
+            FailedChain = failed?.Chain,
+        };
+    }
+
+    /// <summary>Runs the variations side by side; results are in the order of <paramref name="runs"/>.</summary>
+    internal static DcTransfer[] Evaluate(Design design, ElaborationOptions baseline, ToleranceVariables variables, TransferPlan plan, IReadOnlyList<Variation> runs, int maxDegreeOfParallelism)
+    {
+        var results = new DcTransfer[runs.Count];
+        Parallel.For(0, runs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism },
+            i => results[i] = DcTransfer.Measure(design, variables.Options(baseline, runs[i]), plan));
+        return results;
+    }
+
+    private static IEnumerable<Func<StageFigures, double>> Fields(StageFigures nominal)
+    {
+        for (int i = 0; i < nominal.Deviations.Length; i++)
+        {
+            int level = i;
+            yield return f => f.Deviations[level];
+        }
+
+        yield return f => f.Gain;
+        yield return f => f.Mismatch;
+        yield return f => f.CommonModeShift;
+    }
+
+    private static WorstCaseAnalysis Empty(StageProbe stage, ToleranceVariables variables, TransferPlan plan, TransferTarget target, DcTransfer failed)
+    {
+        var nothing = new StageFigures(new double[plan.Levels.Length], double.NaN, double.NaN, 0, double.PositiveInfinity);
+        return new WorstCaseAnalysis
+        {
+            Stage = stage, Variables = variables, Plan = plan, Target = target,
+            Metric = new AccuracyMetric([], double.NaN, null, 0), Nominal = nothing,
+            Deviations = new Interval[plan.Levels.Length], Gain = Interval.Point(double.NaN), Mismatch = Interval.Point(double.NaN),
+            CommonModeShift = Interval.Point(0), WorstCommonModeRejection = double.PositiveInfinity, Corners = 0, BySensitivity = false,
+            Singles = [], Failure = failed.Failure, FailedChain = failed.Chain,
+        };
+    }
+}
