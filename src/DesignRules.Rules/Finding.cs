@@ -32,7 +32,7 @@ public sealed record Finding(
     public bool IsWaived => Waiver is not null;
 }
 
-/// <summary>A named figure with its unit symbol, e.g. ("demanded slew", 14.2e6, "V/s").</summary>
+/// <summary>A named figure with its unit symbol, e.g. ("demanded slew", 14.2e6, "V/s"); "%" marks a fraction shown as a percentage, "1" a plain ratio.</summary>
 /// <param name="Name">What the figure is.</param>
 /// <param name="Value">Its value in SI units.</param>
 /// <param name="Unit">The SI unit symbol.</param>

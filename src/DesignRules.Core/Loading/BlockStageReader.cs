@@ -131,7 +131,7 @@ internal static class BlockStageReader
             case YamlScalar s:
             {
                 var q = values.ParseQuantity(s, name, dimension, check);
-                return q is null ? null : new ComponentValue(new Located<string>(name, values.KeySpan(name)), q, resistors, capacitors);
+                return q is null ? null : Value(name, values.KeySpan(name), q, dimension, resistors, capacitors);
             }
 
             default:
@@ -161,10 +161,17 @@ internal static class BlockStageReader
                     }
                 }
 
-                return q is null ? null : new ComponentValue(new Located<string>(name, values.KeySpan(name)), q, resistors, capacitors);
+                return q is null ? null : Value(name, values.KeySpan(name), q, dimension, resistors, capacitors);
             }
         }
     }
+
+    // A value carries only the family of its own kind: a capacitor never inherits the stage's resistor family.
+    private static ComponentValue Value(
+        string name, SourceSpan span, Located<Quantity> q, Dimension dimension, ResistorFamily? resistors, CapacitorFamily? capacitors) =>
+        new(new Located<string>(name, span), q,
+            dimension == Dimension.Resistance ? resistors : null,
+            dimension == Dimension.Capacitance ? capacitors : null);
 
     private static Dictionary<string, T> ResolveSlots<T>(
         MappingReader m, string kind, Located<string>? common, MappingReader? perSlot, IReadOnlyList<string> slots,

@@ -80,7 +80,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
         double error = atTop is { } h && reference > 0 ? Math.Abs((h.Magnitude / reference) - 1) : 0;
         if (top is not null)
         {
-            evaluation.Record(stageId, "gain error at the band top", error, "1");
+            evaluation.Record(stageId, "gain error at the band top", error, "%");
         }
 
         var required = requirements.Bandwidth?.Value.Value;
@@ -101,7 +101,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
             ["gain-error"] = top is { } f
                 ? $"; gain at {Say.Hertz(f)} is off by {Say.Percent(error)} ({Say.Percent(accuracy)} allowed{(error > accuracy ? $", {Say.Percent(error - accuracy)} over" : string.Empty)})"
                 : string.Empty,
-        }, new Figure("closed-loop bandwidth", bandwidth ?? sweep.Frequencies[^1], "Hz"), new Figure("gain error at the band top", error, "1"), new Figure("accuracy", accuracy, "1"));
+        }, new Figure("closed-loop bandwidth", bandwidth ?? sweep.Frequencies[^1], "Hz"), new Figure("gain error at the band top", error, "%"), new Figure("accuracy", accuracy, "1"));
     }
 
     private static Complex[] Response(AcResult result, Func<int, Complex> input, string output)

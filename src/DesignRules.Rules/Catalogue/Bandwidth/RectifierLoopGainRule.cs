@@ -57,7 +57,7 @@ internal sealed class RectifierLoopGainRule : Rule
         double signal = (minSignal ?? inputLevel) * gain;
         double relative = signal > 0 ? outputError / signal : double.PositiveInfinity;
         evaluation.Record(stageId, $"loop gain at the band top {amp.Slot}", loopGain, "1");
-        evaluation.Record(stageId, "rectifier error at the band top", relative, "1");
+        evaluation.Record(stageId, "rectifier error at the band top", relative, "%");
         double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
         if (relative <= accuracy)
         {
@@ -73,7 +73,7 @@ internal sealed class RectifierLoopGainRule : Rule
             ["signal"] = Say.Volts(signal),
             ["limit"] = Say.Percent(accuracy),
             ["margin"] = Say.Percent(relative - accuracy),
-        }, new Figure("loop gain at the band top", loopGain, "1"), new Figure("rectifier error at the band top", relative, "1"), new Figure("accuracy", accuracy, "1"));
+        }, new Figure("loop gain at the band top", loopGain, "1"), new Figure("rectifier error at the band top", relative, "%"), new Figure("accuracy", accuracy, "1"));
     }
 
     /// <summary>The amplifiers whose output drives a diode of the stage (the rectifying loops), each with that diode.</summary>

@@ -45,7 +45,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         foreach (var (stageId, error) in worst.OrderBy(w => w.Key, StringComparer.Ordinal))
         {
             var stage = probes[stageId];
-            evaluation.Record(stageId, "output error while the diode is off", error, "1");
+            evaluation.Record(stageId, "output error while the diode is off", error, "%");
             double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
             if (error <= accuracy)
             {
@@ -58,7 +58,7 @@ internal sealed class HighImpedanceOutputRule : Rule
                 ["error"] = Say.Percent(error),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, new Figure("output error while the diode is off", error, "1"), new Figure("accuracy", accuracy, "1"));
+            }, new Figure("output error while the diode is off", error, "%"), new Figure("accuracy", accuracy, "1"));
         }
     }
 

@@ -54,7 +54,7 @@ internal sealed class InterstageLoadingRule : Rule
                 continue;
             }
 
-            evaluation.Record(stage.StageId, "loading loss at the output", worst.Error, "1");
+            evaluation.Record(stage.StageId, "loading loss at the output", worst.Error, "%");
             bool last = k + 1 == stages.Count;
             double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
             if (!last)

@@ -82,7 +82,7 @@ internal sealed class SourceImpedanceRule : Rule
         }
 
         var stageId = first.StageId;
-        evaluation.Record(stageId, "source loading loss", error, "1");
+        evaluation.Record(stageId, "source loading loss", error, "%");
         double accuracy = StageFacts.Accuracy(evaluation, Id, first.Stage);
         if (error <= accuracy)
         {
@@ -97,7 +97,7 @@ internal sealed class SourceImpedanceRule : Rule
             ["error"] = Say.Percent(error),
             ["limit"] = Say.Percent(accuracy),
             ["margin"] = Say.Percent(error - accuracy),
-        }, new Figure("source loading loss", error, "1"), new Figure("accuracy", accuracy, "1"));
+        }, new Figure("source loading loss", error, "%"), new Figure("accuracy", accuracy, "1"));
     }
 
     private static bool Split(SmallSignal small) => !Circuit.IsReference(small.Chain.Stages[0].ReferenceInputNode);

@@ -23,7 +23,7 @@ internal sealed class HalfCycleSymmetryRule : Rule
             double scale = Math.Abs(analysis.Target.SlopePositive);
             double mismatch = analysis.Mismatch.Magnitude / scale;
             if (double.IsNaN(mismatch)) continue;
-            evaluation.Record(id, "worst-case half-cycle mismatch", mismatch, "1");
+            evaluation.Record(id, "worst-case half-cycle mismatch", mismatch, "%");
             if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || mismatch <= accuracy)
             {
                 continue;
@@ -36,7 +36,7 @@ internal sealed class HalfCycleSymmetryRule : Rule
                 ["error"] = Say.Percent(mismatch),
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
-            }, new Figure("worst-case half-cycle mismatch", mismatch, "1"), new Figure("accuracy", accuracy, "1"));
+            }, new Figure("worst-case half-cycle mismatch", mismatch, "%"), new Figure("accuracy", accuracy, "1"));
         }
     }
 }

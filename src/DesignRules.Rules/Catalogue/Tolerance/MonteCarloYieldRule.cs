@@ -27,9 +27,11 @@ internal sealed class MonteCarloYieldRule : Rule
 
             var monteCarlo = ToleranceAnalyses.MonteCarlo(evaluation, stage);
             double yield = monteCarlo.YieldWithin(accuracy);
-            evaluation.Record(id, "Monte Carlo yield", yield, "1");
+            evaluation.Record(id, "Monte Carlo yield", yield, "%");
             evaluation.Record(id, "Monte Carlo samples", monteCarlo.Samples, "1");
             if (monteCarlo.Unsolved > 0) evaluation.Record(id, "Monte Carlo unsolved samples", monteCarlo.Unsolved, "1");
+            evaluation.RecordDistribution(id, new SampleDistribution(
+                "transfer error (%)", "%", monteCarlo.Errors.Where(double.IsFinite).Select(e => e * 100).ToArray(), null, accuracy * 100));
             var required = stage.Stage.Requirements.Yield;
             double limit = required?.Value.Value ?? evaluation.Threshold(Id, "min-yield", id);
             if (yield >= limit)
@@ -49,7 +51,7 @@ internal sealed class MonteCarloYieldRule : Rule
                 ["seed"] = monteCarlo.Seed.ToString(System.Globalization.CultureInfo.InvariantCulture),
                 ["limit"] = Say.Percent(limit),
                 ["cause"] = dominant is null ? "the nominal transfer" : dominant.What,
-            }, new Figure("Monte Carlo yield", yield, "1"), new Figure("required yield", limit, "1"));
+            }, new Figure("Monte Carlo yield", yield, "%"), new Figure("required yield", limit, "1"));
         }
     }
 }

@@ -21,7 +21,7 @@ internal sealed class WorstCaseTransferRule : Rule
             if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
             var (error, level) = analysis.TransferError;
             if (double.IsNaN(error)) continue;
-            evaluation.Record(id, "worst-case transfer error", error, "1");
+            evaluation.Record(id, "worst-case transfer error", error, "%");
             if (analysis.Target.IsLinear && double.IsFinite(analysis.Gain.Low))
             {
                 evaluation.Record(id, "nominal gain", analysis.Nominal.Gain, "1");
@@ -52,7 +52,7 @@ internal sealed class WorstCaseTransferRule : Rule
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, new Figure("worst-case transfer error", error, "1"), new Figure("accuracy", accuracy, "1"));
+            }, new Figure("worst-case transfer error", error, "%"), new Figure("accuracy", accuracy, "1"));
         }
     }
 }

@@ -1,0 +1,102 @@
+using DesignRules.Diagnostics;
+using DesignRules.Rules;
+using Scriban;
+using Scriban.Runtime;
+using Scriban.Syntax;
+
+namespace DesignRules.Pages;
+
+/// <summary>
+/// Writes the datasheet pages of a check: an index, a page per design with a section per stage, and SVG plots
+/// beside them. Same report, same bytes. The MSBuild task and the command line both call this after the check.
+/// </summary>
+public static class DatasheetPages
+{
+    /// <summary>Renders every page of <paramref name="report"/> into the options' output folder.</summary>
+    public static PageResult Write(CheckReport report, PageOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(report);
+        ArgumentNullException.ThrowIfNull(options);
+        var diagnostics = new List<Diagnostic>();
+        var templates = TemplateSet.Load(options.TemplateFolder, diagnostics);
+        if (!templates.IsComplete)
+        {
+            // Half a set of pages would mislead a wiki reader; leave the previous pages as they are.
+            return new PageResult([], [], diagnostics);
+        }
+
+        var output = new OutputFolder(options.OutputFolder);
+        var pages = new List<(DesignSummary Summary, string Page)>();
+        foreach (var summary in report.Designs.OrderBy(d => d.Design.Id.Value, StringComparer.Ordinal))
+        {
+            var name = OutputFolder.SafeName(summary.Design.Id.Value);
+            var page = $"{name}.md";
+            string? PlotPath(string stage, string kind) => $"plots/{name}/{OutputFolder.SafeName(stage)}-{kind}.svg";
+            var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath);
+            var text = Render(templates, "design", "design", model, diagnostics);
+            if (text is null)
+            {
+                continue;
+            }
+
+            foreach (var plots in summary.Plots)
+            {
+                var stage = OutputFolder.SafeName(plots.StageId);
+                if (plots.Transient is not null)
+                {
+                    output.Write($"plots/{name}/{stage}-transient.svg", PlotRenderer.Transient(plots.StageId, plots.Transient));
+                }
+
+                if (plots.Bode is not null)
+                {
+                    output.Write($"plots/{name}/{stage}-response.svg", PlotRenderer.Response(plots.StageId, plots.Bode));
+                }
+
+                if (plots.Distribution is not null)
+                {
+                    output.Write($"plots/{name}/{stage}-monte-carlo.svg", PlotRenderer.Histogram(plots.StageId, plots.Distribution));
+                }
+            }
+
+            output.Write(page, text);
+            pages.Add((summary, page));
+        }
+
+        var index = Render(templates, "index", "index", PageModel.Index(report, pages), diagnostics);
+        if (index is not null)
+        {
+            output.Write("index.md", index);
+        }
+
+        var removed = output.Finish(diagnostics);
+        return new PageResult(output.Written.ToList(), removed, diagnostics);
+    }
+
+    private static string? Render(TemplateSet templates, string name, string variable, ScriptObject model, List<Diagnostic> diagnostics)
+    {
+        var (template, path, _) = templates[name];
+        var globals = EngineeringFunctions.Create();
+        globals[variable] = model;
+        var context = new TemplateContext
+        {
+            TemplateLoader = templates,
+            StrictVariables = true,
+            EnableRelaxedMemberAccess = false,
+            LoopLimit = 100_000,
+            RecursiveLimit = 50,
+            NewLine = "\n",
+            MemberRenamer = member => member.Name,
+        };
+        context.PushGlobal(globals);
+        try
+        {
+            return template.Render(context);
+        }
+        catch (ScriptRuntimeException ex)
+        {
+            var file = string.IsNullOrEmpty(ex.Span.FileName) ? path : ex.Span.FileName;
+            diagnostics.Add(TemplateSet.Error(file, ex.Span, ex.OriginalMessage));
+            return null;
+        }
+    }
+}

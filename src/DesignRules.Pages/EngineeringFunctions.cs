@@ -1,0 +1,78 @@
+using System.Globalization;
+using DesignRules.Quantities;
+using Scriban.Runtime;
+
+namespace DesignRules.Pages;
+
+/// <summary>Functions the templates call: engineering notation, percent, and Markdown table-cell escaping.</summary>
+internal static class EngineeringFunctions
+{
+    public static ScriptObject Create()
+    {
+        var functions = new ScriptObject();
+        functions.Import(typeof(TemplateFunctions), filter: null, renamer: member => member.Name.ToLowerInvariant());
+        return functions;
+    }
+
+    /// <summary>
+    /// Formats a value with its SI unit symbol in engineering notation, e.g. <c>eng 14.2e6 "V/s"</c> → "14.2 V/µs";
+    /// an optional third argument sets the significant digits (default 3).
+    /// </summary>
+    public static string Engineering(object? value, string? unit, int digits = 3)
+    {
+        digits = Math.Clamp(digits, 1, 15);
+        var number = ToDouble(value);
+        Dimension? dimension = unit switch
+        {
+            "V" => Dimension.Voltage,
+            "A" => Dimension.Current,
+            "Ω" or "ohm" => Dimension.Resistance,
+            "F" => Dimension.Capacitance,
+            "H" => Dimension.Inductance,
+            "Hz" => Dimension.Frequency,
+            "s" => Dimension.Time,
+            "W" => Dimension.Power,
+            "V/s" => Dimension.SlewRate,
+            "1" or "" or null => Dimension.Ratio,
+            "1/K" => Dimension.TemperatureCoefficient,
+            _ => null,
+        };
+        if (unit == "%")
+        {
+            return new Quantity(number, Dimension.Ratio).FormatPercent(digits);
+        }
+
+        return dimension is { } d
+            ? new Quantity(number, d).Format(digits)
+            : number.ToString("G" + digits.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture) + " " + unit;
+    }
+
+    /// <summary>Escapes text for a Markdown table cell: pipes and line breaks would end the cell or the row.</summary>
+    public static string Cell(object? value) =>
+        (Convert.ToString(value, CultureInfo.InvariantCulture) ?? string.Empty)
+            .Replace("|", "\\|", StringComparison.Ordinal).ReplaceLineEndings(" ");
+
+    private static double ToDouble(object? value) => value switch
+    {
+        null => double.NaN,
+        double d => d,
+        float f => f,
+        int i => i,
+        long l => l,
+        decimal m => (double)m,
+        _ => double.TryParse(Convert.ToString(value, CultureInfo.InvariantCulture), NumberStyles.Float, CultureInfo.InvariantCulture, out var x) ? x : double.NaN,
+    };
+}
+
+/// <summary>The functions as the templates call them: <c>eng</c>, <c>percent</c>, <c>cell</c>.</summary>
+internal static class TemplateFunctions
+{
+    /// <summary><c>eng value unit [digits]</c>: engineering notation.</summary>
+    public static string Eng(object? value, string? unit, int digits = 3) => EngineeringFunctions.Engineering(value, unit, digits);
+
+    /// <summary><c>percent ratio</c>: a fraction as a percentage.</summary>
+    public static string Percent(object? value) => EngineeringFunctions.Engineering(value, "%");
+
+    /// <summary><c>cell text</c>: text made safe for a Markdown table cell.</summary>
+    public static string Cell(object? value) => EngineeringFunctions.Cell(value);
+}

@@ -1,0 +1,304 @@
+using System.Globalization;
+using DesignRules.Diagnostics;
+using DesignRules.Model;
+using DesignRules.Quantities;
+using DesignRules.Rules;
+using Scriban.Runtime;
+
+namespace DesignRules.Pages;
+
+/// <summary>
+/// The data the templates see, built from a check report: plain script objects with snake_case names, so that a
+/// repository's own templates depend only on this documented shape (see the built-in templates for every name).
+/// </summary>
+internal static class PageModel
+{
+    // Extra-low voltage band limits (IEC 61140 / IEC 60449 voltage band I, from memory): 120 V ripple-free DC, 50 V AC rms.
+    private const double ExtraLowDc = 120;
+    private const double ExtraLowAcPeak = 50 * 1.4142135623730951;
+
+    /// <summary>Which rules judge each requirement, for the requirement verdicts of a design page.</summary>
+    private static readonly Dictionary<string, string[]> RequirementRules = new(StringComparer.Ordinal)
+    {
+        ["transfer"] = ["DR401", "DR404"],
+        ["gain"] = ["DR401", "DR402", "DR501"],
+        ["accuracy"] = ["DR302", "DR303", "DR304", "DR401", "DR402", "DR403", "DR404", "DR501", "DR502"],
+        ["glitch"] = ["DR102", "DR103"],
+        ["yield"] = ["DR402"],
+        ["bandwidth"] = ["DR501"],
+        ["output-offset"] = ["DR405"],
+        ["min-signal"] = ["DR502"],
+    };
+
+    public static ScriptObject Index(CheckReport report, IReadOnlyList<(DesignSummary Summary, string Page)> designs)
+    {
+        var items = new ScriptArray();
+        foreach (var (summary, page) in designs)
+        {
+            var findings = report.Findings.Where(f => f.DesignId == summary.Design.Id.Value).ToList();
+            items.Add(new ScriptObject
+            {
+                ["id"] = summary.Design.Id.Value,
+                ["title"] = Title(summary.Design),
+                ["summary"] = summary.Design.Summary,
+                ["page"] = page,
+                ["stages"] = summary.Design.Stages.Count,
+                ["errors"] = findings.Count(f => f.Severity == Severity.Error && !f.IsWaived),
+                ["warnings"] = findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived),
+                ["notes"] = findings.Count(f => f.Severity == Severity.Note && !f.IsWaived),
+                ["waived"] = findings.Count(f => f.IsWaived),
+                ["caution"] = NeedsCaution(summary.Design),
+            });
+        }
+
+        return new ScriptObject
+        {
+            ["designs"] = items,
+            ["errors"] = report.ErrorCount,
+            ["warnings"] = report.WarningCount,
+            ["design_count"] = report.DesignCount,
+        };
+    }
+
+    public static ScriptObject Design(CheckReport report, DesignSummary summary, string? repositoryRoot, Func<string, string, string?> plotPath)
+    {
+        var design = summary.Design;
+        var findings = report.Findings.Where(f => f.DesignId == design.Id.Value).ToList();
+        var stages = new ScriptArray();
+        foreach (var stage in design.Stages)
+        {
+            stages.Add(Stage(design, stage, summary, findings, plotPath));
+        }
+
+        var source = design.Source.Waveform;
+        return new ScriptObject
+        {
+            ["id"] = design.Id.Value,
+            ["title"] = Title(design),
+            ["summary"] = design.Summary,
+            ["file"] = repositoryRoot is null ? design.File.Replace('\\', '/') : Path.GetRelativePath(repositoryRoot, design.File).Replace('\\', '/'),
+            ["caution"] = NeedsCaution(design),
+            ["supplies"] = new ScriptObject
+            {
+                ["positive"] = design.Supplies.Positive.Value.Value,
+                ["negative"] = design.Supplies.Negative.Value.Value,
+                ["single"] = design.Supplies.Negative.Value.Value == 0,
+            },
+            ["source"] = new ScriptObject
+            {
+                ["waveform"] = source.Kind.ToString().ToLowerInvariant(),
+                ["amplitude"] = source.Amplitude?.Value.Value,
+                ["frequency"] = source.Frequency?.Value.Value,
+                ["band_low"] = source.Band?.Value.Low.Value,
+                ["band_high"] = source.Band?.Value.High.Value,
+                ["offset"] = source.Offset?.Value.Value ?? 0.0,
+                ["impedance"] = design.Source.Impedance.Value.Value,
+                ["common_mode"] = design.Source.CommonMode?.Value.Value,
+            },
+            ["load"] = new ScriptObject
+            {
+                ["resistance"] = design.Load.Resistance.Value.Value,
+                ["capacitance"] = design.Load.Capacitance?.Value.Value,
+                ["returns_to"] = design.Load.ReturnsTo.Value.Value,
+            },
+            ["mermaid"] = Mermaid(design),
+            ["requirements"] = Requirements(design, findings),
+            ["stages"] = stages,
+            ["findings"] = Findings(findings.Where(f => f.StageId is null)),
+            ["errors"] = findings.Count(f => f.Severity == Severity.Error && !f.IsWaived),
+            ["warnings"] = findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived),
+            ["waived"] = findings.Count(f => f.IsWaived),
+        };
+    }
+
+    private static ScriptObject Stage(Design design, Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath)
+    {
+        var parts = new ScriptArray();
+        var values = new ScriptArray();
+        string kind;
+        string description;
+        switch (stage)
+        {
+            case BlockStage block:
+                kind = block.Block.Name;
+                description = block.Block.Summary;
+                foreach (var (slot, part) in block.Amplifiers.OrderBy(p => p.Key, StringComparer.Ordinal))
+                {
+                    parts.Add(Part(slot, part.Id.Value, part.Description, "amplifier"));
+                }
+
+                foreach (var (slot, part) in block.Diodes.OrderBy(p => p.Key, StringComparer.Ordinal))
+                {
+                    parts.Add(Part(slot, part.Id.Value, part.Description, "diode"));
+                }
+
+                foreach (var name in block.Block.AllValues.Where(block.Values.ContainsKey))
+                {
+                    var v = block.Values[name];
+                    values.Add(Value(name, v.Value.Value, v.ResistorFamily?.Id.Value ?? v.CapacitorFamily?.Id.Value,
+                        v.ResistorFamily?.Tolerance.Value.Value ?? v.CapacitorFamily?.Tolerance.Value.Value));
+                }
+
+                foreach (var (name, flag) in block.Flags.OrderBy(f => f.Key, StringComparer.Ordinal))
+                {
+                    values.Add(new ScriptObject { ["name"] = name, ["value"] = flag.Value ? "yes" : "no", ["unit"] = string.Empty, ["family"] = null, ["tolerance"] = null });
+                }
+
+                break;
+            case NetlistStage netlist:
+                kind = "netlist";
+                description = $"Explicit circuit from {netlist.Input.Value} to {netlist.Output.Value}";
+                foreach (var element in netlist.Elements)
+                {
+                    if (element.Amplifier is not null)
+                    {
+                        parts.Add(Part(element.Id.Value, element.Amplifier.Id.Value, element.Amplifier.Description, "amplifier"));
+                    }
+                    else if (element.Diode is not null)
+                    {
+                        parts.Add(Part(element.Id.Value, element.Diode.Id.Value, element.Diode.Description, "diode"));
+                    }
+                    else if (element.Value is not null)
+                    {
+                        values.Add(Value(element.Id.Value, element.Value.Value, element.ResistorFamily?.Id.Value ?? element.CapacitorFamily?.Id.Value,
+                            element.ResistorFamily?.Tolerance.Value.Value ?? element.CapacitorFamily?.Tolerance.Value.Value));
+                    }
+                }
+
+                break;
+            default:
+                throw new InvalidOperationException("Unknown stage kind.");
+        }
+
+        var figures = new ScriptArray();
+        foreach (var figure in summary.StageFigures.FirstOrDefault(s => s.Key == stage.Id.Value).Value ?? [])
+        {
+            figures.Add(new ScriptObject { ["name"] = figure.Name, ["value"] = figure.Value, ["unit"] = figure.Unit });
+        }
+
+        var plots = summary.Plots.FirstOrDefault(p => p.StageId == stage.Id.Value);
+        return new ScriptObject
+        {
+            ["id"] = stage.Id.Value,
+            ["kind"] = kind,
+            ["description"] = description,
+            ["equation"] = Equations.Of(stage),
+            ["parts"] = parts,
+            ["values"] = values,
+            ["figures"] = figures,
+            ["findings"] = Findings(findings.Where(f => f.StageId == stage.Id.Value)),
+            ["transient_plot"] = plots?.Transient is null ? null : plotPath(stage.Id.Value, "transient"),
+            ["bode_plot"] = plots?.Bode is null ? null : plotPath(stage.Id.Value, "response"),
+            ["histogram_plot"] = plots?.Distribution is null ? null : plotPath(stage.Id.Value, "monte-carlo"),
+            ["amplifier_nodes"] = new ScriptArray(plots?.Transient?.Traces.Where(t => t.Role == TraceRole.AmplifierOutput).Select(t => t.Name) ?? []),
+        };
+    }
+
+    private static ScriptObject Part(string slot, string id, string description, string kind) => new()
+    {
+        ["slot"] = slot, ["id"] = id, ["description"] = description, ["kind"] = kind,
+    };
+
+    private static ScriptObject Value(string name, Quantity value, string? family, double? tolerance) => new()
+    {
+        ["name"] = name,
+        ["value"] = value.Format(),
+        ["unit"] = string.Empty,
+        ["family"] = family,
+        ["tolerance"] = tolerance,
+    };
+
+    private static ScriptArray Findings(IEnumerable<Finding> findings)
+    {
+        var list = new ScriptArray();
+        foreach (var f in findings)
+        {
+            list.Add(new ScriptObject
+            {
+                ["id"] = f.RuleId,
+                ["title"] = f.Title,
+                ["severity"] = f.Severity.ToString().ToLowerInvariant(),
+                ["message"] = f.Message,
+                ["line"] = f.Span.Line,
+                ["column"] = f.Span.Column,
+                ["waived"] = f.IsWaived,
+                ["reason"] = f.Waiver,
+                ["help"] = f.HelpPage,
+            });
+        }
+
+        return list;
+    }
+
+    private static ScriptArray Requirements(Design design, List<Finding> findings)
+    {
+        var list = new ScriptArray();
+        foreach (var stage in design.Stages)
+        {
+            var r = stage.Requirements;
+            foreach (var (name, text) in new (string, string?)[]
+                     {
+                         ("transfer", r.Transfer is null || r.Gain is not null ? null : Words(r.Transfer.Value.ToString())),
+                         ("gain", r.Gain?.Value.Format()),
+                         ("accuracy", r.Accuracy is null ? null : "±" + r.Accuracy.Value.FormatPercent()),
+                         ("glitch", r.Glitch?.Value.Format()),
+                         ("yield", r.Yield?.Value.FormatPercent()),
+                         ("bandwidth", r.Bandwidth?.Value.Format()),
+                         ("output-offset", r.OutputOffset?.Value.Format()),
+                         ("min-signal", r.MinSignal?.Value.Format()),
+                     })
+            {
+                if (text is null)
+                {
+                    continue;
+                }
+
+                var judged = findings.Where(f => f.StageId == stage.Id.Value && RequirementRules[name].Contains(f.RuleId)).ToList();
+                var open = judged.Where(f => !f.IsWaived && f.Severity != Severity.Note).Select(f => f.RuleId).Distinct().ToList();
+                var verdict = open.Count > 0 ? "not met (" + string.Join(", ", open) + ")"
+                    : judged.Any(f => f.IsWaived) ? "waived"
+                    : findings.Any(f => f.StageId == stage.Id.Value && f.RuleId == "DR702" && f.Message.Contains($"`{name}`", StringComparison.Ordinal)) ? "not checked"
+                    : "met";
+                list.Add(new ScriptObject { ["stage"] = stage.Id.Value, ["name"] = name, ["value"] = text, ["verdict"] = verdict });
+            }
+        }
+
+        return list;
+    }
+
+    private static string Mermaid(Design design)
+    {
+        var lines = new List<string> { "flowchart LR" };
+        var source = design.Source.Waveform;
+        var freq = source.Frequency is not null ? source.Frequency.Value.Format() : source.Band?.Value.Format() ?? "DC";
+        lines.Add($"  source[\"Source: {source.Kind.ToString().ToLowerInvariant()} {source.Amplitude?.Value.Format() ?? source.Offset?.Value.Format()}, {freq}, {design.Source.Impedance.Value.Format()}\"]");
+        var previous = "source";
+        var i = 0;
+        foreach (var stage in design.Stages)
+        {
+            var node = $"s{i++}";
+            var kind = stage is BlockStage b ? b.Block.Name : "netlist";
+            lines.Add($"  {node}[\"{stage.Id.Value}: {kind}\"]");
+            lines.Add($"  {previous} --> {node}");
+            previous = node;
+        }
+
+        lines.Add($"  load[\"Load: {design.Load.Resistance.Value.Format()}{(design.Load.Capacitance is null ? string.Empty : " ∥ " + design.Load.Capacitance.Value.Format())}\"]");
+        lines.Add($"  {previous} --> load");
+        return string.Join('\n', lines);
+    }
+
+    private static bool NeedsCaution(Design design)
+    {
+        var rails = Math.Max(Math.Abs(design.Supplies.Positive.Value.Value), Math.Abs(design.Supplies.Negative.Value.Value));
+        var span = design.Supplies.Positive.Value.Value - design.Supplies.Negative.Value.Value;
+        var w = design.Source.Waveform;
+        var peak = Math.Abs(w.Offset?.Value.Value ?? 0) + (w.Amplitude?.Value.Value ?? 0) + w.Components.Sum(c => c.Amplitude?.Value.Value ?? 0);
+        return rails > ExtraLowDc || span > ExtraLowDc || peak > ExtraLowAcPeak;
+    }
+
+    private static string Title(Design design) => design.Title.Length > 0 ? design.Title : design.Id.Value;
+
+    private static string Words(string pascal) =>
+        string.Concat(pascal.Select((c, i) => i > 0 && char.IsUpper(c) ? "-" + char.ToLower(c, CultureInfo.InvariantCulture) : char.ToLower(c, CultureInfo.InvariantCulture).ToString()));
+}

@@ -1,0 +1,13 @@
+namespace DesignRules.Pages;
+
+/// <summary>Where pages go and where a repository's own templates are.</summary>
+/// <param name="OutputFolder">The one folder pages and plots are written to (created when missing).</param>
+/// <param name="TemplateFolder">A folder of the repository's own templates; each replaces the built-in of the same name. Null for none.</param>
+/// <param name="RepositoryRoot">The repository root, to show design files by their path relative to it. Null to show them as given.</param>
+public sealed record PageOptions(string OutputFolder, string? TemplateFolder = null, string? RepositoryRoot = null);
+
+/// <summary>What a page run did.</summary>
+/// <param name="Written">Files written, relative to the output folder, sorted.</param>
+/// <param name="Removed">Stale files of an earlier run removed, relative to the output folder.</param>
+/// <param name="Diagnostics">Template and output problems, located.</param>
+public sealed record PageResult(IReadOnlyList<string> Written, IReadOnlyList<string> Removed, IReadOnlyList<DesignRules.Diagnostics.Diagnostic> Diagnostics);

@@ -1,0 +1,149 @@
+using DesignRules.Rules;
+using OxyPlot;
+using OxyPlot.Annotations;
+using OxyPlot.Axes;
+using OxyPlot.Legends;
+using OxyPlot.Series;
+
+namespace DesignRules.Pages;
+
+/// <summary>Draws the stage plots with OxyPlot and exports them as SVG, readable on a light wiki page.</summary>
+internal static class PlotRenderer
+{
+    private const double Width = 800;
+    private const double Height = 420;
+
+    public static string Transient(string stageId, TransientPlot plot)
+    {
+        var (scale, unit) = plot.Time.Count > 0 && plot.Time[^1] < 2e-3 ? (1e6, "µs") : (1e3, "ms");
+        var model = Model($"{stageId}: transient at {EngineeringFunctions.Engineering(plot.Frequency, "Hz")}");
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Bottom, Title = $"Time ({unit})", MajorGridlineStyle = LineStyle.Dot });
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Voltage (V)", MajorGridlineStyle = LineStyle.Dot });
+        foreach (var trace in plot.Traces)
+        {
+            var series = new LineSeries
+            {
+                Title = trace.Role switch
+                {
+                    TraceRole.Input => $"{trace.Name} (input)",
+                    TraceRole.StageOutput => $"{trace.Name} (stage output)",
+                    _ => $"{trace.Name} (amplifier output)",
+                },
+                StrokeThickness = trace.Role == TraceRole.AmplifierOutput ? 1.5 : 2,
+                LineStyle = trace.Role == TraceRole.Input ? LineStyle.Dash : LineStyle.Solid,
+            };
+            for (var i = 0; i < plot.Time.Count; i++)
+            {
+                series.Points.Add(new DataPoint(plot.Time[i] * scale, trace.Values[i]));
+            }
+
+            model.Series.Add(series);
+        }
+
+        foreach (var swing in plot.SwingLimits)
+        {
+            model.Annotations.Add(Limit(swing.High, $"{swing.Amplifier} swing limit", horizontal: true));
+            model.Annotations.Add(Limit(swing.Low, $"{swing.Amplifier} swing limit", horizontal: true));
+        }
+
+        return Export(model);
+    }
+
+    public static string Response(string stageId, BodePlot plot)
+    {
+        var model = Model($"{stageId}: closed-loop response");
+        model.Axes.Add(new LogarithmicAxis { Position = AxisPosition.Bottom, Title = "Frequency (Hz)", MajorGridlineStyle = LineStyle.Dot });
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Magnitude (dB)", Key = "magnitude", MajorGridlineStyle = LineStyle.Dot });
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Right, Title = "Phase (°)", Key = "phase" });
+        var magnitude = new LineSeries { Title = "magnitude", YAxisKey = "magnitude", StrokeThickness = 2 };
+        var phase = new LineSeries { Title = "phase", YAxisKey = "phase", StrokeThickness = 1.5, LineStyle = LineStyle.Dash };
+        for (var i = 0; i < plot.Frequency.Count; i++)
+        {
+            magnitude.Points.Add(new DataPoint(plot.Frequency[i], plot.MagnitudeDb[i]));
+            phase.Points.Add(new DataPoint(plot.Frequency[i], plot.PhaseDegrees[i]));
+        }
+
+        model.Series.Add(magnitude);
+        model.Series.Add(phase);
+        return Export(model);
+    }
+
+    public static string Histogram(string stageId, SampleDistribution distribution)
+    {
+        var unitText = distribution.Unit is "1" or "" || distribution.Figure.Contains('(', StringComparison.Ordinal) ? string.Empty : $" ({distribution.Unit})";
+        var model = Model($"{stageId}: Monte Carlo, {distribution.Samples.Count} samples");
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Bottom, Title = distribution.Figure + unitText, MajorGridlineStyle = LineStyle.Dot });
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Samples", Minimum = 0, MajorGridlineStyle = LineStyle.Dot });
+        var low = distribution.Samples.Min();
+        var high = distribution.Samples.Max();
+        if (distribution.Low is { } l)
+        {
+            low = Math.Min(low, l);
+        }
+
+        if (distribution.High is { } h)
+        {
+            high = Math.Max(high, h);
+        }
+
+        const int bins = 30;
+        var width = high > low ? (high - low) / bins : 1e-12;
+        var counts = new int[bins];
+        foreach (var sample in distribution.Samples)
+        {
+            counts[Math.Clamp((int)((sample - low) / width), 0, bins - 1)]++;
+        }
+
+        var series = new RectangleBarSeries { Title = distribution.Figure, StrokeThickness = 0.5 };
+        for (var i = 0; i < bins; i++)
+        {
+            series.Items.Add(new RectangleBarItem(low + (i * width), 0, low + ((i + 1) * width), counts[i]));
+        }
+
+        model.Series.Add(series);
+        if (distribution.Low is { } lower)
+        {
+            model.Annotations.Add(Limit(lower, "lower limit", horizontal: false));
+        }
+
+        if (distribution.High is { } upper)
+        {
+            model.Annotations.Add(Limit(upper, "upper limit", horizontal: false));
+        }
+
+        return Export(model);
+    }
+
+    private static PlotModel Model(string title)
+    {
+        var model = new PlotModel
+        {
+            Title = title,
+            DefaultFont = "sans-serif",
+            TitleFontSize = 14,
+            Background = OxyColors.White,
+            PlotAreaBorderColor = OxyColors.Gray,
+        };
+        model.Legends.Add(new Legend
+        {
+            LegendPlacement = LegendPlacement.Outside,
+            LegendPosition = LegendPosition.BottomCenter,
+            LegendOrientation = LegendOrientation.Horizontal,
+            LegendBorder = OxyColors.Undefined,
+        });
+        return model;
+    }
+
+    private static LineAnnotation Limit(double value, string text, bool horizontal) => new()
+    {
+        Type = horizontal ? LineAnnotationType.Horizontal : LineAnnotationType.Vertical,
+        Y = horizontal ? value : 0,
+        X = horizontal ? 0 : value,
+        Text = text,
+        LineStyle = LineStyle.Dash,
+        Color = OxyColors.DimGray,
+        TextColor = OxyColors.DimGray,
+    };
+
+    private static string Export(PlotModel model) => SvgExporter.ExportToString(model, Width, Height, isDocument: true, textMeasurer: null, useVerticalTextAlignmentWorkaround: true);
+}
