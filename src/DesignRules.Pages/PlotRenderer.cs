@@ -10,15 +10,23 @@ namespace DesignRules.Pages;
 /// <summary>Draws the stage plots with OxyPlot and exports them as SVG, readable on a light wiki page.</summary>
 internal static class PlotRenderer
 {
-    private const double Width = 800;
-    private const double Height = 420;
+    private const double Width = 960;
+    private const double Height = 500;
 
     public static string Transient(string stageId, TransientPlot plot)
     {
         var (scale, unit) = plot.Time.Count > 0 && plot.Time[^1] < 2e-3 ? (1e6, "µs") : (1e3, "ms");
         var model = Model($"{stageId}: transient at {EngineeringFunctions.Engineering(plot.Frequency, "Hz")}");
         model.Axes.Add(new LinearAxis { Position = AxisPosition.Bottom, Title = $"Time ({unit})", MajorGridlineStyle = LineStyle.Dot });
-        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Voltage (V)", MajorGridlineStyle = LineStyle.Dot });
+        // The swing limits are part of the picture: the axis spans them as well as the waveforms.
+        var values = plot.Traces.SelectMany(t => t.Values).Concat(plot.SwingLimits.SelectMany(l => new[] { l.Low, l.High })).ToList();
+        var (low, high) = values.Count == 0 ? (-1.0, 1.0) : (values.Min(), values.Max());
+        var pad = Math.Max((high - low) * 0.05, 1e-3);
+        model.Axes.Add(new LinearAxis
+        {
+            Position = AxisPosition.Left, Title = "Voltage (V)", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12,
+            Minimum = low - pad, Maximum = high + pad,
+        });
         foreach (var trace in plot.Traces)
         {
             var series = new LineSeries
@@ -40,10 +48,11 @@ internal static class PlotRenderer
             model.Series.Add(series);
         }
 
-        foreach (var swing in plot.SwingLimits)
+        // One line per distinct limit, naming every amplifier that shares it.
+        foreach (var limit in plot.SwingLimits.SelectMany(l => new[] { (l.Amplifier, Value: l.High), (l.Amplifier, Value: l.Low) })
+                     .GroupBy(l => Math.Round(l.Value, 6)).OrderBy(g => g.Key))
         {
-            model.Annotations.Add(Limit(swing.High, $"{swing.Amplifier} swing limit", horizontal: true));
-            model.Annotations.Add(Limit(swing.Low, $"{swing.Amplifier} swing limit", horizontal: true));
+            model.Annotations.Add(Limit(limit.Key, string.Join(", ", limit.Select(l => l.Amplifier).Distinct()) + " swing limit", horizontal: true));
         }
 
         return Export(model);
@@ -52,9 +61,13 @@ internal static class PlotRenderer
     public static string Response(string stageId, BodePlot plot)
     {
         var model = Model($"{stageId}: closed-loop response");
-        model.Axes.Add(new LogarithmicAxis { Position = AxisPosition.Bottom, Title = "Frequency (Hz)", MajorGridlineStyle = LineStyle.Dot });
-        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Magnitude (dB)", Key = "magnitude", MajorGridlineStyle = LineStyle.Dot });
-        model.Axes.Add(new LinearAxis { Position = AxisPosition.Right, Title = "Phase (°)", Key = "phase" });
+        model.Axes.Add(new LogarithmicAxis
+        {
+            Position = AxisPosition.Bottom, Title = "Frequency (Hz)", MajorGridlineStyle = LineStyle.Dot,
+            LabelFormatter = f => new DesignRules.Quantities.Quantity(f, DesignRules.Quantities.Dimension.Frequency).Format(),
+        });
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Magnitude (dB)", Key = "magnitude", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12 });
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Right, Title = "Phase (°)", Key = "phase", AxisTitleDistance = 12 });
         var magnitude = new LineSeries { Title = "magnitude", YAxisKey = "magnitude", StrokeThickness = 2 };
         var phase = new LineSeries { Title = "phase", YAxisKey = "phase", StrokeThickness = 1.5, LineStyle = LineStyle.Dash };
         for (var i = 0; i < plot.Frequency.Count; i++)
@@ -72,8 +85,9 @@ internal static class PlotRenderer
     {
         var unitText = distribution.Unit is "1" or "" || distribution.Figure.Contains('(', StringComparison.Ordinal) ? string.Empty : $" ({distribution.Unit})";
         var model = Model($"{stageId}: Monte Carlo, {distribution.Samples.Count} samples");
-        model.Axes.Add(new LinearAxis { Position = AxisPosition.Bottom, Title = distribution.Figure + unitText, MajorGridlineStyle = LineStyle.Dot });
-        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Samples", Minimum = 0, MajorGridlineStyle = LineStyle.Dot });
+        var axis = new LinearAxis { Position = AxisPosition.Bottom, Title = distribution.Figure + unitText, MajorGridlineStyle = LineStyle.Dot };
+        model.Axes.Add(axis);
+        model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Samples", Minimum = 0, MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12 });
         var low = distribution.Samples.Min();
         var high = distribution.Samples.Max();
         if (distribution.Low is { } l)
@@ -86,6 +100,9 @@ internal static class PlotRenderer
             high = Math.Max(high, h);
         }
 
+        // Leave room beyond the limits so that their lines and labels are inside the plot.
+        axis.Minimum = low - ((high - low) * 0.06) - 1e-12;
+        axis.Maximum = high + ((high - low) * 0.12) + 1e-12;
         const int bins = 30;
         var width = high > low ? (high - low) / bins : 1e-12;
         var counts = new int[bins];
@@ -127,8 +144,8 @@ internal static class PlotRenderer
         model.Legends.Add(new Legend
         {
             LegendPlacement = LegendPlacement.Outside,
-            LegendPosition = LegendPosition.BottomCenter,
-            LegendOrientation = LegendOrientation.Horizontal,
+            LegendPosition = LegendPosition.BottomLeft,
+            LegendOrientation = LegendOrientation.Vertical,
             LegendBorder = OxyColors.Undefined,
         });
         return model;
@@ -145,5 +162,6 @@ internal static class PlotRenderer
         TextColor = OxyColors.DimGray,
     };
 
-    private static string Export(PlotModel model) => SvgExporter.ExportToString(model, Width, Height, isDocument: true, textMeasurer: null, useVerticalTextAlignmentWorkaround: true);
+    private static string Export(PlotModel model) =>
+        SvgExporter.ExportToString(model, Width, Height, isDocument: true, textMeasurer: new TextWidthEstimate(), useVerticalTextAlignmentWorkaround: true);
 }

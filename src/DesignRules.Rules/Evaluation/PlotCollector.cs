@@ -48,8 +48,10 @@ internal static class PlotCollector
                 t = new TransientPlot(chain.TestFrequency ?? 0, grid.Select(x => x - start).ToArray(), traces, swing);
             }
 
+            // A small-signal response means something only for a linear stage: a rectifier or peak detector has no
+            // single operating point to linearise at.
             BodePlot? bode = null;
-            if (ac.Succeeded)
+            if (ac.Succeeded && stage.Transfer.Kind is Model.TransferKind.Gain or Model.TransferKind.Average)
             {
                 var vin = ac.Voltage(stage.InputNode);
                 var vout = ac.Voltage(stage.OutputNode);
