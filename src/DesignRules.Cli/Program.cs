@@ -1,39 +1,30 @@
 using System.CommandLine;
-using DesignRules.Diagnostics;
-using DesignRules.Loading;
+using DesignRules.Cli;
 
-// The command line is a thin shell over the library: it finds the files, calls the loader and prints diagnostics.
-var paths = new Argument<string[]>("paths")
+// The command line is a thin shell over the library: parse, call DesignCheck.Run, print and write reports.
+var root = new RootCommand("DesignRules: design-rule checks for op-amp signal chains kept as YAML.")
 {
-    Description = "Design or parts files, or folders holding designs/ and parts/ (default: the current folder).",
-    Arity = ArgumentArity.ZeroOrMore,
+    CheckCommand.Create(), ExplainCommand.Create(), SchemaCommand.Create(),
 };
-var check = new Command("check", "Load every design and report problems as file(line,col): severity DRnnn: message.") { paths };
-check.SetAction(result =>
+
+var parsed = root.Parse(args);
+if (parsed.Errors.Count > 0)
 {
-    var files = RepositoryFiles.Find(result.GetValue(paths) is { Length: > 0 } given ? given : ["."], out var missing);
-    foreach (var path in missing)
+    foreach (var error in parsed.Errors)
     {
-        Console.Error.WriteLine($"{path}: error: no such file or folder");
+        Console.Error.WriteLine($"error: {error.Message}");
     }
 
-    if (missing.Count > 0)
-    {
-        return 2;
-    }
+    Console.Error.WriteLine("Run 'designrules --help' for the commands and options.");
+    return ExitCodes.Unusable;
+}
 
-    var loaded = DesignLoader.LoadFiles(files);
-    foreach (var diagnostic in loaded.Diagnostics)
-    {
-        (diagnostic.Severity == Severity.Error ? Console.Error : Console.Out).WriteLine(diagnostic.ToString());
-    }
-
-    var errors = loaded.Diagnostics.Count(d => d.Severity == Severity.Error);
-    var warnings = loaded.Diagnostics.Count(d => d.Severity == Severity.Warning);
-    Console.Out.WriteLine(FormattableString.Invariant(
-        $"{loaded.Designs.Count} design(s) loaded from {files.Count} file(s): {errors} error(s), {warnings} warning(s)."));
-    return errors > 0 ? 1 : 0;
-});
-
-var root = new RootCommand("DesignRules: design-rule checks for op-amp signal chains kept as YAML.") { check };
-return root.Parse(args).Invoke();
+try
+{
+    return parsed.Invoke(new InvocationConfiguration { EnableDefaultExceptionHandler = false });
+}
+catch (Exception ex) when (ex is not OutOfMemoryException)
+{
+    Console.Error.WriteLine($"error DR990: DesignRules could not finish ({ex.GetType().Name}: {ex.Message}). This is a fault of the tool, not of the designs; please report it.");
+    return ExitCodes.Unusable;
+}

@@ -1,0 +1,216 @@
+using System.Globalization;
+using System.Reflection;
+using DesignRules.Diagnostics;
+using DesignRules.Reports;
+using DesignRules.Rules;
+using Microsoft.Build.Framework;
+using Microsoft.Build.Utilities;
+
+namespace DesignRules.Build;
+
+/// <summary>
+/// The MSBuild task: checks the design and parts files of a hardware repository through <see cref="DesignCheck.Run"/>
+/// and logs every finding as an error, warning or message with its code, file, line, column, end position and help link.
+/// MSBuild applies <c>-warnaserror</c>, <c>WarningsAsErrors</c> and <c>NoWarn</c> to the DR codes itself; this task
+/// applies <c>TreatWarningsAsErrors</c> (which MSBuild leaves to compilers), honouring <c>WarningsNotAsErrors</c> and
+/// <c>NoWarn</c>. Any internal failure becomes one <c>DR990</c> error, never an unhandled exception.
+/// </summary>
+public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
+{
+    /// <summary>The code of the one error an internal failure of the tool becomes.</summary>
+    public const string InternalErrorCode = "DR990";
+
+    /// <summary>Design and parts files (any order; duplicates are dropped).</summary>
+    public ITaskItem[] Files { get; set; } = [];
+
+    /// <summary>The repository root: report paths are relative to it. Defaults to the project folder.</summary>
+    public string? RepositoryRoot { get; set; }
+
+    /// <summary>The rule-set file, or empty for none.</summary>
+    public string? RuleSetFile { get; set; }
+
+    /// <summary>Where to write the SARIF 2.1.0 report, or empty for none.</summary>
+    public string? SarifFile { get; set; }
+
+    /// <summary>Where to write the JSON report, or empty for none.</summary>
+    public string? JsonFile { get; set; }
+
+    /// <summary>The address that <c>DRnnn.md</c> is appended to for help links; wins over <see cref="HelpFolder"/>.</summary>
+    public string? HelpUriBase { get; set; }
+
+    /// <summary>A local folder of help pages, linked as <c>file://</c> addresses when <see cref="HelpUriBase"/> is empty.</summary>
+    public string? HelpFolder { get; set; }
+
+    /// <summary>
+    /// The file written only after a check with no error and no warning, for incremental builds; deleted at the start of
+    /// every check, so a failed check (or one with warnings) is never skipped next time.
+    /// </summary>
+    public string? StampFile { get; set; }
+
+    /// <summary>The date waiver expiry is judged against (yyyy-MM-dd); today when empty.</summary>
+    public string? Today { get; set; }
+
+    /// <summary>Build-level level changes, <c>DR906=warning;DR702=off</c>, applied after the rule-set file.</summary>
+    public string? Levels { get; set; }
+
+    /// <summary>The project's <c>TreatWarningsAsErrors</c>: DR warnings become errors unless listed in <see cref="WarningsNotAsErrors"/>.</summary>
+    public bool TreatWarningsAsErrors { get; set; }
+
+    /// <summary>The project's <c>WarningsNotAsErrors</c>.</summary>
+    public string? WarningsNotAsErrors { get; set; }
+
+    /// <summary>The project's <c>NoWarn</c>: listed DR warnings are logged as low-importance messages.</summary>
+    public string? NoWarn { get; set; }
+
+    /// <summary>Findings logged as errors (after warnings treated as errors).</summary>
+    [Output]
+    public int ErrorCount { get; private set; }
+
+    /// <summary>Findings logged as warnings.</summary>
+    [Output]
+    public int WarningCount { get; private set; }
+
+    /// <summary>The tool's version as reports and the stamp file state it.</summary>
+    internal static string ToolVersion { get; } =
+        typeof(CheckDesigns).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion ?? "0.0.0";
+
+    /// <inheritdoc />
+    public override bool Execute()
+    {
+        try
+        {
+            DeleteStamp();
+            return Check();
+        }
+        catch (Exception ex) when (ex is not (OutOfMemoryException or StackOverflowException or AccessViolationException))
+        {
+            LogInternalError(ex);
+            DeleteStamp();
+            return false;
+        }
+    }
+
+    private bool Check()
+    {
+        var root = Path.GetFullPath(string.IsNullOrWhiteSpace(RepositoryRoot) ? Directory.GetCurrentDirectory() : RepositoryRoot);
+        var levels = LevelOverrides.Parse(Levels, out var problem);
+        if (levels is null)
+        {
+            Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0,
+                $"DesignRulesLevels: {problem}.");
+            return false;
+        }
+
+        var files = Files.Select(f => f.GetMetadata("FullPath")).Where(f => f.Length > 0).Distinct(StringComparer.Ordinal).ToList();
+        var ruleSet = string.IsNullOrWhiteSpace(RuleSetFile) ? null : Path.GetFullPath(RuleSetFile);
+        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, ParseToday())));
+        var settings = new ReportSettings(root, EffectiveHelpBase(), ToolVersion);
+        if (!string.IsNullOrWhiteSpace(SarifFile))
+        {
+            SarifReport.WriteFile(report, settings, SarifFile);
+        }
+
+        if (!string.IsNullOrWhiteSpace(JsonFile))
+        {
+            JsonReport.WriteFile(report, settings, JsonFile);
+        }
+
+        var noWarn = new CodeList(NoWarn);
+        var notAsErrors = new CodeList(WarningsNotAsErrors);
+        foreach (var finding in report.Findings)
+        {
+            LogFinding(finding, noWarn, notAsErrors);
+        }
+
+        var summary = string.Create(CultureInfo.InvariantCulture,
+            $"{report.DesignCount} design(s) in {report.FileCount} file(s) checked: {ErrorCount} error(s), {WarningCount} warning(s), {report.Findings.Count(f => f.IsWaived)} waived.");
+        Log.LogMessage(MessageImportance.High, "DesignRules: " + summary);
+        if (Log.HasLoggedErrors)
+        {
+            return false;
+        }
+
+        // Only a check with nothing to show is stamped: warnings then appear on every build (and -warnaserror always
+        // sees them) instead of vanishing behind an up-to-date skip.
+        if (WarningCount == 0)
+        {
+            WriteStamp(summary);
+        }
+
+        return true;
+    }
+
+    private void LogFinding(Finding f, CodeList noWarn, CodeList notAsErrors)
+    {
+        var s = f.Span;
+        var help = HelpFor(f.RuleId);
+        if (f.IsWaived)
+        {
+            Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, MessageImportance.Low,
+                $"{f.Message} (waived: {f.Waiver})");
+            return;
+        }
+
+        switch (f.Severity)
+        {
+            case Severity.Error:
+                ErrorCount++;
+                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, f.Message);
+                break;
+            case Severity.Warning when noWarn.Contains(f.RuleId):
+                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, MessageImportance.Low, f.Message);
+                break;
+            case Severity.Warning when TreatWarningsAsErrors && !notAsErrors.Contains(f.RuleId):
+                ErrorCount++;
+                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, f.Message);
+                break;
+            case Severity.Warning:
+                // MSBuild turns this into an error itself under -warnaserror or WarningsAsErrors, and into a message under NoWarn.
+                WarningCount++;
+                Log.LogWarning(null, f.RuleId, null, help, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, f.Message);
+                break;
+            default:
+                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, MessageImportance.Normal, f.Message);
+                break;
+        }
+    }
+
+    private void LogInternalError(Exception ex)
+    {
+        var detail = ex is AggregateException { InnerExceptions.Count: 1 } single ? single.InnerExceptions[0] : ex;
+        Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0,
+            $"DesignRules could not finish the check ({detail.GetType().Name}: {detail.Message}). This is a fault of the tool, not of the designs; please report it with the files that cause it.");
+        Log.LogMessage(MessageImportance.Low, detail.ToString());
+    }
+
+    private string? EffectiveHelpBase() =>
+        !string.IsNullOrWhiteSpace(HelpUriBase) ? HelpUriBase
+        : !string.IsNullOrWhiteSpace(HelpFolder) ? HelpLinks.FolderUri(HelpFolder)
+        : null;
+
+    private string? HelpFor(string ruleId) => HelpLinks.For(ruleId, EffectiveHelpBase());
+
+    private DateOnly ParseToday() =>
+        string.IsNullOrWhiteSpace(Today) ? DateOnly.FromDateTime(DateTime.Today)
+        : DateOnly.ParseExact(Today.Trim(), "yyyy-MM-dd", CultureInfo.InvariantCulture);
+
+    private void DeleteStamp()
+    {
+        if (!string.IsNullOrWhiteSpace(StampFile) && File.Exists(StampFile))
+        {
+            File.Delete(StampFile);
+        }
+    }
+
+    private void WriteStamp(string summary)
+    {
+        if (string.IsNullOrWhiteSpace(StampFile))
+        {
+            return;
+        }
+
+        var full = Path.GetFullPath(StampFile);
+        Directory.CreateDirectory(Path.GetDirectoryName(full)!);
+        File.WriteAllText(full, summary + Environment.NewLine);
+    }
+}

@@ -1,0 +1,29 @@
+using System.Globalization;
+using DesignRules.Diagnostics;
+using DesignRules.Rules;
+
+namespace DesignRules.Cli;
+
+/// <summary>Findings for people: one compiler-style line each, then a summary.</summary>
+internal static class HumanReport
+{
+    public static void Write(CheckReport report, Terminal terminal)
+    {
+        foreach (var f in report.Findings)
+        {
+            var level = f.Severity.ToString().ToLowerInvariant();
+            var painted = f.IsWaived ? terminal.Dim(level) : f.Severity switch
+            {
+                Severity.Error => terminal.Red(level),
+                Severity.Warning => terminal.Yellow(level),
+                _ => terminal.Cyan(level),
+            };
+            var line = $"{f.Span}: {painted} {terminal.Bold(f.RuleId)}: {f.Message}";
+            terminal.Output.WriteLine(f.IsWaived ? $"{line} {terminal.Dim($"(waived: {f.Waiver})")}" : line);
+        }
+
+        var waived = report.Findings.Count(f => f.IsWaived);
+        terminal.Output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+            $"{report.DesignCount} design(s) checked in {report.FileCount} file(s): {report.ErrorCount} error(s), {report.WarningCount} warning(s), {waived} waived."));
+    }
+}

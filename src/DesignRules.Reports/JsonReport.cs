@@ -1,0 +1,110 @@
+using System.Text.Json;
+using DesignRules.Rules;
+
+namespace DesignRules.Reports;
+
+/// <summary>
+/// Writes a check report as a JSON document of our own (<c>designrules-findings</c>, format 1): a summary and every
+/// finding with its location, help page, waiver and figures in SI units. Deterministic bytes, like the SARIF report.
+/// </summary>
+public static class JsonReport
+{
+    /// <summary>The format name stated in the document.</summary>
+    public const string FormatName = "designrules-findings";
+
+    /// <summary>The format version; raised only when a field changes meaning or disappears.</summary>
+    public const int FormatVersion = 1;
+
+    /// <summary>The JSON document as UTF-8 bytes.</summary>
+    public static byte[] ToBytes(CheckReport report, ReportSettings settings)
+    {
+        ArgumentNullException.ThrowIfNull(report);
+        ArgumentNullException.ThrowIfNull(settings);
+        return ReportJson.ToBytes(w => Write(w, report, settings));
+    }
+
+    /// <summary>Writes the JSON document to <paramref name="path"/>, creating its folder.</summary>
+    public static void WriteFile(CheckReport report, ReportSettings settings, string path) =>
+        ReportFiles.Write(path, ToBytes(report, settings));
+
+    private static void Write(Utf8JsonWriter w, CheckReport report, ReportSettings settings)
+    {
+        w.WriteStartObject();
+        w.WriteString("format", FormatName);
+        w.WriteNumber("formatVersion", FormatVersion);
+        w.WriteStartObject("tool");
+        w.WriteString("name", ReportSettings.ToolName);
+        w.WriteString("version", settings.ToolVersion);
+        w.WriteEndObject();
+        w.WriteStartObject("summary");
+        w.WriteNumber("designs", report.DesignCount);
+        w.WriteNumber("files", report.FileCount);
+        w.WriteNumber("errors", report.ErrorCount);
+        w.WriteNumber("warnings", report.WarningCount);
+        w.WriteNumber("notes", report.Findings.Count(f => f.Severity == Diagnostics.Severity.Note && !f.IsWaived));
+        w.WriteNumber("waived", report.Findings.Count(f => f.IsWaived));
+        w.WriteEndObject();
+        w.WriteStartArray("findings");
+        foreach (var f in report.Findings)
+        {
+            WriteFinding(w, f, settings);
+        }
+
+        w.WriteEndArray();
+        w.WriteEndObject();
+    }
+
+    private static void WriteFinding(Utf8JsonWriter w, Finding f, ReportSettings settings)
+    {
+        w.WriteStartObject();
+        w.WriteString("ruleId", f.RuleId);
+        w.WriteString("title", f.Title);
+        w.WriteString("severity", ReportJson.Level(f.Severity));
+        w.WriteString("message", f.Message);
+        w.WriteString("file", RepositoryPaths.Display(settings.RepositoryRoot, f.Span.File));
+        w.WriteNumber("line", f.Span.Line);
+        w.WriteNumber("column", f.Span.Column);
+        w.WriteNumber("endLine", f.Span.EndLine);
+        w.WriteNumber("endColumn", f.Span.EndColumn);
+        w.WriteString("helpPage", f.HelpPage);
+        if (HelpLinks.For(f.RuleId, settings.HelpUriBase) is { } help)
+        {
+            w.WriteString("helpUri", help);
+        }
+
+        WriteOptional(w, "design", f.DesignId);
+        WriteOptional(w, "stage", f.StageId);
+        w.WriteBoolean("waived", f.IsWaived);
+        WriteOptional(w, "waiver", f.Waiver);
+        WriteFigures(w, f.Figures);
+        w.WriteEndObject();
+    }
+
+    /// <summary>Writes <c>"figures": [{ "name", "value", "unit" }]</c> in the finding's order.</summary>
+    internal static void WriteFigures(Utf8JsonWriter w, IReadOnlyList<Figure> figures)
+    {
+        w.WriteStartArray("figures");
+        foreach (var figure in figures)
+        {
+            w.WriteStartObject();
+            w.WriteString("name", figure.Name);
+            ReportJson.Number(w, "value", figure.Value);
+            w.WriteString("unit", figure.Unit);
+            w.WriteEndObject();
+        }
+
+        w.WriteEndArray();
+    }
+
+    private static void WriteOptional(Utf8JsonWriter w, string name, string? value)
+    {
+        if (value is null)
+        {
+            w.WriteNull(name);
+        }
+        else
+        {
+            w.WriteString(name, value);
+        }
+    }
+}

@@ -1,0 +1,14 @@
+namespace DesignRules.Reports;
+
+/// <summary>What a report needs besides the findings: where the repository is, where help pages live, and who wrote it.</summary>
+/// <param name="RepositoryRoot">The folder that file paths in the report are made relative to.</param>
+/// <param name="HelpUriBase">The address that <c>DRnnn.md</c> is appended to for a rule's help page; null for none.</param>
+/// <param name="ToolVersion">The version of the tool that ran the check.</param>
+public sealed record ReportSettings(string RepositoryRoot, string? HelpUriBase, string ToolVersion)
+{
+    /// <summary>The uriBaseId under which file paths are reported relative to <see cref="RepositoryRoot"/>.</summary>
+    public const string RootBaseId = "REPOROOT";
+
+    /// <summary>The tool's name as reports state it.</summary>
+    public const string ToolName = "DesignRules";
+}

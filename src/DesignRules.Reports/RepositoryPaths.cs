@@ -1,0 +1,31 @@
+namespace DesignRules.Reports;
+
+/// <summary>Turns the file paths of findings into repository-relative paths with forward slashes.</summary>
+public static class RepositoryPaths
+{
+    /// <summary>
+    /// The path of <paramref name="file"/> relative to <paramref name="root"/> with forward slashes, or null when the
+    /// file lies outside the root or is not a file path (e.g. the built-in library).
+    /// </summary>
+    public static string? Relative(string root, string file)
+    {
+        ArgumentNullException.ThrowIfNull(root);
+        ArgumentNullException.ThrowIfNull(file);
+        if (file.Contains(':', StringComparison.Ordinal) && !Path.IsPathRooted(file))
+        {
+            return null;
+        }
+
+        var relative = Path.GetRelativePath(Path.GetFullPath(root), Path.GetFullPath(file));
+        if (relative == ".." || relative.StartsWith(".." + Path.DirectorySeparatorChar, StringComparison.Ordinal) || Path.IsPathRooted(relative))
+        {
+            return null;
+        }
+
+        return relative.Replace(Path.DirectorySeparatorChar, '/');
+    }
+
+    /// <summary>The path as reports show it: relative to the root where possible, else as given (forward slashes).</summary>
+    public static string Display(string root, string file) =>
+        Relative(root, file) ?? file.Replace('\\', '/');
+}

@@ -1,0 +1,203 @@
+using System.Text.Json;
+using DesignRules.Diagnostics;
+using DesignRules.Rules;
+
+namespace DesignRules.Reports;
+
+/// <summary>
+/// Writes a check report as SARIF 2.1.0 (OASIS): one run whose <c>tool.driver</c> lists every rule, and one result per
+/// finding with a repository-relative location; waived findings carry an external suppression with the waiver's reason.
+/// The bytes depend only on the report and the settings: no timestamps, invariant formatting, stable order.
+/// </summary>
+public static class SarifReport
+{
+    /// <summary>The schema address SARIF 2.1.0 files name.</summary>
+    public const string SchemaUri = "https://json.schemastore.org/sarif-2.1.0.json";
+
+    /// <summary>The SARIF document as UTF-8 bytes.</summary>
+    public static byte[] ToBytes(CheckReport report, ReportSettings settings)
+    {
+        ArgumentNullException.ThrowIfNull(report);
+        ArgumentNullException.ThrowIfNull(settings);
+        return ReportJson.ToBytes(w => Write(w, report, settings));
+    }
+
+    /// <summary>Writes the SARIF document to <paramref name="path"/>, creating its folder.</summary>
+    public static void WriteFile(CheckReport report, ReportSettings settings, string path) =>
+        ReportFiles.Write(path, ToBytes(report, settings));
+
+    private static void Write(Utf8JsonWriter w, CheckReport report, ReportSettings settings)
+    {
+        var rules = RuleCatalogue(report);
+        var index = rules.Select((r, i) => (r.Id, i)).ToDictionary(x => x.Id, x => x.i, StringComparer.Ordinal);
+        w.WriteStartObject();
+        w.WriteString("$schema", SchemaUri);
+        w.WriteString("version", "2.1.0");
+        w.WriteStartArray("runs");
+        w.WriteStartObject();
+        WriteTool(w, rules, settings);
+        w.WriteStartObject("originalUriBaseIds");
+        w.WriteStartObject(ReportSettings.RootBaseId);
+        w.WriteStartObject("description");
+        w.WriteString("text", "The root of the hardware repository that was checked.");
+        w.WriteEndObject();
+        w.WriteEndObject();
+        w.WriteEndObject();
+        w.WriteStartArray("results");
+        foreach (var finding in report.Findings)
+        {
+            WriteResult(w, finding, index[finding.RuleId], settings);
+        }
+
+        w.WriteEndArray();
+        w.WriteString("columnKind", "utf16CodeUnits");
+        w.WriteEndObject();
+        w.WriteEndArray();
+        w.WriteEndObject();
+    }
+
+    /// <summary>Every rule the run knows plus any rule a finding names that the catalogue lacks, in id order.</summary>
+    private static List<DiagnosticDescriptor> RuleCatalogue(CheckReport report)
+    {
+        var byId = new SortedDictionary<string, DiagnosticDescriptor>(StringComparer.Ordinal);
+        foreach (var rule in report.Rules)
+        {
+            byId.TryAdd(rule.Id, rule);
+        }
+
+        foreach (var f in report.Findings.Where(f => !byId.ContainsKey(f.RuleId)))
+        {
+            byId[f.RuleId] = new DiagnosticDescriptor(f.RuleId, f.Title, "other", f.Severity, f.Title, f.HelpPage);
+        }
+
+        return [.. byId.Values];
+    }
+
+    private static void WriteTool(Utf8JsonWriter w, List<DiagnosticDescriptor> rules, ReportSettings settings)
+    {
+        w.WriteStartObject("tool");
+        w.WriteStartObject("driver");
+        w.WriteString("name", ReportSettings.ToolName);
+        w.WriteString("semanticVersion", settings.ToolVersion);
+        w.WriteStartArray("rules");
+        foreach (var rule in rules)
+        {
+            w.WriteStartObject();
+            w.WriteString("id", rule.Id);
+            w.WriteString("name", RuleName(rule.Title));
+            w.WriteStartObject("shortDescription");
+            w.WriteString("text", rule.Title);
+            w.WriteEndObject();
+            if (HelpLinks.For(rule.Id, settings.HelpUriBase) is { } help)
+            {
+                w.WriteString("helpUri", help);
+            }
+
+            w.WriteStartObject("defaultConfiguration");
+            w.WriteString("level", ReportJson.Level(rule.DefaultSeverity));
+            w.WriteEndObject();
+            w.WriteStartObject("properties");
+            w.WriteString("category", rule.Category);
+            w.WriteEndObject();
+            w.WriteEndObject();
+        }
+
+        w.WriteEndArray();
+        w.WriteEndObject();
+        w.WriteEndObject();
+    }
+
+    private static void WriteResult(Utf8JsonWriter w, Finding f, int ruleIndex, ReportSettings settings)
+    {
+        w.WriteStartObject();
+        w.WriteString("ruleId", f.RuleId);
+        w.WriteNumber("ruleIndex", ruleIndex);
+        w.WriteString("level", ReportJson.Level(f.Severity));
+        w.WriteStartObject("message");
+        w.WriteString("text", f.Message);
+        w.WriteEndObject();
+        w.WriteStartArray("locations");
+        w.WriteStartObject();
+        w.WriteStartObject("physicalLocation");
+        w.WriteStartObject("artifactLocation");
+        var relative = RepositoryPaths.Relative(settings.RepositoryRoot, f.Span.File);
+        if (relative is not null)
+        {
+            w.WriteString("uri", EscapePath(relative));
+            w.WriteString("uriBaseId", ReportSettings.RootBaseId);
+        }
+        else
+        {
+            w.WriteString("uri", Path.IsPathRooted(f.Span.File) ? new Uri(f.Span.File).AbsoluteUri : f.Span.File);
+        }
+
+        w.WriteEndObject();
+        WriteRegion(w, f.Span);
+        w.WriteEndObject();
+        w.WriteEndObject();
+        w.WriteEndArray();
+        if (f.Waiver is not null)
+        {
+            w.WriteStartArray("suppressions");
+            w.WriteStartObject();
+            w.WriteString("kind", "external");
+            w.WriteString("status", "accepted");
+            w.WriteString("justification", f.Waiver);
+            w.WriteEndObject();
+            w.WriteEndArray();
+        }
+
+        WriteProperties(w, f);
+        w.WriteEndObject();
+    }
+
+    private static void WriteRegion(Utf8JsonWriter w, SourceSpan span)
+    {
+        w.WriteStartObject("region");
+        w.WriteNumber("startLine", Math.Max(1, span.Line));
+        w.WriteNumber("startColumn", Math.Max(1, span.Column));
+        var endsLater = span.EndLine > span.Line || (span.EndLine == span.Line && span.EndColumn > span.Column);
+        if (endsLater)
+        {
+            w.WriteNumber("endLine", span.EndLine);
+            w.WriteNumber("endColumn", span.EndColumn);
+        }
+
+        w.WriteEndObject();
+    }
+
+    private static void WriteProperties(Utf8JsonWriter w, Finding f)
+    {
+        if (f.DesignId is null && f.StageId is null && f.Figures.Count == 0)
+        {
+            return;
+        }
+
+        w.WriteStartObject("properties");
+        if (f.DesignId is not null)
+        {
+            w.WriteString("design", f.DesignId);
+        }
+
+        if (f.StageId is not null)
+        {
+            w.WriteString("stage", f.StageId);
+        }
+
+        if (f.Figures.Count > 0)
+        {
+            JsonReport.WriteFigures(w, f.Figures);
+        }
+
+        w.WriteEndObject();
+    }
+
+    /// <summary>"Unknown part" → "UnknownPart": SARIF's rule name is an identifier, the title stays the description.</summary>
+    internal static string RuleName(string title) =>
+        string.Concat(title.Split([' ', '-', '/'], StringSplitOptions.RemoveEmptyEntries)
+            .Select(word => char.ToUpperInvariant(word[0]) + word[1..]))
+        .Where(char.IsLetterOrDigit).Aggregate(new System.Text.StringBuilder(), (b, c) => b.Append(c)).ToString();
+
+    private static string EscapePath(string relative) =>
+        string.Join('/', relative.Split('/').Select(Uri.EscapeDataString));
+}

@@ -1,0 +1,123 @@
+using System.Text.RegularExpressions;
+
+namespace DesignRules.Build.Tests;
+
+/// <summary>
+/// The package as a user meets it: packed into a local feed, consumed by a repository outside the source tree with an
+/// isolated NuGet cache, built with `dotnet build -nodeReuse:false`.
+/// </summary>
+[Collection(PackedFeedGroup.Name)]
+public sealed class EndToEndTests(PackedFeed feed)
+{
+    private const string Summary = "1 design(s) in 1 file(s) checked: 0 error(s), 0 warning(s)";
+    private const string Checked = "DesignRules: " + Summary;
+    private const string Skipped = "evaluation skipped";
+
+    [Fact]
+    public void Package_reference_gates_the_build_incrementally_and_honours_the_warning_switches()
+    {
+        Assert.True(feed.PackOutput.ExitCode == 0, feed.PackOutput.ToString());
+        using var repo = new ConsumerRepository(feed, asProjectSdk: false);
+
+        // A clean design passes.
+        SampleRepository.Write(repo.Root, SampleRepository.Design());
+        var first = repo.Build();
+        AssertPassed(first);
+        Assert.Contains(Checked, first.Output, StringComparison.Ordinal);
+
+        // Nothing changed: the evaluation is skipped, and the build says so with the last result.
+        var second = repo.Build();
+        AssertPassed(second);
+        Assert.Contains(Skipped, second.Output, StringComparison.Ordinal);
+        Assert.Contains("Last check: " + Summary, second.Output, StringComparison.Ordinal);
+
+        // Switched off, the build says nothing of designs and keeps the last check's state: the next build still skips.
+        var off = repo.Build("-p:DesignRulesEnabled=false");
+        AssertPassed(off);
+        Assert.DoesNotContain("DesignRules:", off.Output, StringComparison.Ordinal);
+        Assert.Contains(Skipped, repo.Build().Output, StringComparison.Ordinal);
+
+        // A changed value reruns it.
+        SampleRepository.Write(repo.Root, SampleRepository.Design(feedback: "22k"));
+        var changed = repo.Build("-v:d");
+        AssertPassed(changed);
+        Assert.Contains(Checked, changed.Output, StringComparison.Ordinal);
+        Assert.DoesNotContain(Skipped, changed.Output, StringComparison.Ordinal);
+
+        // The task's dependencies load from the package's task folder into the task's own load context.
+        Assert.Matches(@"Assembly loaded during TaskRun[^\n]*: YamlDotNet,[^\n]*tasks[/\\]net10\.0[/\\]YamlDotNet\.dll[^\n]*AssemblyLoadContext: MSBuild plugin", changed.Output);
+
+        // Deleting a design reruns it too (the file list is hashed into an input).
+        var extra = Path.Combine(repo.Root, "designs", "second.yaml");
+        File.WriteAllText(extra, SampleRepository.Design().Replace("id: line-driver", "id: second-driver", StringComparison.Ordinal));
+        Assert.Contains("2 design(s) in 2 file(s) checked", repo.Build().Output, StringComparison.Ordinal);
+        File.Delete(extra);
+        var afterDelete = repo.Build();
+        Assert.Contains(Checked, afterDelete.Output, StringComparison.Ordinal);
+
+        // A violation fails the build at the line and column of the value to change, and the SARIF file says the same.
+        var bad = SampleRepository.Design(SampleRepository.UnknownAmplifier);
+        SampleRepository.Write(repo.Root, bad);
+        var (line, column) = SampleRepository.AmplifierValuePosition(bad);
+        var failed = repo.Build();
+        Assert.True(failed.ExitCode != 0, failed.ToString());
+        var match = Regex.Match(failed.Output, @"designs[/\\]line-driver\.yaml\((\d+),(\d+)(?:,\d+,\d+)?\): error DR906: ");
+        Assert.True(match.Success, failed.ToString());
+        Assert.Equal((line, column), (int.Parse(match.Groups[1].Value), int.Parse(match.Groups[2].Value)));
+        var sarif = FindingKeys.FromSarif(repo.SarifFile);
+        Assert.Contains($"DR906 {SampleRepository.DesignPath}({line},{column}) error", sarif);
+
+        // The command line on the same repository finds the same (SARIF and JSON alike).
+        var cliSarif = Path.Combine(repo.Root, "out", "cli.sarif");
+        var cliJson = Path.Combine(repo.Root, "out", "cli.json");
+        var cli = ProcessRun.Dotnet(repo.Root, new Dictionary<string, string?>(), TimeSpan.FromMinutes(2),
+            TestPaths.CliAssembly, "check", ".", "--sarif", cliSarif, "--json", cliJson);
+        Assert.True(cli.ExitCode == 1, cli.ToString());
+        Assert.Equal(sarif, FindingKeys.FromSarif(cliSarif));
+        Assert.Equal(sarif, FindingKeys.FromJson(cliJson));
+
+        // A failed check is never skipped into a pass.
+        var again = repo.Build();
+        Assert.True(again.ExitCode != 0, again.ToString());
+        Assert.Contains("error DR906", again.Output, StringComparison.Ordinal);
+
+        // With DR906 lowered to a warning the build passes with the warning; the usual switches make it fail again.
+        const string Lowered = "-p:DesignRulesLevels=DR906=warning";
+        var warned = repo.Build(Lowered);
+        AssertPassed(warned);
+        Assert.Contains("warning DR906", warned.Output, StringComparison.Ordinal);
+        AssertFailsWithErrorDr906(repo.Build(Lowered, "-warnaserror"));
+        AssertFailsWithErrorDr906(repo.Build(Lowered, "-p:WarningsAsErrors=DR906"));
+        AssertFailsWithErrorDr906(repo.Build(Lowered, "-p:TreatWarningsAsErrors=true"));
+        var quiet = repo.Build(Lowered, "-p:NoWarn=DR906");
+        AssertPassed(quiet);
+        Assert.DoesNotContain("warning DR906", quiet.Output, StringComparison.Ordinal);
+
+        // Fixed again: passes.
+        SampleRepository.Write(repo.Root, SampleRepository.Design());
+        AssertPassed(repo.Build());
+    }
+
+    [Fact]
+    public void Project_sdk_form_checks_a_repository_with_no_csharp()
+    {
+        Assert.True(feed.PackOutput.ExitCode == 0, feed.PackOutput.ToString());
+        using var repo = new ConsumerRepository(feed, asProjectSdk: true);
+        SampleRepository.Write(repo.Root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
+        var failed = repo.Build();
+        AssertFailsWithErrorDr906(failed);
+
+        SampleRepository.Write(repo.Root, SampleRepository.Design());
+        var passed = repo.Build();
+        AssertPassed(passed);
+        Assert.Contains(Checked, passed.Output, StringComparison.Ordinal);
+    }
+
+    private static void AssertPassed(ProcessRun run) => Assert.True(run.ExitCode == 0, run.ToString());
+
+    private static void AssertFailsWithErrorDr906(ProcessRun run)
+    {
+        Assert.True(run.ExitCode != 0, run.ToString());
+        Assert.Contains("error DR906", run.Output, StringComparison.Ordinal);
+    }
+}

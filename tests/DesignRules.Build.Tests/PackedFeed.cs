@@ -1,0 +1,39 @@
+namespace DesignRules.Build.Tests;
+
+/// <summary>
+/// Packs DesignRules.Build from this build's outputs into a temporary local feed, with a version no other run uses,
+/// so that a consumer with its own NuGet cache can never pick up a stale copy.
+/// </summary>
+public sealed class PackedFeed : IDisposable
+{
+    public PackedFeed()
+    {
+        Folder = TestPaths.NewTempFolder("feed");
+        Version = $"0.1.0-e2e.{DateTime.UtcNow:yyyyMMddHHmmss}.{Guid.NewGuid().ToString("N")[..8]}";
+        var pack = ProcessRun.Dotnet(TestPaths.RepositoryRoot, new Dictionary<string, string?> { ["DR_ARTIFACTS"] = TestPaths.ArtifactsPath },
+            TimeSpan.FromMinutes(4), "pack", TestPaths.BuildProject, "--no-build", "--no-restore", "-c", TestPaths.Configuration,
+            "-o", Folder, $"-p:PackageVersion={Version}", "-nodeReuse:false", "-tl:off");
+        PackOutput = pack;
+        Package = Path.Combine(Folder, $"DesignRules.Build.{Version}.nupkg");
+    }
+
+    public string Folder { get; }
+
+    public string Version { get; }
+
+    public string Package { get; }
+
+    public ProcessRun PackOutput { get; }
+
+    public void Dispose()
+    {
+        try
+        {
+            Directory.Delete(Folder, recursive: true);
+        }
+        catch (IOException)
+        {
+            // A leftover temp folder is harmless.
+        }
+    }
+}
