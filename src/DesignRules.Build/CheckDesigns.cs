@@ -1,6 +1,7 @@
 using System.Globalization;
 using System.Reflection;
 using DesignRules.Diagnostics;
+using DesignRules.Pages;
 using DesignRules.Reports;
 using DesignRules.Rules;
 using Microsoft.Build.Framework;
@@ -34,6 +35,12 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
     /// <summary>Where to write the JSON report, or empty for none.</summary>
     public string? JsonFile { get; set; }
+
+    /// <summary>The folder the datasheet pages are written to, or empty for no pages.</summary>
+    public string? PagesFolder { get; set; }
+
+    /// <summary>A folder of the repository's own page templates, or empty for the built-in ones.</summary>
+    public string? TemplateFolder { get; set; }
 
     /// <summary>The address that <c>DRnnn.md</c> is appended to for help links; wins over <see cref="HelpFolder"/>.</summary>
     public string? HelpUriBase { get; set; }
@@ -113,6 +120,20 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         if (!string.IsNullOrWhiteSpace(JsonFile))
         {
             JsonReport.WriteFile(report, settings, JsonFile);
+        }
+
+        if (!string.IsNullOrWhiteSpace(PagesFolder))
+        {
+            var pages = DatasheetPages.Write(report, new PageOptions(Path.GetFullPath(PagesFolder),
+                string.IsNullOrWhiteSpace(TemplateFolder) ? null : Path.GetFullPath(TemplateFolder), root));
+            foreach (var template in pages.Diagnostics)
+            {
+                var span = template.Span;
+                Log.LogError(null, template.Id, null, HelpFor(template.Id), span.File, span.Line, span.Column, span.EndLine, span.EndColumn, template.Message);
+            }
+
+            Log.LogMessage(MessageImportance.Normal, string.Create(CultureInfo.InvariantCulture,
+                $"DesignRules: {pages.Written.Count} page and plot file(s) written to {PagesFolder}, {pages.Removed.Count} stale file(s) removed."));
         }
 
         var noWarn = new CodeList(NoWarn);

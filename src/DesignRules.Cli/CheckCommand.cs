@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.Globalization;
 using System.Reflection;
 using DesignRules.Loading;
+using DesignRules.Pages;
 using DesignRules.Reports;
 using DesignRules.Rules;
 
@@ -44,6 +45,18 @@ internal static class CheckCommand
         HelpName = "LIST",
     };
 
+    private static readonly Option<string?> PagesFolder = new("--pages")
+    {
+        Description = "Also write datasheet pages (Markdown and SVG plots) of every design into DIR.",
+        HelpName = "DIR",
+    };
+
+    private static readonly Option<string?> Templates = new("--templates")
+    {
+        Description = "A folder of your own page templates; each replaces the built-in template of the same name.",
+        HelpName = "DIR",
+    };
+
     private static readonly Option<string?> Today = new("--today")
     {
         Description = "The date waiver expiry is judged against, yyyy-MM-dd (default: today), for reproducible runs.",
@@ -54,7 +67,7 @@ internal static class CheckCommand
     {
         var command = new Command("check", "Check every design and report problems as file(line,col): severity DRnnn: message.")
         {
-            Paths, Sarif, Json, RuleSet, Root, HelpBase, Levels, Today,
+            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today,
         };
         command.SetAction(Run);
         return command;
@@ -117,7 +130,28 @@ internal static class CheckCommand
         }
 
         HumanReport.Write(report, Terminal.ForStandardOutput());
-        return report.ErrorCount > 0 ? ExitCodes.Errors : ExitCodes.Clean;
+        var templateErrors = 0;
+        if (result.GetValue(PagesFolder) is { } pagesFolder)
+        {
+            var templates = result.GetValue(Templates);
+            if (templates is not null && !Directory.Exists(templates))
+            {
+                Console.Error.WriteLine($"{templates}: error: no such template folder");
+                return ExitCodes.Unusable;
+            }
+
+            var pages = DatasheetPages.Write(report, new PageOptions(pagesFolder, templates, root));
+            foreach (var diagnostic in pages.Diagnostics)
+            {
+                Console.Error.WriteLine(diagnostic.ToString());
+            }
+
+            templateErrors = pages.Diagnostics.Count;
+            Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"{pages.Written.Count} page and plot file(s) written to {pagesFolder}, {pages.Removed.Count} stale file(s) removed."));
+        }
+
+        return report.ErrorCount > 0 || templateErrors > 0 ? ExitCodes.Errors : ExitCodes.Clean;
     }
 
     private static bool TryToday(string? text, out DateOnly today)

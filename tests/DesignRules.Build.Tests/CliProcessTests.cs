@@ -34,6 +34,22 @@ public sealed class CliProcessTests : IDisposable
         Assert.DoesNotContain("\u001b[", run.Output, StringComparison.Ordinal);
     }
 
+    [Fact]
+    public void Pages_are_written_on_request_and_a_broken_template_is_a_located_error()
+    {
+        SampleRepository.Write(root, SampleRepository.Design());
+        var written = Cli("check", root, "--pages", "pages");
+        Assert.True(written.ExitCode == 0, written.ToString());
+        Assert.True(File.Exists(Path.Combine(root, "pages", "index.md")), written.ToString());
+        Assert.NotEmpty(Directory.GetFiles(Path.Combine(root, "pages", "plots"), "*.svg", SearchOption.AllDirectories));
+
+        Directory.CreateDirectory(Path.Combine(root, "templates"));
+        File.WriteAllText(Path.Combine(root, "templates", "index.md.sbn"), "# Boards\n{{ for d in index.designs }}\n");
+        var broken = Cli("check", root, "--pages", "pages", "--templates", "templates");
+        Assert.True(broken.ExitCode == 1, broken.ToString());
+        Assert.Matches(@"index\.md\.sbn\(\d+,\d+\): error DR930: ", broken.Output);
+    }
+
     [Theory]
     [InlineData("check", "no-such-folder")]
     [InlineData("check", ".", "--rules", "no-such-rules.yaml")]

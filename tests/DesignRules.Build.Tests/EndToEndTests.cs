@@ -111,6 +111,18 @@ public sealed class EndToEndTests(PackedFeed feed)
         var passed = repo.Build();
         AssertPassed(passed);
         Assert.Contains(Checked, passed.Output, StringComparison.Ordinal);
+
+        // Every build writes the datasheet pages into design-pages/; a repository template replaces the built-in one,
+        // and a broken template fails the build at its file, line and column.
+        Assert.True(File.Exists(Path.Combine(repo.Root, "design-pages", "index.md")), passed.ToString());
+        Directory.CreateDirectory(Path.Combine(repo.Root, "design-templates"));
+        File.WriteAllText(Path.Combine(repo.Root, "design-templates", "index.md.sbn"), "# Our boards\n\n{{ index.no_such_name }}\n");
+        var broken = repo.Build();
+        Assert.True(broken.ExitCode != 0, broken.ToString());
+        Assert.Matches(@"index\.md\.sbn\(3,\d+(,\d+,\d+)?\): error DR930: ", broken.Output);
+        File.WriteAllText(Path.Combine(repo.Root, "design-templates", "index.md.sbn"), "# Our boards\n");
+        AssertPassed(repo.Build());
+        Assert.Equal("# Our boards\n", File.ReadAllText(Path.Combine(repo.Root, "design-pages", "index.md")));
     }
 
     private static void AssertPassed(ProcessRun run) => Assert.True(run.ExitCode == 0, run.ToString());
