@@ -54,6 +54,13 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     /// </summary>
     public string? StampFile { get; set; }
 
+    /// <summary>
+    /// True when the inputs are unchanged since the last stamped check: instead of evaluating, the task logs that
+    /// check's warnings, notes and waived findings again from the file beside the stamp, so that a skipped build still
+    /// shows them (and <c>-warnaserror</c> still sees them).
+    /// </summary>
+    public bool Replay { get; set; }
+
     /// <summary>The date waiver expiry is judged against (yyyy-MM-dd); today when empty.</summary>
     public string? Today { get; set; }
 
@@ -86,6 +93,11 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     {
         try
         {
+            if (Replay)
+            {
+                return ReplayLastCheck();
+            }
+
             DeleteStamp();
             return Check();
         }
@@ -151,15 +163,32 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
             return false;
         }
 
-        // Only a check with nothing to show is stamped: warnings then appear on every build (and -warnaserror always
-        // sees them) instead of vanishing behind an up-to-date skip.
-        if (WarningCount == 0)
-        {
-            WriteStamp(summary);
-        }
-
+        // A check without errors is stamped together with what it showed, so that a skipped build replays its warnings.
+        WriteStamp(summary, report.Findings);
         return true;
     }
+
+    private bool ReplayLastCheck()
+    {
+        var stamp = string.IsNullOrWhiteSpace(StampFile) ? null : Path.GetFullPath(StampFile);
+        if (stamp is null || !File.Exists(stamp) || !File.Exists(FindingsFile(stamp)))
+        {
+            return true;
+        }
+
+        var noWarn = new CodeList(NoWarn);
+        var notAsErrors = new CodeList(WarningsNotAsErrors);
+        foreach (var finding in StampedFindings.Read(FindingsFile(stamp)))
+        {
+            LogFinding(finding, noWarn, notAsErrors);
+        }
+
+        Log.LogMessage(MessageImportance.High,
+            "DesignRules: no design, parts or rule-set file changed; evaluation skipped. Last check: " + File.ReadAllText(stamp).Trim());
+        return !Log.HasLoggedErrors;
+    }
+
+    private static string FindingsFile(string stamp) => stamp + ".findings.json";
 
     private void LogFinding(Finding f, CodeList noWarn, CodeList notAsErrors)
     {
@@ -217,13 +246,16 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
     private void DeleteStamp()
     {
-        if (!string.IsNullOrWhiteSpace(StampFile) && File.Exists(StampFile))
+        if (!string.IsNullOrWhiteSpace(StampFile))
         {
-            File.Delete(StampFile);
+            foreach (var file in new[] { FindingsFile(Path.GetFullPath(StampFile)), Path.GetFullPath(StampFile) }.Where(File.Exists))
+            {
+                File.Delete(file);
+            }
         }
     }
 
-    private void WriteStamp(string summary)
+    private void WriteStamp(string summary, IEnumerable<Finding> findings)
     {
         if (string.IsNullOrWhiteSpace(StampFile))
         {
@@ -232,6 +264,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
         var full = Path.GetFullPath(StampFile);
         Directory.CreateDirectory(Path.GetDirectoryName(full)!);
+        StampedFindings.Write(FindingsFile(full), findings);
         File.WriteAllText(full, summary + Environment.NewLine);
     }
 }

@@ -66,7 +66,19 @@ public sealed class CheckDesignsTaskTests : IDisposable
         var (warn, warnEngine) = Task(text, t => t.Levels = "DR906=warning");
         Assert.True(warn.Execute());
         Assert.Single(warnEngine.Warnings, w => w.Code == "DR906" && w.HelpLink == "https://example.invalid/rules/DR906.md");
-        Assert.False(File.Exists(warn.StampFile), "a check with warnings is not stamped, so its warnings show on every build");
+        Assert.True(File.Exists(warn.StampFile), "a check with warnings but no error is stamped, with its findings beside it");
+
+        // An up-to-date build replays the stamped check: the warning shows again, with its location and help link.
+        var replayEngine = new RecordingEngine();
+        var replay = new CheckDesigns
+        {
+            BuildEngine = replayEngine, Replay = true, StampFile = warn.StampFile, HelpUriBase = "https://example.invalid/rules",
+        };
+        Assert.True(replay.Execute());
+        var again = Assert.Single(replayEngine.Warnings, w => w.Code == "DR906");
+        var first = Assert.Single(warnEngine.Warnings, w => w.Code == "DR906");
+        Assert.Equal((first.File, first.LineNumber, first.ColumnNumber, first.Message, first.HelpLink),
+            (again.File, again.LineNumber, again.ColumnNumber, again.Message, again.HelpLink));
 
         var (raised, raisedEngine) = Task(text, t => { t.Levels = "DR906=warning"; t.TreatWarningsAsErrors = true; });
         Assert.False(raised.Execute());

@@ -1,0 +1,31 @@
+using System.Text.Json;
+using DesignRules.Diagnostics;
+using DesignRules.Rules;
+
+namespace DesignRules.Build;
+
+/// <summary>
+/// The findings of the last stamped check, kept beside the stamp so that an up-to-date build can show them again
+/// without evaluating. Only what logging needs is kept; figures are in the JSON report.
+/// </summary>
+internal static class StampedFindings
+{
+    public static void Write(string file, IEnumerable<Finding> findings)
+    {
+        var records = findings.Select(f => new Stored(
+            f.RuleId, f.Title, f.Severity.ToString(), f.Message, f.Span.File, f.Span.Line, f.Span.Column, f.Span.EndLine,
+            f.Span.EndColumn, f.HelpPage, f.Waiver)).ToList();
+        var temporary = file + ".partial";
+        File.WriteAllText(temporary, JsonSerializer.Serialize(records));
+        File.Move(temporary, file, overwrite: true);
+    }
+
+    public static IEnumerable<Finding> Read(string file) =>
+        (JsonSerializer.Deserialize<List<Stored>>(File.ReadAllText(file)) ?? []).Select(s => new Finding(
+            s.RuleId, s.Title, Enum.Parse<Severity>(s.Severity), s.Message,
+            new SourceSpan(s.File, s.Line, s.Column, s.EndLine, s.EndColumn), s.HelpPage, null, null, s.Waiver, []));
+
+    internal sealed record Stored(
+        string RuleId, string Title, string Severity, string Message, string File, int Line, int Column, int EndLine,
+        int EndColumn, string HelpPage, string? Waiver);
+}
