@@ -5,7 +5,7 @@
 #   full         a build after touching every design (the check runs in full)
 # Needs hyperfine (apt-get install hyperfine). Extra arguments go to every build, e.g.
 #   src/DesignRules.Build/measure-overhead.sh "-p:DesignRulesLevels=DR702=off"
-# The incremental build skips only when the last check had no error and no warning.
+# The incremental build skips when the last check had no error, and then replays its warnings.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 extra="${*:-}"
