@@ -43,11 +43,13 @@ internal sealed class UncheckedRequirementRule : Rule
             }
         }
 
+        // DR501 checks a chain-level bandwidth when every stage is a linear gain stage; nothing else checks the chain.
         var chain = design.Requirements;
+        var linearChain = design.Stages.All(s => s is BlockStage { Block.Name: "inverting" or "non-inverting" or "follower" or "difference" or "summing" });
         foreach (var (name, span) in new (string, SourceSpan?)[]
                  {
                      ("transfer", chain.Transfer?.Span), ("gain", chain.Gain?.Span), ("accuracy", chain.Accuracy?.Span),
-                     ("glitch", chain.Glitch?.Span), ("yield", chain.Yield?.Span), ("bandwidth", chain.Bandwidth?.Span),
+                     ("glitch", chain.Glitch?.Span), ("yield", chain.Yield?.Span), ("bandwidth", linearChain ? null : chain.Bandwidth?.Span),
                      ("output-offset", chain.OutputOffset?.Span), ("min-signal", chain.MinSignal?.Span),
                  })
         {
