@@ -86,6 +86,6 @@ public sealed class LinearNetworkPropertyTests
                 double engine = op.Voltage(Name(node));
                 Assert.True(Math.Abs(engine - x[node - 1]) <= 1e-9 * scale, $"node {node}: {engine} vs {x[node - 1]}");
             }
-        }, iter: 300, threads: 1);
+        }, iter: 300, threads: 1, seed: "7e_xvcf8Rfb1");
     }
 }

@@ -63,8 +63,10 @@ public sealed class LoaderRobustnessProperties
                 clock.Stop();
 
                 Assert.True(clock.Elapsed < TimeSpan.FromSeconds(1), $"took {clock.Elapsed} on:\n{text}");
-                Assert.True(result.Designs.Count == 1 || result.Diagnostics.Any(d => d.Severity == Severity.Error),
-                    "neither a design nor an error for:\n" + text);
+                // A mutated parts-file fixture may still be a valid parts file: then a library loads instead of a design.
+                var loadedLibrary = result.Libraries.Any(l => l.File != DesignLoader.BuiltinLibraryFile);
+                Assert.True(result.Designs.Count == 1 || loadedLibrary || result.Diagnostics.Any(d => d.Severity == Severity.Error),
+                    "neither a design, a parts library nor an error for:\n" + text);
                 foreach (var d in result.Diagnostics)
                 {
                     Assert.Matches("^DR9[0-9]{2}$", d.Id);
@@ -73,7 +75,9 @@ public sealed class LoaderRobustnessProperties
                 }
             },
             iter: 10_000,
-            threads: 1);
+            threads: 1,
+            // Fixed, so every run (and CI) tests the same 10,000 files; this seed once produced a valid parts file.
+            seed: "7e_xvcf8Rfb1");
     }
 
     private static string SwapLines(string text, int a, int b)

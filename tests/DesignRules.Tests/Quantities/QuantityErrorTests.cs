@@ -115,11 +115,11 @@ public sealed class ParsingNeverThrows
 
     [Fact]
     public void Random_strings_give_a_value_or_an_error_never_an_exception() =>
-        Gen.Select(Gen.String, Gen.Enum<Dimension>()).Sample(CheckOutcome, iter: 10_000);
+        Gen.Select(Gen.String, Gen.Enum<Dimension>()).Sample(CheckOutcome, iter: 10_000, seed: "7e_xvcf8Rfb1");
 
     [Fact]
     public void Random_strings_made_of_value_characters_give_a_value_or_an_error_never_an_exception() =>
-        Gen.Select(Gen.String[Gen.Char[ValueCharacters], 0, 20], Gen.Enum<Dimension>()).Sample(CheckOutcome, iter: 10_000);
+        Gen.Select(Gen.String[Gen.Char[ValueCharacters], 0, 20], Gen.Enum<Dimension>()).Sample(CheckOutcome, iter: 10_000, seed: "7e_xvcf8Rfb1");
 
     [Fact]
     public void Random_ranges_give_a_range_or_an_error_never_an_exception() =>
@@ -132,7 +132,7 @@ public sealed class ParsingNeverThrows
                 {
                     Assert.True(range.Low.Value <= range.High.Value);
                 }
-            }, iter: 10_000);
+            }, iter: 10_000, seed: "7e_xvcf8Rfb1");
 
     private static void CheckOutcome(string text, Dimension dimension)
     {

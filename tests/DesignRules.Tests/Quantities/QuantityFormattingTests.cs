@@ -78,7 +78,7 @@ public sealed class FormattedValuesReadBack
         {
             var back = QuantityAssert.Parses(q.Format(15), q.Dimension);
             QuantityAssert.Close(q.Value, back.Value, 1e-13);
-        }, iter: 10_000);
+        }, iter: 10_000, seed: "7e_xvcf8Rfb1");
 
     [Fact]
     public void Three_digit_text_reads_back_within_its_rounding() =>
@@ -86,7 +86,7 @@ public sealed class FormattedValuesReadBack
         {
             var back = QuantityAssert.Parses(q.Format(), q.Dimension);
             QuantityAssert.Close(q.Value, back.Value, 5e-3);
-        }, iter: 10_000);
+        }, iter: 10_000, seed: "7e_xvcf8Rfb1");
 
     [Fact]
     public void Percent_text_reads_back_as_the_same_ratio() =>
@@ -94,7 +94,7 @@ public sealed class FormattedValuesReadBack
         {
             var q = new Quantity(r, Dimension.Ratio);
             QuantityAssert.Close(r, QuantityAssert.Parses(q.FormatPercent(15), Dimension.Ratio).Value, 1e-13);
-        }, iter: 10_000);
+        }, iter: 10_000, seed: "7e_xvcf8Rfb1");
 
     [Fact]
     public void Zero_reads_back_in_every_dimension()
