@@ -13,10 +13,6 @@ namespace DesignRules.Pages;
 /// </summary>
 internal static class PageModel
 {
-    // Extra-low voltage band limits (IEC 61140 / IEC 60449 voltage band I, from memory): 120 V ripple-free DC, 50 V AC rms.
-    private const double ExtraLowDc = 120;
-    private const double ExtraLowAcPeak = 50 * 1.4142135623730951;
-
     /// <summary>Which rules judge each requirement, for the requirement verdicts of a design page.</summary>
     private static readonly Dictionary<string, string[]> RequirementRules = new(StringComparer.Ordinal)
     {
@@ -47,7 +43,7 @@ internal static class PageModel
                 ["warnings"] = findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived),
                 ["notes"] = findings.Count(f => f.Severity == Severity.Note && !f.IsWaived),
                 ["waived"] = findings.Count(f => f.IsWaived),
-                ["caution"] = NeedsCaution(summary.Design),
+                ["caution"] = SafetyCaution.For(summary.Design)?.Text,
             });
         }
 
@@ -77,7 +73,7 @@ internal static class PageModel
             ["title"] = Title(design),
             ["summary"] = design.Summary,
             ["file"] = repositoryRoot is null ? design.File.Replace('\\', '/') : Path.GetRelativePath(repositoryRoot, design.File).Replace('\\', '/'),
-            ["caution"] = NeedsCaution(design),
+            ["caution"] = SafetyCaution.For(design)?.Text,
             ["supplies"] = new ScriptObject
             {
                 ["positive"] = design.Supplies.Positive.Value.Value,
@@ -286,15 +282,6 @@ internal static class PageModel
         lines.Add($"  load[\"Load: {design.Load.Resistance.Value.Format()}{(design.Load.Capacitance is null ? string.Empty : " ∥ " + design.Load.Capacitance.Value.Format())}\"]");
         lines.Add($"  {previous} --> load");
         return string.Join('\n', lines);
-    }
-
-    private static bool NeedsCaution(Design design)
-    {
-        var rails = Math.Max(Math.Abs(design.Supplies.Positive.Value.Value), Math.Abs(design.Supplies.Negative.Value.Value));
-        var span = design.Supplies.Positive.Value.Value - design.Supplies.Negative.Value.Value;
-        var w = design.Source.Waveform;
-        var peak = Math.Abs(w.Offset?.Value.Value ?? 0) + (w.Amplitude?.Value.Value ?? 0) + w.Components.Sum(c => c.Amplitude?.Value.Value ?? 0);
-        return rails > ExtraLowDc || span > ExtraLowDc || peak > ExtraLowAcPeak;
     }
 
     private static string Title(Design design) => design.Title.Length > 0 ? design.Title : design.Id.Value;

@@ -44,6 +44,7 @@ public static class JsonReport
         w.WriteNumber("notes", report.Findings.Count(f => f.Severity == Diagnostics.Severity.Note && !f.IsWaived));
         w.WriteNumber("waived", report.Findings.Count(f => f.IsWaived));
         w.WriteEndObject();
+        WriteCautions(w, report, settings);
         w.WriteStartArray("findings");
         foreach (var f in report.Findings)
         {
@@ -78,6 +79,39 @@ public static class JsonReport
         WriteOptional(w, "waiver", f.Waiver);
         WriteFigures(w, f.Figures);
         w.WriteEndObject();
+    }
+
+    /// <summary>
+    /// Writes <c>"cautions": [{ "design", "file", "hazards", "note", "aboveExtraLowVoltage", "text" }]</c>: one entry per
+    /// checked design that declares a hazard or works above extra-low voltage, in the report's design order.
+    /// </summary>
+    internal static void WriteCautions(Utf8JsonWriter w, CheckReport report, ReportSettings settings)
+    {
+        w.WriteStartArray("cautions");
+        foreach (var design in report.Designs.Select(s => s.Design))
+        {
+            if (Model.SafetyCaution.For(design) is not { } caution)
+            {
+                continue;
+            }
+
+            w.WriteStartObject();
+            w.WriteString("design", design.Id.Value);
+            w.WriteString("file", RepositoryPaths.Display(settings.RepositoryRoot, design.File));
+            w.WriteStartArray("hazards");
+            foreach (var kind in caution.Hazards)
+            {
+                w.WriteStringValue(Model.Hazards.NameOf(kind));
+            }
+
+            w.WriteEndArray();
+            WriteOptional(w, "note", caution.Note);
+            w.WriteBoolean("aboveExtraLowVoltage", caution.AboveExtraLowVoltage);
+            w.WriteString("text", caution.Text);
+            w.WriteEndObject();
+        }
+
+        w.WriteEndArray();
     }
 
     /// <summary>Writes <c>"figures": [{ "name", "value", "unit" }]</c> in the finding's order.</summary>

@@ -51,6 +51,12 @@ public static class SarifReport
 
         w.WriteEndArray();
         w.WriteString("columnKind", "utf16CodeUnits");
+
+        // SARIF has no place of its own for a safety caution; the run's property bag carries the same entries as the
+        // JSON report, so that a code-scanning upload keeps them beside the findings.
+        w.WriteStartObject("properties");
+        JsonReport.WriteCautions(w, report, settings);
+        w.WriteEndObject();
         w.WriteEndObject();
         w.WriteEndArray();
         w.WriteEndObject();

@@ -57,6 +57,7 @@ internal static class DesignReader
         var stages = ReadStages(root, catalog);
         var requirements = ReadRequirements(root.Child("requires", "the design's requirements", false, string.Empty), root.Span);
         var waivers = ReadWaivers(root, stages);
+        var hazards = ReadHazards(root);
         root.Finish();
 
         if (id is null || supplies is null || source is null || load is null || stages is null)
@@ -65,7 +66,66 @@ internal static class DesignReader
         }
 
         return new Design(id, title, summary, file, series is null ? null : new Located<string>(series.Value, series.Span),
-            supplies, source, load, stages, requirements, waivers, libraries);
+            supplies, source, load, stages, requirements, waivers, libraries) { Hazards = hazards };
+    }
+
+    /// <summary>
+    /// <c>hazards: [mains]</c>, or the long form <c>hazards: { kinds: [mains], note: ... }</c>; unknown kinds are
+    /// reported with the known ones and a "did you mean".
+    /// </summary>
+    private static Hazards? ReadHazards(MappingReader root)
+    {
+        var known = string.Join(", ", Hazards.Names.Keys);
+        var node = root.Node("hazards", required: false, string.Empty);
+        YamlNode? list = node;
+        Located<string>? note = null;
+        if (node is YamlMapping)
+        {
+            var m = root.Child("hazards", "the hazard declaration", required: false, string.Empty)!;
+            list = m.Node("kinds", required: true, "one or more of " + known);
+            note = m.Text("note", required: false, "where the hazard is, for people");
+            m.Finish();
+        }
+
+        if (list is null)
+        {
+            return null;
+        }
+
+        if (list is not YamlSequence seq)
+        {
+            d(root).Add(DesignFileDiagnostics.WrongShape.At(list.Span, "hazards",
+                $"a list of hazard kinds ({known}), or a mapping with 'kinds' and 'note'", list.ShapeName));
+            return null;
+        }
+
+        if (seq.Items.Count == 0)
+        {
+            d(root).Add(DesignFileDiagnostics.MissingKey.At(seq.Span, "the hazard declaration", "kinds",
+                $"at least one of {known}; leave 'hazards' out when the chain touches none"));
+            return null;
+        }
+
+        var kinds = new List<Located<HazardKind>>();
+        var complete = true;
+        foreach (var item in seq.Items)
+        {
+            if (item is not YamlScalar scalar)
+            {
+                d(root).Add(DesignFileDiagnostics.WrongShape.At(item.Span, "a hazard kind", $"a single word ({known})", item.ShapeName));
+                complete = false;
+                continue;
+            }
+
+            var kind = root.ReadChoice(scalar, "hazards", Hazards.Names);
+            complete &= kind is not null;
+            if (kind is not null && kinds.All(k => k.Value != kind.Value))
+            {
+                kinds.Add(kind);
+            }
+        }
+
+        return complete ? new Hazards(kinds, note, node!.Span) : null;
     }
 
     private static Supplies? ReadSupplies(MappingReader root)

@@ -28,7 +28,11 @@ public sealed record Design(
     IReadOnlyList<Stage> Stages,
     Requirements Requirements,
     IReadOnlyList<Waiver> Waivers,
-    IReadOnlyList<PartsLibrary> Libraries);
+    IReadOnlyList<PartsLibrary> Libraries)
+{
+    /// <summary>The hazardous energy the chain connects to beyond its own supplies, as declared (null when not declared).</summary>
+    public Hazards? Hazards { get; init; }
+}
 
 /// <summary>The supply rails. A single-supply design has a negative rail of 0 V.</summary>
 /// <param name="Positive">Positive rail voltage.</param>
