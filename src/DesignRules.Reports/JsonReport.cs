@@ -45,6 +45,7 @@ public static class JsonReport
         w.WriteNumber("waived", report.Findings.Count(f => f.IsWaived));
         w.WriteEndObject();
         WriteCautions(w, report, settings);
+        WriteYields(w, report);
         w.WriteStartArray("findings");
         foreach (var f in report.Findings)
         {
@@ -109,6 +110,47 @@ public static class JsonReport
             w.WriteBoolean("aboveExtraLowVoltage", caution.AboveExtraLowVoltage);
             w.WriteString("text", caution.Text);
             w.WriteEndObject();
+        }
+
+        w.WriteEndArray();
+    }
+
+    /// <summary>
+    /// Writes <c>"yields"</c>: per design and stage judged against a yield, the Monte Carlo samples, the passing count,
+    /// the yield with its two-sided Clopper–Pearson interval and level, the requirement and the verdict (ratios, not percent).
+    /// </summary>
+    private static void WriteYields(Utf8JsonWriter w, CheckReport report)
+    {
+        w.WriteStartArray("yields");
+        foreach (var summary in report.Designs)
+        {
+            foreach (var y in summary.Yields)
+            {
+                w.WriteStartObject();
+                w.WriteString("design", summary.Design.Id.Value);
+                w.WriteString("stage", y.StageId);
+                w.WriteNumber("samples", y.Samples);
+                w.WriteNumber("passing", y.Passing);
+                w.WriteNumber("seed", y.Seed);
+                w.WriteBoolean("sequential", y.Sequential);
+                ReportJson.Number(w, "accuracy", y.Accuracy);
+                ReportJson.Number(w, "yield", y.Yield);
+                ReportJson.Number(w, "lower", y.Lower);
+                ReportJson.Number(w, "upper", y.Upper);
+                ReportJson.Number(w, "confidence", y.Confidence);
+                ReportJson.Number(w, "required", y.Required);
+                w.WriteString("verdict", y.VerdictText);
+                if (y.SamplesNeeded is { } needed)
+                {
+                    w.WriteNumber("samplesNeeded", needed);
+                }
+                else
+                {
+                    w.WriteNull("samplesNeeded");
+                }
+
+                w.WriteEndObject();
+            }
         }
 
         w.WriteEndArray();

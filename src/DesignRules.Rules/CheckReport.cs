@@ -30,4 +30,7 @@ public sealed record DesignSummary(
 {
     /// <summary>Plot data per stage, in stage order (empty when the design could not be analysed).</summary>
     public IReadOnlyList<StagePlots> Plots { get; init; } = [];
+
+    /// <summary>The Monte Carlo yield of every stage judged against a yield, with its interval and verdict, in stage order.</summary>
+    public IReadOnlyList<YieldEstimate> Yields { get; init; } = [];
 }

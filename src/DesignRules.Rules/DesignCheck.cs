@@ -60,6 +60,7 @@ public static class DesignCheck
             design.Stages.Select(s => new KeyValuePair<string, IReadOnlyList<Figure>>(s.Id.Value, Sorted(evaluation.Figures.GetValueOrDefault(s.Id.Value)))).ToList())
         {
             Plots = PlotCollector.Collect(evaluation),
+            Yields = design.Stages.Select(s => evaluation.Yields.FirstOrDefault(y => y.StageId == s.Id.Value)).OfType<YieldEstimate>().ToList(),
         };
         return (findings, summary);
     }

@@ -42,7 +42,11 @@ public sealed record BodePlot(IReadOnlyList<double> Frequency, IReadOnlyList<dou
 /// <param name="Samples">The sampled values, in sample order.</param>
 /// <param name="Low">Lowest acceptable value, if any.</param>
 /// <param name="High">Highest acceptable value, if any.</param>
-public sealed record SampleDistribution(string Figure, string Unit, IReadOnlyList<double> Samples, double? Low, double? High);
+public sealed record SampleDistribution(string Figure, string Unit, IReadOnlyList<double> Samples, double? Low, double? High)
+{
+    /// <summary>What the samples show, for the plot's caption (e.g. the yield with its confidence interval), if anything.</summary>
+    public string? Caption { get; init; }
+}
 
 /// <summary>The plot data of one stage; each part is absent when it does not apply or its analysis failed.</summary>
 /// <param name="StageId">The stage id.</param>

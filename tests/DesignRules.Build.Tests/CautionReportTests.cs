@@ -57,3 +57,34 @@ public sealed class CautionReportTests
         AssertMotorCaution(run.GetProperty("properties").GetProperty("cautions"));
     }
 }
+
+/// <summary>The JSON report lists every stage's Monte Carlo yield with its interval, level, samples and verdict.</summary>
+public sealed class YieldReportTests
+{
+    [Fact]
+    public void The_json_report_carries_the_yield_interval_and_the_samples()
+    {
+        var root = Path.Combine(TestPaths.RepositoryRoot, "example-design");
+        var loaded = DesignLoader.LoadFiles([Path.Combine(root, "designs", "door-impact-peak-hold.yaml")]);
+        var estimate = new YieldEstimate("peak-hold", 4000, 3981, 7, 0.05, 0.99, 0.95, 0.99295, 0.99714, YieldVerdict.Met, null, Sequential: true);
+        var report = new CheckReport([], [], 1, 1)
+        {
+            Designs = [new DesignSummary(Assert.Single(loaded.Designs), [], []) { Yields = [estimate] }],
+        };
+
+        var yields = JsonDocument.Parse(JsonReport.ToBytes(report, new ReportSettings(root, null, "0.0.0"))).RootElement.GetProperty("yields");
+
+        var y = Assert.Single(yields.EnumerateArray().ToList());
+        Assert.Equal("door-impact-peak-hold", y.GetProperty("design").GetString());
+        Assert.Equal("peak-hold", y.GetProperty("stage").GetString());
+        Assert.Equal(4000, y.GetProperty("samples").GetInt32());
+        Assert.Equal(3981, y.GetProperty("passing").GetInt32());
+        Assert.Equal(0.99295, y.GetProperty("lower").GetDouble());
+        Assert.Equal(0.99714, y.GetProperty("upper").GetDouble());
+        Assert.Equal(0.95, y.GetProperty("confidence").GetDouble());
+        Assert.Equal(0.99, y.GetProperty("required").GetDouble());
+        Assert.Equal("met", y.GetProperty("verdict").GetString());
+        Assert.True(y.GetProperty("sequential").GetBoolean());
+        Assert.Equal(JsonValueKind.Null, y.GetProperty("samplesNeeded").ValueKind);
+    }
+}

@@ -70,11 +70,24 @@ public static class RuleSetLoader
             var seed = mc.Quantity("seed", Dimension.Ratio, required: false,
                 q => q.Value is >= 0 and <= int.MaxValue && q.Value == Math.Floor(q.Value) ? null : "a whole number from 0 to 2147483647");
             var distribution = mc.Choice("distribution", Distributions, required: false);
+            var sequential = mc.Flag("sequential");
+            var maxSamples = mc.Quantity("max-samples", Dimension.Ratio, required: false,
+                q => q.Value is >= 10 and <= 10_000_000 && q.Value == Math.Floor(q.Value) ? null : "a whole number from 10 to 10,000,000");
             mc.Finish();
             monteCarlo = new MonteCarloSettings(
                 samples is null ? monteCarlo.Samples : (int)samples.Value.Value,
                 seed is null ? monteCarlo.Seed : (int)seed.Value.Value,
-                distribution?.Value ?? monteCarlo.Distribution);
+                distribution?.Value ?? monteCarlo.Distribution)
+            {
+                Sequential = sequential?.Value ?? false,
+                MaxSamples = maxSamples is null ? MonteCarloSettings.DefaultMaxSamples : (int)maxSamples.Value.Value,
+            };
+            if (maxSamples is not null && monteCarlo.MaxSamples < monteCarlo.Samples)
+            {
+                diagnostics.Add(DesignFileDiagnostics.OutOfRange.At(maxSamples.Span, maxSamples.Value.Format(), "max-samples",
+                    $"the cap must be at least the batch size 'samples' ({monteCarlo.Samples.ToString(CultureInfo.InvariantCulture)})"));
+                monteCarlo = monteCarlo with { MaxSamples = monteCarlo.Samples };
+            }
         }
 
         header?.Finish();

@@ -30,8 +30,20 @@ public enum ToleranceDistribution
 /// <param name="Distribution">How tolerances are sampled.</param>
 public sealed record MonteCarloSettings(int Samples, int Seed, ToleranceDistribution Distribution)
 {
+    /// <summary>The sample cap of sequential sampling when the rule-set file gives none.</summary>
+    public const int DefaultMaxSamples = 50_000;
+
     /// <summary>1,000 samples, seed 1, normal distribution.</summary>
     public static MonteCarloSettings Default { get; } = new(1000, 1, ToleranceDistribution.Normal);
+
+    /// <summary>
+    /// Keep drawing batches of <see cref="Samples"/> while a yield requirement is neither shown nor refuted, up to
+    /// <see cref="MaxSamples"/>. Sample i is the same whether it is drawn in the first batch or a later one.
+    /// </summary>
+    public bool Sequential { get; init; }
+
+    /// <summary>The most samples a stage may draw when <see cref="Sequential"/> is on.</summary>
+    public int MaxSamples { get; init; } = DefaultMaxSamples;
 }
 
 /// <summary>A change to one rule: its level and any thresholds.</summary>

@@ -16,6 +16,7 @@ internal sealed class DesignEvaluation
     private readonly List<Finding> findings = [];
     private readonly Dictionary<string, List<Figure>> figures = new(StringComparer.Ordinal);
     private readonly Dictionary<string, SampleDistribution> distributions = new(StringComparer.Ordinal);
+    private readonly List<YieldEstimate> yields = [];
     private readonly RuleSet ruleSet;
 
     public DesignEvaluation(Design design, RuleSet ruleSet)
@@ -65,6 +66,24 @@ internal sealed class DesignEvaluation
             distributions.TryAdd(stageId, distribution);
         }
     }
+
+    /// <summary>Records a stage's yield estimate and verdict for the pages and the JSON report; a stage keeps the first.</summary>
+    public void RecordYield(YieldEstimate estimate)
+    {
+        lock (yields)
+        {
+            if (yields.All(y => y.StageId != estimate.StageId))
+            {
+                yields.Add(estimate);
+            }
+        }
+    }
+
+    /// <summary>The recorded yield estimates, in the order they were judged.</summary>
+    public IReadOnlyList<YieldEstimate> Yields => yields;
+
+    /// <summary>The rule-set file in force, or null when the defaults apply.</summary>
+    public string? RuleSetFile => ruleSet.File;
 
     /// <summary>The recorded Monte Carlo distributions, per stage id.</summary>
     public IReadOnlyDictionary<string, SampleDistribution> Distributions => distributions;

@@ -1,10 +1,13 @@
-using DesignRules.Model;
+using System.Globalization;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Catalogue.Tolerance;
 
-/// <summary>DR402: the seeded Monte Carlo yield of a stage with an accuracy requirement against its required yield.</summary>
+/// <summary>
+/// DR402: the seeded Monte Carlo yield of a stage with an accuracy requirement refutes its required yield — the upper
+/// bound of the two-sided Clopper–Pearson interval stays below it. (A yield the samples neither show nor refute is DR406.)
+/// </summary>
 internal sealed class MonteCarloYieldRule : Rule
 {
     public override string Id => "DR402";
@@ -14,44 +17,47 @@ internal sealed class MonteCarloYieldRule : Rule
         foreach (var stage in ToleranceAnalyses.Stages(evaluation))
         {
             string id = stage.StageId;
-            if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || !evaluation.IsOn(Id, id))
+            if (!evaluation.IsOn(Id, id) || YieldJudgement.Of(evaluation, stage) is not { } judgement)
             {
                 continue;
             }
 
-            var analysis = ToleranceAnalyses.WorstCase(evaluation, stage);
-            if (ToleranceAnalyses.ReportFailure(evaluation, analysis) || analysis.Target.Kind == TransferKind.Average || !(analysis.Metric.FullScale > 0))
+            var estimate = judgement.Estimate;
+            if (estimate.Verdict != YieldVerdict.Failed)
             {
                 continue;
             }
 
-            var monteCarlo = ToleranceAnalyses.MonteCarlo(evaluation, stage);
-            double yield = monteCarlo.YieldWithin(accuracy);
-            evaluation.Record(id, "Monte Carlo yield", yield, "%");
-            evaluation.Record(id, "Monte Carlo samples", monteCarlo.Samples, "1");
-            if (monteCarlo.Unsolved > 0) evaluation.Record(id, "Monte Carlo unsolved samples", monteCarlo.Unsolved, "1");
-            evaluation.RecordDistribution(id, new SampleDistribution(
-                "transfer error (%)", "%", monteCarlo.Errors.Where(double.IsFinite).Select(e => e * 100).ToArray(), null, accuracy * 100));
-            var required = stage.Stage.Requirements.Yield;
-            double limit = required?.Value.Value ?? evaluation.Threshold(Id, "min-yield", id);
-            if (yield >= limit)
-            {
-                continue;
-            }
-
+            var analysis = judgement.Analysis;
             var (level, scale) = (analysis.TransferError.Index, analysis.Metric.FullScale);
             var (dominant, _) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design);
-            var fallback = required?.Span ?? stage.Stage.Requirements.Accuracy!.Span;
+            var fallback = stage.Stage.Requirements.Yield?.Span ?? stage.Stage.Requirements.Accuracy!.Span;
             evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, fallback), new Dictionary<string, string>
             {
                 ["stage"] = id,
-                ["accuracy"] = Say.Percent(accuracy),
-                ["yield"] = Say.Percent(yield),
-                ["samples"] = monteCarlo.Samples.ToString(System.Globalization.CultureInfo.InvariantCulture),
-                ["seed"] = monteCarlo.Seed.ToString(System.Globalization.CultureInfo.InvariantCulture),
-                ["limit"] = Say.Percent(limit),
+                ["accuracy"] = Say.Percent(estimate.Accuracy),
+                ["yield"] = YieldEstimate.Pct(estimate.Yield),
+                ["samples"] = estimate.Samples.ToString("N0", CultureInfo.InvariantCulture),
+                ["seed"] = estimate.Seed.ToString(CultureInfo.InvariantCulture),
+                ["confidence"] = YieldEstimate.Pct(estimate.Confidence),
+                ["upper"] = YieldEstimate.Pct(estimate.Upper),
+                ["limit"] = YieldEstimate.Pct(estimate.Required),
                 ["cause"] = dominant is null ? "the nominal transfer" : dominant.What,
-            }, new Figure("Monte Carlo yield", yield, "%"), new Figure("required yield", limit, "1"));
+            }, YieldFigures.Of(estimate));
         }
     }
+}
+
+/// <summary>The figures both yield findings carry: the yield, its interval, the level, the samples and the requirement.</summary>
+internal static class YieldFigures
+{
+    public static Figure[] Of(YieldEstimate e) =>
+    [
+        new("Monte Carlo yield", e.Yield, "1"),
+        new("yield lower bound", e.Lower, "1"),
+        new("yield upper bound", e.Upper, "1"),
+        new("confidence level", e.Confidence, "1"),
+        new("samples", e.Samples, "1"),
+        new("required yield", e.Required, "1"),
+    ];
 }

@@ -78,17 +78,31 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
     public int Unsolved => Errors.Count(double.IsNaN);
 
     /// <summary>Fraction of samples whose error is within <paramref name="accuracy"/>.</summary>
-    public double YieldWithin(double accuracy) => Samples == 0 ? double.NaN : (double)Errors.Count(e => e <= accuracy) / Samples;
+    public double YieldWithin(double accuracy) => Samples == 0 ? double.NaN : (double)PassingWithin(accuracy) / Samples;
 
-    public static MonteCarloYield Run(Design design, ElaborationOptions baseline, WorstCaseAnalysis worstCase, MonteCarloSettings settings, int maxDegreeOfParallelism = -1)
+    /// <summary>Samples whose error is within <paramref name="accuracy"/> (unsolved samples fail).</summary>
+    public int PassingWithin(double accuracy) => Errors.Count(e => e <= accuracy);
+
+    /// <summary>These samples followed by <paramref name="more"/>, drawn from the next sample indices.</summary>
+    public MonteCarloYield Append(MonteCarloYield more) =>
+        new(Samples + more.Samples, Seed, Distribution, [.. Errors, .. more.Errors], [.. Gains, .. more.Gains]);
+
+    public static MonteCarloYield Run(Design design, ElaborationOptions baseline, WorstCaseAnalysis worstCase, MonteCarloSettings settings, int maxDegreeOfParallelism = -1) =>
+        Run(design, baseline, worstCase, settings, 0, Math.Max(0, settings.Samples), maxDegreeOfParallelism);
+
+    /// <summary>
+    /// Draws samples <paramref name="first"/> … <paramref name="first"/> + <paramref name="count"/> − 1. Sample i is
+    /// the same whichever batch draws it, so a run in batches equals one run of the whole count.
+    /// </summary>
+    public static MonteCarloYield Run(Design design, ElaborationOptions baseline, WorstCaseAnalysis worstCase, MonteCarloSettings settings, int first, int count, int maxDegreeOfParallelism = -1)
     {
-        int samples = Math.Max(0, settings.Samples);
+        int samples = Math.Max(0, count);
         var variables = worstCase.Variables;
         var errors = new double[samples];
         var gains = new double[samples];
         Parallel.For(0, samples, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, i =>
         {
-            var random = SampleDraws.For(settings.Seed, worstCase.Stage.StageId, i);
+            var random = SampleDraws.For(settings.Seed, worstCase.Stage.StageId, first + i);
             var v = variables.Nominal;
             for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
             for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);

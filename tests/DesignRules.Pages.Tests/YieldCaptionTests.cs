@@ -1,0 +1,22 @@
+namespace DesignRules.Pages.Tests;
+
+/// <summary>A stage judged against a yield shows the yield with its Clopper–Pearson interval and the sample count.</summary>
+public sealed class YieldCaptionTests
+{
+    [Fact]
+    public void The_monte_carlo_histogram_caption_states_the_interval_and_the_samples()
+    {
+        var (folder, _) = ExamplePages.Render();
+        var page = File.ReadAllLines(Path.Combine(folder, "door-impact-peak-hold.md"));
+
+        var image = Array.FindIndex(page, l => l.StartsWith("![Monte Carlo distribution of stage peak-hold]", StringComparison.Ordinal));
+        Assert.True(image >= 0, "no Monte Carlo histogram on the page");
+        var caption = page[image + 2];
+
+        // 1,000 clean samples: the two-sided 95 % Clopper–Pearson lower bound is 0.025^(1/1000) = 99.63 % (closed form
+        // of the Beta(1000, 1) quantile).
+        Assert.Equal("*Yield 100 % (1,000 of 1,000 samples, seed 20261202); 95 % confidence interval 99.63 % to 100 % (Clopper–Pearson); required 99 %: met.*", caption);
+        Assert.Contains(page, l => l == "| Monte Carlo yield lower bound | 99.63 % |");
+        Assert.Contains(page, l => l == "| Monte Carlo samples | 1000 |");
+    }
+}
