@@ -20,3 +20,25 @@ public sealed class YieldCaptionTests
         Assert.Contains(page, l => l == "| Monte Carlo samples | 1000 |");
     }
 }
+
+/// <summary>A yield requirement the samples neither show nor refute reads "not shown" on the page, not "met" or "not met".</summary>
+public sealed class YieldNotShownPageTests
+{
+    [Fact]
+    public void A_requirement_the_samples_cannot_decide_is_marked_not_shown()
+    {
+        // The rules' fixture whose true yield is 99.51 % (by formula, see its header) against 99 %, with 1,000 samples.
+        var fixtures = Path.Combine(ExamplePages.RepositoryRoot(), "tests", "DesignRules.Rules.Tests", "Fixtures");
+        var report = DesignRules.Rules.DesignCheck.Run(
+            [Path.Combine(fixtures, "tolerance", "yield-near-99p5.yaml")],
+            new DesignRules.Rules.CheckOptions(Path.Combine(fixtures, "rule-sets", "yield-1000-uniform.yaml"), new DateOnly(2026, 12, 1)));
+        var folder = Path.Combine(Path.GetTempPath(), "designrules-pages-" + Guid.NewGuid().ToString("N"));
+
+        var result = DatasheetPages.Write(report, new PageOptions(folder, null, ExamplePages.RepositoryRoot()));
+
+        Assert.Empty(result.Diagnostics);
+        var page = File.ReadAllLines(Path.Combine(folder, "yield-near-99p5.md"));
+        Assert.Contains(page, l => l == "| amp | yield | 99 % | not shown (DR406) |");
+        Assert.Contains(page, l => l.StartsWith("*Yield ", StringComparison.Ordinal) && l.EndsWith("required 99 %: not shown.*", StringComparison.Ordinal));
+    }
+}
