@@ -4,8 +4,10 @@ using DesignRules.Rules;
 namespace DesignRules.Reports;
 
 /// <summary>
-/// Writes a check report as a JSON document of our own (<c>designrules-findings</c>, format 1): a summary and every
-/// finding with its location, help page, waiver and figures in SI units. Deterministic bytes, like the SARIF report.
+/// Writes a check report as a JSON document of our own (<c>designrules-findings</c>, format 1): a summary, every
+/// finding with its location, help page, waiver and figures in SI units, and every checked design's key figures per stage
+/// (passing designs included, so that CI can read a design's numbers), each with the limit and margin where a rule judged
+/// it. Deterministic bytes, like the SARIF report.
 /// </summary>
 public static class JsonReport
 {
@@ -50,6 +52,36 @@ public static class JsonReport
         foreach (var f in report.Findings)
         {
             WriteFinding(w, f, settings);
+        }
+
+        w.WriteEndArray();
+        w.WriteStartArray("designs");
+        foreach (var design in report.Designs)
+        {
+            WriteDesign(w, design, settings);
+        }
+
+        w.WriteEndArray();
+        w.WriteEndObject();
+    }
+
+    /// <summary>
+    /// Writes one design's key figures: <c>{ "id", "file", "figures", "stages": [{ "id", "figures" }] }</c>, stages in signal
+    /// order, figures in the order the rules recorded them.
+    /// </summary>
+    private static void WriteDesign(Utf8JsonWriter w, DesignSummary design, ReportSettings settings)
+    {
+        w.WriteStartObject();
+        w.WriteString("id", design.Design.Id.Value);
+        w.WriteString("file", RepositoryPaths.Display(settings.RepositoryRoot, design.Design.File));
+        WriteFigures(w, design.DesignFigures);
+        w.WriteStartArray("stages");
+        foreach (var (stage, figures) in design.StageFigures)
+        {
+            w.WriteStartObject();
+            w.WriteString("id", stage);
+            WriteFigures(w, figures);
+            w.WriteEndObject();
         }
 
         w.WriteEndArray();
@@ -156,7 +188,7 @@ public static class JsonReport
         w.WriteEndArray();
     }
 
-    /// <summary>Writes <c>"figures": [{ "name", "value", "unit" }]</c> in the finding's order.</summary>
+    /// <summary>Writes <c>"figures": [{ "name", "value", "unit", "limit"?, "margin"? }]</c> in the given order; limit and margin only where a rule judged the figure.</summary>
     internal static void WriteFigures(Utf8JsonWriter w, IReadOnlyList<Figure> figures)
     {
         w.WriteStartArray("figures");
@@ -166,6 +198,12 @@ public static class JsonReport
             w.WriteString("name", figure.Name);
             ReportJson.Number(w, "value", figure.Value);
             w.WriteString("unit", figure.Unit);
+            if (figure.Limit is { } limit)
+            {
+                ReportJson.Number(w, "limit", limit);
+                ReportJson.Number(w, "margin", figure.Margin ?? double.NaN);
+            }
+
             w.WriteEndObject();
         }
 

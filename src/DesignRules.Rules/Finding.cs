@@ -36,4 +36,17 @@ public sealed record Finding(
 /// <param name="Name">What the figure is.</param>
 /// <param name="Value">Its value in SI units.</param>
 /// <param name="Unit">The SI unit symbol.</param>
-public sealed record Figure(string Name, double Value, string Unit);
+public sealed record Figure(string Name, double Value, string Unit)
+{
+    /// <summary>The limit a rule judged the figure against, in the same unit; null when no rule judged it.</summary>
+    public double? Limit { get; init; }
+
+    /// <summary>How far the figure is inside its limit, in the same unit (negative: the limit is exceeded); null without a limit.</summary>
+    public double? Margin { get; init; }
+
+    /// <summary>The figure judged against an upper limit (it must not exceed <paramref name="limit"/>).</summary>
+    public Figure AtMost(double limit) => this with { Limit = limit, Margin = limit - Value };
+
+    /// <summary>The figure judged against a lower limit (it must reach at least <paramref name="limit"/>).</summary>
+    public Figure AtLeast(double limit) => this with { Limit = limit, Margin = Value - limit };
+}

@@ -374,8 +374,10 @@ internal static class DesignReader
         var bandwidth = m.Quantity("bandwidth", Dimension.Frequency, required: false, ValueChecks.Positive);
         var offset = m.Quantity("output-offset", Dimension.Voltage, required: false, ValueChecks.Positive);
         var minSignal = m.Quantity("min-signal", Dimension.Voltage, required: false, ValueChecks.Positive);
+        var cmrr = m.Quantity("cmrr", Dimension.Ratio, required: false,
+            q => q.Value is > 1 and <= 1e12 ? null : "a common-mode rejection is above 1 (0 dB) and at most 1e12 (240 dB), e.g. 80 dB or 10k");
         m.Finish();
-        return new Requirements(transfer, gain, accuracy, glitch, yield, bandwidth, offset, minSignal, m.Span);
+        return new Requirements(transfer, gain, accuracy, glitch, yield, bandwidth, offset, minSignal, m.Span) { CommonModeRejection = cmrr };
     }
 
     private static List<Waiver> ReadWaivers(MappingReader root, List<Stage>? stages)

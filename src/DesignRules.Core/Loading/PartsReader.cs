@@ -102,6 +102,7 @@ internal static class PartsReader
         inputRangeMap?.Finish();
         var vos = ReadTypMax(m, "offset-voltage", Dimension.Voltage);
         var ib = ReadTypMax(m, "bias-current", Dimension.Current);
+        var ios = ReadTypMax(m, "offset-current", Dimension.Current, required: false);
         var minGain = m.Quantity("min-stable-gain", Dimension.Ratio, new Quantity(1, Dimension.Ratio), ValueChecks.AtLeastOne);
         var span = m.Child("supply-span", "the supply span", required: true, "minimum and maximum");
         var spanMin = span?.Quantity("minimum", Dimension.Voltage, required: true, ValueChecks.Positive);
@@ -124,7 +125,7 @@ internal static class PartsReader
         }
 
         return new AmplifierPart(id, description, typical, gbw, rising, falling, a0, secondPole, outHeadroom, headroomLoad,
-            rout, iout, inputRange, vos, ib, minGain, spanMin, spanMax, maxDiff, noise, recovery, m.Span);
+            rout, iout, inputRange, vos, ib, minGain, spanMin, spanMax, maxDiff, noise, recovery, m.Span) { OffsetCurrent = ios };
     }
 
     private static (Located<Quantity>? Rising, Located<Quantity>? Falling) ReadSlew(MappingReader m)
@@ -150,9 +151,14 @@ internal static class PartsReader
         return positive is null || negative is null ? null : new PerRail(positive, negative);
     }
 
-    private static TypicalAndMaximum? ReadTypMax(MappingReader m, string key, Dimension dimension)
+    private static TypicalAndMaximum? ReadTypMax(MappingReader m, string key, Dimension dimension, bool required = true)
     {
-        var node = m.Node(key, required: true, "typical and maximum");
+        var node = m.Node(key, required, "typical and maximum");
+        if (node is null)
+        {
+            return null;
+        }
+
         if (node is YamlScalar s)
         {
             // A single figure is taken as both typical and maximum.

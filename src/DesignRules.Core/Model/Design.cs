@@ -127,6 +127,11 @@ public sealed record Requirements(
     Located<Quantity>? MinSignal,
     SourceSpan Span)
 {
+    /// <summary>
+    /// Lowest allowed worst-case common-mode rejection (a plain ratio; <c>cmrr: 80 dB</c> is 10 000) of a difference stage.
+    /// </summary>
+    public Located<Quantity>? CommonModeRejection { get; init; }
+
     /// <summary>No requirement at all.</summary>
     public static Requirements None(SourceSpan span) => new(null, null, null, null, null, null, null, null, span);
 }

@@ -58,7 +58,14 @@ public sealed record AmplifierPart(
     Located<Quantity>? MaxDifferentialInput,
     Located<Quantity>? NoiseDensity,
     Located<Quantity>? OverloadRecovery,
-    SourceSpan Span);
+    SourceSpan Span)
+{
+    /// <summary>
+    /// Input offset current (the difference of the two inputs' bias currents), if the part states it; without it the
+    /// offset budget takes the two bias currents as equal.
+    /// </summary>
+    public TypicalAndMaximum? OffsetCurrent { get; init; }
+}
 
 /// <summary>A diode class or part. Either a saturation current and emission coefficient or a forward-voltage point is given.</summary>
 /// <param name="Id">The part id.</param>

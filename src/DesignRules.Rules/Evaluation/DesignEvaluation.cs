@@ -38,8 +38,12 @@ internal sealed class DesignEvaluation
     /// Records a key figure of a stage (or of the design, with a null stage) for the reports, whether or not a rule
     /// fires: e.g. ("slew demanded at stage.u1.out", 14.2e6, "V/s"). A figure recorded twice keeps the first value.
     /// </summary>
-    public void Record(string? stageId, string name, double value, string unit)
+    public void Record(string? stageId, string name, double value, string unit) => Record(stageId, new Figure(name, value, unit));
+
+    /// <summary>Records a key figure with the limit a rule judged it against (<see cref="Figure.AtMost"/>, <see cref="Figure.AtLeast"/>).</summary>
+    public void Record(string? stageId, Figure figure)
     {
+        var name = figure.Name;
         var key = stageId ?? string.Empty;
         lock (figures)
         {
@@ -50,7 +54,7 @@ internal sealed class DesignEvaluation
 
             if (list.All(f => f.Name != name))
             {
-                list.Add(new Figure(name, value, unit));
+                list.Add(figure);
             }
         }
     }

@@ -51,7 +51,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
             var required = chainBandwidth.Value.Value;
             if (bandwidth is { } bw)
             {
-                evaluation.Record(null, "closed-loop bandwidth of the chain", bw, "Hz");
+                evaluation.Record(null, new Figure("closed-loop bandwidth of the chain", bw, "Hz").AtLeast(required));
             }
 
             if (bandwidth is { } found && found < required)
@@ -71,19 +71,20 @@ internal sealed class ClosedLoopBandwidthRule : Rule
         Complex? atTop, double? top, SourceSpan span)
     {
         var bandwidth = Bandwidth(sweep, response);
+        var required = requirements.Bandwidth?.Value.Value;
         if (bandwidth is { } bw)
         {
-            evaluation.Record(stageId, "closed-loop bandwidth", bw, "Hz");
+            var figure = new Figure("closed-loop bandwidth", bw, "Hz");
+            evaluation.Record(stageId, required is { } atLeast ? figure.AtLeast(atLeast) : figure);
         }
 
         double reference = Reference(sweep, response, top);
         double error = atTop is { } h && reference > 0 ? Math.Abs((h.Magnitude / reference) - 1) : 0;
         if (top is not null)
         {
-            evaluation.Record(stageId, "gain error at the band top", error, "%");
+            evaluation.Record(stageId, new Figure("gain error at the band top", error, "%").AtMost(accuracy));
         }
 
-        var required = requirements.Bandwidth?.Value.Value;
         bool short_ = required is { } r && (bandwidth ?? double.PositiveInfinity) < r;
         if (error <= accuracy && !short_)
         {

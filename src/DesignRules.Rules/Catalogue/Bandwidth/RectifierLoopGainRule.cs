@@ -57,8 +57,8 @@ internal sealed class RectifierLoopGainRule : Rule
         double signal = (minSignal ?? inputLevel) * gain;
         double relative = signal > 0 ? outputError / signal : double.PositiveInfinity;
         evaluation.Record(stageId, $"loop gain at the band top {amp.Slot}", loopGain, "1");
-        evaluation.Record(stageId, "rectifier error at the band top", relative, "%");
         double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
+        evaluation.Record(stageId, new Figure("rectifier error at the band top", relative, "%").AtMost(accuracy));
         if (relative <= accuracy)
         {
             return;

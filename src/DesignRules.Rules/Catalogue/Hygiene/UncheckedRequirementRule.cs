@@ -37,6 +37,14 @@ internal sealed class UncheckedRequirementRule : Rule
                 Report(evaluation, stage.Id.Value, r.Yield.Span, "yield", target, "a yield needs an accuracy to count samples against");
             }
 
+            // DR403 measures common-mode rejection only where the chain feeds a difference stage from a split source.
+            bool splitFed = design.Source.CommonMode is not null && design.Stages[0] == stage && stage is BlockStage { Block.Name: "difference" };
+            if (r.CommonModeRejection is not null && !splitFed)
+            {
+                Report(evaluation, stage.Id.Value, r.CommonModeRejection.Span, "cmrr", target,
+                    "common-mode rejection is measured on a difference stage that is the first stage, fed from a source with a `common-mode` level");
+            }
+
             if (r.Transfer is { Value: TransferKind.Average } && r.Accuracy is not null)
             {
                 Report(evaluation, stage.Id.Value, r.Accuracy.Span, "accuracy", target, "the accuracy of an average transfer is not yet computed");
@@ -50,7 +58,7 @@ internal sealed class UncheckedRequirementRule : Rule
                  {
                      ("transfer", chain.Transfer?.Span), ("gain", chain.Gain?.Span), ("accuracy", chain.Accuracy?.Span),
                      ("glitch", chain.Glitch?.Span), ("yield", chain.Yield?.Span), ("bandwidth", linearChain ? null : chain.Bandwidth?.Span),
-                     ("output-offset", chain.OutputOffset?.Span), ("min-signal", chain.MinSignal?.Span),
+                     ("output-offset", chain.OutputOffset?.Span), ("min-signal", chain.MinSignal?.Span), ("cmrr", chain.CommonModeRejection?.Span),
                  })
         {
             if (span is not null)

@@ -45,8 +45,8 @@ internal sealed class HighImpedanceOutputRule : Rule
         foreach (var (stageId, error) in worst.OrderBy(w => w.Key, StringComparer.Ordinal))
         {
             var stage = probes[stageId];
-            evaluation.Record(stageId, "output error while the diode is off", error, "%");
             double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
+            evaluation.Record(stageId, new Figure("output error while the diode is off", error, "%").AtMost(accuracy));
             if (error <= accuracy)
             {
                 continue;

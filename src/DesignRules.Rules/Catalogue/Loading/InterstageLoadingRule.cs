@@ -54,13 +54,14 @@ internal sealed class InterstageLoadingRule : Rule
                 continue;
             }
 
-            evaluation.Record(stage.StageId, "loading loss at the output", worst.Error, "%");
             bool last = k + 1 == stages.Count;
             double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
             if (!last)
             {
                 accuracy = Math.Min(accuracy, StageFacts.Accuracy(evaluation, Id, stages[k + 1].Stage));
             }
+
+            evaluation.Record(stage.StageId, new Figure("loading loss at the output", worst.Error, "%").AtMost(accuracy));
 
             if (worst.Error <= accuracy)
             {

@@ -33,10 +33,10 @@ internal sealed class OutputCurrentRule : Rule
         foreach (var (id, (peak, stage, amp)) in peaks.OrderBy(p => p.Key, StringComparer.Ordinal))
         {
             var stageId = stage.StageId;
-            evaluation.Record(stageId, $"peak output current {amp.Slot}", peak, "A");
             double rating = amp.Part.OutputCurrent.Value.Value;
             double derating = evaluation.Threshold(Id, "derating", stageId);
             double limit = rating * derating;
+            evaluation.Record(stageId, new Figure($"peak output current {amp.Slot}", peak, "A").AtMost(limit));
             if (peak <= limit)
             {
                 continue;

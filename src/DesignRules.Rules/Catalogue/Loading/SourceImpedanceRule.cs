@@ -82,8 +82,8 @@ internal sealed class SourceImpedanceRule : Rule
         }
 
         var stageId = first.StageId;
-        evaluation.Record(stageId, "source loading loss", error, "%");
         double accuracy = StageFacts.Accuracy(evaluation, Id, first.Stage);
+        evaluation.Record(stageId, new Figure("source loading loss", error, "%").AtMost(accuracy));
         if (error <= accuracy)
         {
             return;

@@ -41,7 +41,7 @@ internal sealed class CommonModeRangeRule : Rule
         foreach (var x in order.Select(n => worst[n]))
         {
             var a = x.Amplifier;
-            evaluation.Record(a.Stage.StageId, $"input common-mode margin {a.Probe.Slot}", -x.Over, "V");
+            evaluation.Record(a.Stage.StageId, new Figure($"input common-mode margin {a.Probe.Slot}", -x.Over, "V").AtLeast(0));
             if (x.Over <= 0)
             {
                 continue;

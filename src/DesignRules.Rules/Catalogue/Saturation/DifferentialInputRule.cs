@@ -31,7 +31,8 @@ internal sealed class DifferentialInputRule : Rule
 
         foreach (var a in order.Select(n => worst[n]))
         {
-            evaluation.Record(a.Stage.StageId, $"peak differential input {a.Probe.Slot}", a.PeakDifferentialInput, "V");
+            var peak = new Figure($"peak differential input {a.Probe.Slot}", a.PeakDifferentialInput, "V");
+            evaluation.Record(a.Stage.StageId, a.Probe.Part.MaxDifferentialInput is { } maximum ? peak.AtMost(maximum.Value.Value) : peak);
             if (a.Probe.Part.MaxDifferentialInput is not { } rating || a.PeakDifferentialInput <= rating.Value.Value)
             {
                 continue;

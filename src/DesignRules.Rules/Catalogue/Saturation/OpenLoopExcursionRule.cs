@@ -49,8 +49,8 @@ internal sealed class OpenLoopExcursionRule : Rule
             var a = x.Amplifier;
             var stageId = a.Stage.StageId;
             evaluation.Record(stageId, $"open-loop excursion {a.Probe.Slot}", x.Excursion, "V");
-            evaluation.Record(stageId, $"recovery time {a.Probe.Slot}", x.Recovery, "s");
             double limit = evaluation.Threshold(Id, "max-fraction", stageId);
+            evaluation.Record(stageId, new Figure($"recovery time {a.Probe.Slot}", x.Recovery, "s").AtMost(limit / x.Frequency));
             if (x.Fraction <= limit)
             {
                 continue;

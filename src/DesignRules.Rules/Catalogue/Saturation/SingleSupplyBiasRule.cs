@@ -17,7 +17,7 @@ internal sealed class SingleSupplyBiasRule : Rule
         var design = evaluation.Design;
         foreach (var s in SingleSupply.Stages(evaluation))
         {
-            evaluation.Record(s.Stage.StageId, "single-supply input headroom", s.Minimum - s.Limit, "V");
+            evaluation.Record(s.Stage.StageId, new Figure("single-supply input headroom", s.Minimum - s.Limit, "V").AtLeast(0));
             if (!s.NeedsBias)
             {
                 continue;

@@ -25,12 +25,12 @@ internal sealed class FullPowerBandwidthRule : Rule
             var stageId = a.Stage.StageId;
             double peak = a.PeakExcursion;
             double fpbw = peak > 0 ? a.SlewSlower / (2 * Math.PI * peak) : double.PositiveInfinity;
+            double limit = frequency * evaluation.Threshold(Id, "min-ratio", stageId);
             if (double.IsFinite(fpbw))
             {
-                evaluation.Record(stageId, $"full-power bandwidth {a.Probe.Slot}", fpbw, "Hz");
+                evaluation.Record(stageId, new Figure($"full-power bandwidth {a.Probe.Slot}", fpbw, "Hz").AtLeast(limit));
             }
 
-            double limit = frequency * evaluation.Threshold(Id, "min-ratio", stageId);
             if (fpbw >= limit)
             {
                 continue;

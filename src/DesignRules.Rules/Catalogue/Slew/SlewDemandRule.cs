@@ -52,7 +52,8 @@ internal sealed class SlewDemandRule : Rule
         foreach (var d in order.Select(n => worst[n]))
         {
             var a = d.Amplifier;
-            evaluation.Record(a.Stage.StageId, $"slew demanded at {a.Node}", d.Rate, "V/s");
+            var demanded = new Figure($"slew demanded at {a.Node}", d.Rate, "V/s");
+            evaluation.Record(a.Stage.StageId, d.Event is { } judged ? demanded.AtMost(judged.Rising ? a.SlewRising : a.SlewFalling) : demanded);
             if (d.Event is not { } e || d.Ratio <= 1)
             {
                 continue;

@@ -53,7 +53,7 @@ internal sealed class ZeroCrossingGlitchRule : Rule
         foreach (var stageId in order)
         {
             var g = worst[stageId];
-            evaluation.Record(stageId, "zero-crossing glitch", g.Measured.Width, "s");
+            evaluation.Record(stageId, new Figure("zero-crossing glitch", g.Measured.Width, "s").AtMost(g.Limit));
             if (g.Ratio <= 1)
             {
                 continue;

@@ -57,15 +57,17 @@ internal sealed class ResistorPowerRule : Rule
             foreach (var r in stage.Components.Where(c => c.Kind == ElementKind.Resistor && power.ContainsKey(c.ElementId)))
             {
                 double p = power[r.ElementId];
-                evaluation.Record(stage.StageId, $"power in {r.Name}", p, "W");
+                var figure = new Figure($"power in {r.Name}", p, "W");
                 if (r.ResistorFamily is not { } family)
                 {
+                    evaluation.Record(stage.StageId, figure);
                     continue;
                 }
 
                 double rating = family.PowerRating.Value.Value;
                 double derating = evaluation.Threshold(Id, "derating", stage.StageId);
                 double limit = rating * derating;
+                evaluation.Record(stage.StageId, figure.AtMost(limit));
                 if (p <= limit)
                 {
                     continue;

@@ -4,8 +4,9 @@ using DesignRules.Rules.Evaluation.Tolerance;
 namespace DesignRules.Rules.Catalogue.Tolerance;
 
 /// <summary>
-/// DR403: a difference stage fed from a split source: its worst-case common-mode rejection over the resistor corners and
-/// the output error the source's common-mode level then causes, against the accuracy.
+/// DR403: a difference stage fed from a split source: its worst-case common-mode rejection over the resistor corners
+/// against the stage's <c>cmrr</c> requirement, and the output error the source's common-mode level then causes against
+/// the accuracy. One finding per stage: a rejection below the requirement is reported first, with the output error beside it.
 /// </summary>
 internal sealed class CommonModeRejectionRule : Rule
 {
@@ -25,27 +26,49 @@ internal sealed class CommonModeRejectionRule : Rule
             double cmrr = analysis.WorstCommonModeRejection;
             double level = evaluation.Design.Source.CommonMode!.Value.Value;
             double error = level == 0 ? 0 : analysis.CommonModeShift.Magnitude;
-            if (double.IsFinite(cmrr)) evaluation.Record(id, "worst-case common-mode rejection", cmrr, "1");
-            evaluation.Record(id, "common-mode output error", error, "V");
             double accuracy = ToleranceAnalyses.Accuracy(stage) ?? evaluation.Threshold(Id, "default-accuracy", id);
             double limit = accuracy * analysis.Metric.FullScale;
-            if (!(error > limit))
+            var required = stage.Stage.Requirements.CommonModeRejection;
+            if (double.IsFinite(cmrr))
+            {
+                var rejection = new Figure("worst-case common-mode rejection", cmrr, "1");
+                evaluation.Record(id, required is { } atLeast ? rejection.AtLeast(atLeast.Value.Value) : rejection);
+            }
+
+            evaluation.Record(id, new Figure("common-mode output error", error, "V").AtMost(limit));
+            bool rejectsTooLittle = required is { } r && cmrr < r.Value.Value;
+            if (!(error > limit) && !rejectsTooLittle)
             {
                 continue;
             }
 
             double tolerance = analysis.Variables.Resistors.Select(r => r.Tolerance).DefaultIfEmpty(0).Max();
             var (dominant, _) = ToleranceAnalyses.Breakdown(analysis, f => f.CommonModeShift, 1, evaluation.Design);
-            var fallback = stage.Stage.Requirements.Accuracy?.Span ?? stage.Stage.Span;
+            var fallback = rejectsTooLittle ? required!.Span : stage.Stage.Requirements.Accuracy?.Span ?? stage.Stage.Span;
+            var shift = $"the {Say.Volts(level)} common-mode level then moves the output by {Say.Volts(error)} "
+                + $"({Say.Volts(limit)}, {Say.Percent(accuracy)} of the {Say.Volts(analysis.Metric.FullScale)} full scale, allowed)";
+            string consequence = rejectsTooLittle
+                ? $"at least {Say.Ratio(required!.Value.Value)} ({Say.Decibels(required.Value.Value)}) is required, "
+                    + $"{(20 * Math.Log10(required.Value.Value / cmrr)).ToString("0.#", System.Globalization.CultureInfo.InvariantCulture)} dB short; {shift}"
+                : shift;
+            var figures = new List<Figure>
+            {
+                new("worst-case common-mode rejection", cmrr, "1"),
+                new("common-mode output error", error, "V"),
+                new("allowed error", limit, "V"),
+            };
+            if (required is not null)
+            {
+                figures.Add(new Figure("required common-mode rejection", required.Value.Value, "1"));
+            }
+
             evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, fallback), new Dictionary<string, string>
             {
                 ["stage"] = id,
                 ["cmrr"] = $"{Say.Ratio(cmrr)} ({Say.Decibels(cmrr)})",
                 ["tolerance"] = Say.Percent(tolerance),
-                ["vcm"] = Say.Volts(level),
-                ["error"] = Say.Volts(error),
-                ["limit"] = $"{Say.Volts(limit)}, {Say.Percent(accuracy)} of the {Say.Volts(analysis.Metric.FullScale)} full scale",
-            }, new Figure("common-mode output error", error, "V"), new Figure("allowed error", limit, "V"), new Figure("worst-case common-mode rejection", cmrr, "1"));
+                ["consequence"] = consequence,
+            }, [.. figures]);
         }
     }
 }

@@ -23,7 +23,8 @@ internal sealed class HalfCycleSymmetryRule : Rule
             double scale = Math.Abs(analysis.Target.SlopePositive);
             double mismatch = analysis.Mismatch.Magnitude / scale;
             if (double.IsNaN(mismatch)) continue;
-            evaluation.Record(id, "worst-case half-cycle mismatch", mismatch, "%");
+            var figure = new Figure("worst-case half-cycle mismatch", mismatch, "%");
+            evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed ? figure.AtMost(allowed) : figure);
             if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || mismatch <= accuracy)
             {
                 continue;

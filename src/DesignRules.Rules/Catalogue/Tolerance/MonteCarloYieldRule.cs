@@ -30,7 +30,7 @@ internal sealed class MonteCarloYieldRule : Rule
 
             var analysis = judgement.Analysis;
             var (level, scale) = (analysis.TransferError.Index, analysis.Metric.FullScale);
-            var (dominant, _) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design);
+            var (dominant, _) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design, also: ToleranceAnalyses.HoldDroop(analysis));
             var fallback = stage.Stage.Requirements.Yield?.Span ?? stage.Stage.Requirements.Accuracy!.Span;
             evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, fallback), new Dictionary<string, string>
             {

@@ -17,7 +17,8 @@ internal sealed class OutputOffsetRule : Rule
             if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
             double offset = analysis.OutputOffset;
             if (double.IsNaN(offset)) continue;
-            evaluation.Record(id, "worst-case output offset", offset, "V");
+            var figure = new Figure("worst-case output offset", offset, "V");
+            evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
             if (stage.Stage.Requirements.OutputOffset is not { } required || offset <= required.Value.Value)
             {
                 continue;

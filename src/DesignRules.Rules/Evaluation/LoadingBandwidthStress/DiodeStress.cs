@@ -28,10 +28,10 @@ internal static class DiodeStress
 
         foreach (var (id, (value, stage, diode)) in worst.OrderBy(w => w.Key, StringComparer.Ordinal))
         {
-            evaluation.Record(stage.StageId, $"{figureName} {diode.Slot}", value, unit);
             double rated = rating(diode);
             double derating = evaluation.Threshold(ruleId, "derating", stage.StageId);
             double limit = rated * derating;
+            evaluation.Record(stage.StageId, new Figure($"{figureName} {diode.Slot}", value, unit).AtMost(limit));
             if (value <= limit)
             {
                 continue;

@@ -108,6 +108,12 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
             for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
             for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
             for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+
+            // Drawn last and only for parts that state one, so that samples of designs without offset currents stay as they were.
+            for (int k = 0; k < v.OffsetCurrents.Length; k++)
+            {
+                if (variables.Amplifiers[k].MaximumOffsetCurrent > 0) v.OffsetCurrents[k] = SampleDraws.Unit(random, settings.Distribution);
+            }
             var transfer = DcTransfer.Measure(design, variables.Options(baseline, v), worstCase.Plan);
             if (!transfer.Succeeded)
             {

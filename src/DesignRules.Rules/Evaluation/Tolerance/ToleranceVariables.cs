@@ -16,7 +16,11 @@ internal sealed record ResistorVariable(string ElementId, string Name, double No
 /// <param name="ElementId">Engine element id (<c>stage.u1</c>).</param>
 /// <param name="MaximumOffset">The part's maximum offset voltage, V.</param>
 /// <param name="MaximumBias">The part's maximum bias current, A.</param>
-internal sealed record AmplifierVariable(string ElementId, double MaximumOffset, double MaximumBias);
+/// <param name="MaximumOffsetCurrent">
+/// The part's maximum input offset current (|Ib+ − Ib−|), A; 0 when the part states none, so that the two inputs' bias
+/// currents are taken as equal.
+/// </param>
+internal sealed record AmplifierVariable(string ElementId, double MaximumOffset, double MaximumBias, double MaximumOffsetCurrent);
 
 /// <summary>A diode whose forward voltage may lie anywhere in the nominal ± <see cref="DiodeSpread.ForwardVoltage"/>.</summary>
 /// <param name="ElementId">Engine element id (<c>stage.d1</c>).</param>
@@ -40,13 +44,18 @@ internal static class DiodeSpread
 
 /// <summary>
 /// One assignment of every variable of a stage: each a signed fraction of its extreme (−1 … +1): a resistor at
-/// nominal·(1 + u·t), an offset at u·Vos,max, bias currents u·Ib,max into both inputs, a diode at Vf + u·spread.
+/// nominal·(1 + u·t), an offset at u·Vos,max, bias currents u·Ib,max into both inputs, an offset current w·Ios,max split
+/// between them (Ib+ = Ib + w·Ios/2, Ib− = Ib − w·Ios/2), a diode at Vf + u·spread.
 /// </summary>
 /// <param name="Resistors">Per resistor variable, in order.</param>
 /// <param name="Offsets">Per amplifier variable.</param>
 /// <param name="Biases">Per amplifier variable.</param>
 /// <param name="Diodes">Per diode variable.</param>
-internal sealed record Variation(double[] Resistors, double[] Offsets, double[] Biases, double[] Diodes);
+internal sealed record Variation(double[] Resistors, double[] Offsets, double[] Biases, double[] Diodes)
+{
+    /// <summary>Per amplifier variable: the signed fraction of its maximum offset current (all 0 unless set).</summary>
+    public required double[] OffsetCurrents { get; init; }
+}
 
 /// <summary>
 /// The variables of one stage (its resistors with a tolerance, its amplifiers' offsets and bias currents, its diodes) and
@@ -64,7 +73,8 @@ internal sealed class ToleranceVariables
             .Select(c => new ResistorVariable(c.ElementId, c.Name, c.NominalValue, Math.Abs(c.ResistorFamily?.Tolerance.Value.Value ?? 0), c.Span))
             .ToArray();
         Amplifiers = stage.Amplifiers.OrderBy(a => a.ElementId, StringComparer.Ordinal)
-            .Select(a => new AmplifierVariable(a.ElementId, Math.Abs(a.Part.OffsetVoltage.Maximum.Value.Value), Math.Abs(a.Part.BiasCurrent.Maximum.Value.Value)))
+            .Select(a => new AmplifierVariable(a.ElementId, Math.Abs(a.Part.OffsetVoltage.Maximum.Value.Value), Math.Abs(a.Part.BiasCurrent.Maximum.Value.Value),
+                Math.Abs(a.Part.OffsetCurrent?.Maximum.Value.Value ?? 0)))
             .ToArray();
         Diodes = stage.Diodes.OrderBy(d => d.ElementId, StringComparer.Ordinal)
             .Select(d => new DiodeVariable(d.ElementId, d.Model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature)))
@@ -83,7 +93,10 @@ internal sealed class ToleranceVariables
     public IReadOnlyList<DiodeVariable> Diodes { get; }
 
     /// <summary>Every variable at its nominal value.</summary>
-    public Variation Nominal => new(new double[Resistors.Count], new double[Amplifiers.Count], new double[Amplifiers.Count], new double[Diodes.Count]);
+    public Variation Nominal => new(new double[Resistors.Count], new double[Amplifiers.Count], new double[Amplifiers.Count], new double[Diodes.Count])
+    {
+        OffsetCurrents = new double[Amplifiers.Count],
+    };
 
     public static ToleranceVariables Of(StageProbe stage, ElaborationOptions options) => new(stage, options.Temperature);
 
@@ -105,7 +118,8 @@ internal sealed class ToleranceVariables
         {
             offsets[Amplifiers[i].ElementId] = v.Offsets[i] * Amplifiers[i].MaximumOffset;
             double ib = v.Biases[i] * Amplifiers[i].MaximumBias;
-            biases[Amplifiers[i].ElementId] = new BiasCurrents(ib, ib);
+            double ios = v.OffsetCurrents[i] * Amplifiers[i].MaximumOffsetCurrent;
+            biases[Amplifiers[i].ElementId] = new BiasCurrents(ib + (ios / 2), ib - (ios / 2));
         }
 
         var diodes = new Dictionary<string, double>(StringComparer.Ordinal);

@@ -91,7 +91,8 @@ internal sealed class WorstCaseAnalysis
             else if (s.Amplifier >= 0)
             {
                 var a = Stage.Amplifiers.Single(p => p.ElementId == Variables.Amplifiers[s.Amplifier].ElementId);
-                yield return new Contribution($"amplifier {a.Slot} {s.Kind}", s.Kind == "offset" ? "offsets" : "bias currents", ToleranceSpans.Amplifier(design, Stage, a.Slot), plus, minus);
+                var group = s.Kind switch { "offset" => "offsets", "bias current" => "bias currents", _ => "offset currents" };
+                yield return new Contribution($"amplifier {a.Slot} {s.Kind}", group, ToleranceSpans.Amplifier(design, Stage, a.Slot), plus, minus);
             }
             else
             {
@@ -123,13 +124,14 @@ internal sealed class WorstCaseAnalysis
 
         for (int a = 0; a < variables.Amplifiers.Count; a++)
         {
-            foreach (var kind in new[] { "offset", "bias current" })
+            string[] kinds = variables.Amplifiers[a].MaximumOffsetCurrent > 0 ? ["offset", "bias current", "offset current"] : ["offset", "bias current"];
+            foreach (var kind in kinds)
             {
                 int plus = runs.Count;
                 foreach (double sign in new[] { 1.0, -1.0 })
                 {
                     var v = variables.Nominal;
-                    (kind == "offset" ? v.Offsets : v.Biases)[a] = sign;
+                    (kind switch { "offset" => v.Offsets, "bias current" => v.Biases, _ => v.OffsetCurrents })[a] = sign;
                     runs.Add(v);
                 }
 

@@ -80,7 +80,7 @@ internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield Mo
             estimate = estimate with { SamplesNeeded = ClopperPearson.SamplesToShow(estimate.Yield, required, confidence) };
         }
 
-        evaluation.Record(id, "Monte Carlo yield", estimate.Yield, "%");
+        evaluation.Record(id, new Figure("Monte Carlo yield", estimate.Yield, "%").AtLeast(required));
         evaluation.Record(id, "Monte Carlo yield lower bound", estimate.Lower, "%");
         evaluation.Record(id, "Monte Carlo yield upper bound", estimate.Upper, "%");
         evaluation.Record(id, "yield confidence level", estimate.Confidence, "%");
