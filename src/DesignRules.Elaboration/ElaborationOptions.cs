@@ -87,6 +87,12 @@ public sealed record ElaborationOptions
     /// <summary>Further per-diode saturation-current factors by diode element id (<c>rect.d1</c>), applied on top of <see cref="DiodeSaturationScale"/>.</summary>
     public IReadOnlyDictionary<string, double> DiodeSaturationScales { get; init; } = new Dictionary<string, double>(StringComparer.Ordinal);
 
+    /// <summary>
+    /// False to build every amplifier without its output current limit, so that a transient shows the current the circuit
+    /// demands of each output rather than the current a limited output delivers (default true: the part's limit applies).
+    /// </summary>
+    public bool OutputCurrentLimits { get; init; } = true;
+
     /// <summary>Periods allowed for start-up before the suggested measurement window (default 3).</summary>
     public int StartupPeriods { get; init; } = 3;
 

@@ -163,6 +163,11 @@ internal sealed class StageBuilder
         double offset = Options.OffsetVoltages.TryGetValue(id, out double vos) ? Use(id, vos) : PartModels.OffsetVoltage(part, Options.Offset);
         var bias = Options.BiasCurrents.TryGetValue(id, out var ib) ? Use(id, ib) : PartModels.BiasCurrents(part, Options.Bias);
         var model = PartModels.Amplifier(part, offset, bias);
+        if (!Options.OutputCurrentLimits)
+        {
+            model = model with { OutputCurrentLimit = null };
+        }
+
         chain.Locate(id, span);
         chain.Circuit.AddAmplifier(id, plus, minus, output, model, chain.Rails);
         amplifiers.Add(new AmplifierProbe(slot, id, plus, minus, output, part, model, chain.Rails));

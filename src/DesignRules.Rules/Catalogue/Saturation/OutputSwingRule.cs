@@ -1,4 +1,5 @@
 using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
@@ -6,7 +7,8 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// <summary>
 /// DR201: every amplifier output stays inside its swing limits (rail less the part's headroom) by the margin threshold,
 /// at the largest amplitude (the transient at every band end) with the part's maximum offset voltage added in the
-/// unfavourable direction. Amplifiers whose loop opens by design are left to DR202.
+/// unfavourable direction. Amplifiers whose loop opens by design are left to DR202, and an output that clips only because
+/// its current limit holds it (it does not clip in the run without current limits) is left to DR301, which names that cause.
 /// </summary>
 internal sealed class OutputSwingRule : Rule
 {
@@ -18,6 +20,7 @@ internal sealed class OutputSwingRule : Rule
         var order = new List<string>();
         foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
         {
+            var demands = OutputCurrentDemand.At(evaluation, band.End);
             foreach (var a in band.Amplifiers.Where(a => !OpenLoop.ByDesign(a.Stage, a.Probe)))
             {
                 double margin = evaluation.Threshold(Id, "margin", a.Stage.StageId);
@@ -25,8 +28,10 @@ internal sealed class OutputSwingRule : Rule
 
                 // An output the engine held at a limit clips whatever the offset; the drop across the output resistance
                 // may keep the pin itself a little inside the limit, so the flag decides, on the side it is nearer to.
-                bool clipsHigh = a.ReachedSwingLimit && a.SwingHigh - a.Maximum <= a.Minimum - a.SwingLow;
-                bool clipsLow = a.ReachedSwingLimit && !clipsHigh;
+                // A drive held at the swing limit only because the output current limit opened the loop is DR301's cause.
+                bool byCurrent = demands.TryGetValue(a.Name, out var demand) && demand.ClipsOnlyByCurrent;
+                bool clipsHigh = a.ReachedSwingLimit && !byCurrent && a.SwingHigh - a.Maximum <= a.Minimum - a.SwingLow;
+                bool clipsLow = a.ReachedSwingLimit && !byCurrent && !clipsHigh;
                 var high = new Swing(a, "positive", clipsHigh ? a.Maximum : a.Maximum + up, clipsHigh ? 0 : up, a.SwingHigh, a.SwingHigh - margin, margin, clipsHigh);
                 var low = new Swing(a, "negative", clipsLow ? a.Minimum : a.Minimum - down, clipsLow ? 0 : down, a.SwingLow, a.SwingLow + margin, margin, clipsLow);
                 var current = high.Over >= low.Over ? high : low;
@@ -45,7 +50,9 @@ internal sealed class OutputSwingRule : Rule
         foreach (var s in order.Select(n => worst[n]))
         {
             var a = s.Amplifier;
-            evaluation.Record(a.Stage.StageId, $"output swing margin {a.Probe.Slot}", s.Rail == "positive" ? s.Limit - s.Extreme : s.Extreme - s.Limit, "V");
+            // The room left to the swing limit, judged against the margin threshold (a clipping output has none left).
+            double room = s.Clips ? 0 : s.Rail == "positive" ? s.Limit - s.Extreme : s.Extreme - s.Limit;
+            evaluation.Record(a.Stage.StageId, new Figure($"output swing margin {a.Probe.Slot}", room, "V").AtLeast(s.Margin));
             if (s.Over <= 0 && !s.Clips)
             {
                 continue;
@@ -55,7 +62,7 @@ internal sealed class OutputSwingRule : Rule
             var notes = new List<string>();
             if (s.Clips)
             {
-                notes.Add("clipping");
+                notes.Add("clipping at the swing limit");
             }
 
             if (s.Offset > 0)

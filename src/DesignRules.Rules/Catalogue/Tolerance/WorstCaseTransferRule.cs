@@ -44,7 +44,7 @@ internal sealed class WorstCaseTransferRule : Rule
 
             var scale = analysis.Metric.FullScale;
             var extra = analysis.Metric.Dynamic is { } dyn ? $"held value in the transient {Say.Percent(dyn.Magnitude / scale)}" : null;
-            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design, extra);
+            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design, extra, ToleranceAnalyses.HoldDroop(analysis));
             var nominal = Math.Abs(analysis.Nominal.Deviations[level]);
             var span = dominant is not null && dominant.Size >= nominal ? dominant.Span : stage.Stage.Requirements.Accuracy!.Span;
             evaluation.Report(Id, id, span, new Dictionary<string, string>
@@ -54,7 +54,8 @@ internal sealed class WorstCaseTransferRule : Rule
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, new Figure("worst-case transfer error", error, "%"), new Figure("accuracy", accuracy, "1"));
+            }, [new Figure("worst-case transfer error", error, "%"), new Figure("accuracy", accuracy, "1"),
+                .. analysis.Metric.Dynamic is { } held ? [new Figure("hold droop", held.High - held.Low, "V")] : Array.Empty<Figure>()]);
         }
     }
 }

@@ -84,9 +84,15 @@ internal static class ToleranceAnalyses
     /// The variable that adds most to a figure and a breakdown by group as a fraction of <paramref name="scale"/>
     /// ("resistors 1.8 %, offsets 0.9 %"), for a message and the YAML node it points at.
     /// </summary>
-    public static (Contribution? Dominant, string Detail) Breakdown(WorstCaseAnalysis analysis, Func<StageFigures, double> figure, double scale, Design design, string? extra = null)
+    public static (Contribution? Dominant, string Detail) Breakdown(
+        WorstCaseAnalysis analysis, Func<StageFigures, double> figure, double scale, Design design, string? extra = null, Contribution? also = null)
     {
         var contributions = analysis.ContributionsTo(figure, design).ToList();
+        if (also is not null)
+        {
+            contributions.Add(also);
+        }
+
         var dominant = contributions.Where(c => c.Size > 0).OrderByDescending(c => c.Size).ThenBy(c => c.What, StringComparer.Ordinal).FirstOrDefault();
         var parts = contributions.GroupBy(c => c.Group)
             .Select(g => (g.Key, Size: g.Sum(c => c.Size) / scale))
@@ -105,6 +111,30 @@ internal static class ToleranceAnalyses
         }
         if (extra is not null) parts.Add(extra);
         return (dominant, parts.Count == 0 ? "no tolerance" : string.Join(", ", parts));
+    }
+
+    /// <summary>
+    /// A peak stage's droop as a contributor to its error: how far the held output falls below the input peak in the nominal
+    /// transient (the hold capacitor discharging through the discharge resistor and the load between peaks), pointing at the
+    /// hold capacitor's value, whose increase (or the discharge resistor's) lengthens the time constant R·C and so cuts the
+    /// droop Vp·(1 − e^(−T/RC)). Null for other stages or when the stage holds no capacitor on its output.
+    /// </summary>
+    public static Contribution? HoldDroop(WorstCaseAnalysis analysis)
+    {
+        if (analysis.Metric.Dynamic is not { } hold || !(hold.Low < 0))
+        {
+            return null;
+        }
+
+        var (name, span, through) = analysis.Stage.Stage switch
+        {
+            BlockStage b when b.Values.TryGetValue("chold", out var c) =>
+                ("chold", c.Value.Span, b.Values.ContainsKey("rdis") ? " discharging through rdis" : string.Empty),
+            NetlistStage n when n.Elements.FirstOrDefault(e => e.Kind == ElementKind.Capacitor && e.Nodes.Any(x => x.Value == n.Output.Value)) is { } e =>
+                (e.Id.Value, e.Value?.Span ?? e.Span, string.Empty),
+            _ => (null, (SourceSpan?)null, string.Empty),
+        };
+        return name is null || span is null ? null : new Contribution($"droop of hold capacitor {name}{through}", "droop", span, -hold.Low, double.NaN);
     }
 
     /// <summary>The YAML node to point at: the dominant contributor, else the fallback (a requirement).</summary>
