@@ -15,12 +15,22 @@ internal sealed record StageGlitch(double Width, double Tolerance, double Delay)
 /// compared with the ideal transfer of its own input (engine <see cref="TransferError"/>), after taking out the stage's
 /// small linear delay (the delay, up to 5 % of the period, that best fits the output where the input is at least half
 /// its peak, far from any crossing), so that a plain phase lag — a bandwidth matter — is not counted as a glitch.
+/// The fit uses only points where every amplifier of the stage works linearly: not slew-limited, not at a swing limit,
+/// and settled since (<see cref="SettleTimeConstants"/> closed-loop time constants NG/(2π·GBW) after the last such point).
+/// Otherwise, when a slow amplifier's slewing after a crossing reaches into the fitted region, the fit takes part of the
+/// slewing time for delay, and the glitch measured against that delayed ideal comes out longer than the output is wrong.
 /// </summary>
 internal static class ZeroCrossingGlitch
 {
     private const double FitLevel = 0.5;
     private const double MaxDelayFraction = 0.05;
     private const int GridSteps = 40;
+
+    /// <summary>Closed-loop time constants after slewing or clipping before a point counts as linear (e^−10 of the step left).</summary>
+    private const double SettleTimeConstants = 10;
+
+    /// <summary>Fewest linear points the fit needs; with fewer the fit uses every point at the fit level.</summary>
+    private const int FewestLinearPoints = 20;
 
     /// <summary>True for a stage that rectifies: diodes, and an absolute-value or half-wave transfer.</summary>
     public static bool IsRectifying(StageProbe stage) =>
@@ -67,20 +77,56 @@ internal static class ZeroCrossingGlitch
             return null;
         }
 
-        double delay = FitDelay(time, input, output, ideal, first, peakInput * FitLevel, MaxDelayFraction / frequency);
+        var linear = LinearPoints(transient, stage, first);
+        double level = peakInput * FitLevel;
+        if (Enumerable.Range(first, time.Count - first).Count(i => linear[i] && Math.Abs(input[i]) >= level) < FewestLinearPoints)
+        {
+            Array.Fill(linear, true);
+        }
+
+        double delay = FitDelay(time, input, output, ideal, first, level, MaxDelayFraction / frequency, linear);
         var delayed = time.Select(t => At(time, input, t - delay)).ToArray();
         var error = TransferError.Measure(time, delayed, output, ideal, tolerance, band.From);
         return new StageGlitch(error.WorstGlitchWidth, tolerance, delay);
     }
 
-    private static double FitDelay(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, double maxDelay)
+    /// <summary>Per time point: true when every amplifier of the stage has worked linearly (and settled) up to it.</summary>
+    private static bool[] LinearPoints(TransientResult transient, StageProbe stage, int first)
+    {
+        var time = transient.Time;
+        var linear = new bool[time.Count];
+        Array.Fill(linear, true);
+        foreach (var amp in stage.Amplifiers)
+        {
+            var trace = transient.Amplifier(amp.ElementId);
+            double noiseGain = NoiseGain.Of(stage.Stage, amp.Slot) ?? 1;
+            double settle = SettleTimeConstants * noiseGain / (2 * Math.PI * amp.Model.GainBandwidth);
+            double lastNonlinear = double.NegativeInfinity;
+            for (int i = Math.Max(0, first - 1); i < time.Count; i++)
+            {
+                if (trace.SlewLimited[i] || trace.AtSwingLimit[i])
+                {
+                    lastNonlinear = time[i];
+                }
+
+                if (time[i] - lastNonlinear < settle)
+                {
+                    linear[i] = false;
+                }
+            }
+        }
+
+        return linear;
+    }
+
+    private static double FitDelay(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, double maxDelay, bool[] linear)
     {
         double Cost(double delay)
         {
             double sum = 0;
             for (int i = first; i < time.Count; i++)
             {
-                if (Math.Abs(input[i]) < level)
+                if (Math.Abs(input[i]) < level || !linear[i])
                 {
                     continue;
                 }
