@@ -87,12 +87,12 @@ public sealed class ReferenceSuiteA(ITestOutputHelper output)
     [Fact]
     public void A05_a_peak_detector_whose_error_is_droop_blames_the_hold_capacitor_not_the_amplifier_offset()
     {
-        // RC discharge between peaks (any circuits textbook): the held value falls as Vp·e^(−t/RC), RC = 100 kΩ · 470 nF =
-        // 47 ms, until the input comes back above it a little before the next peak, at T − δ with Vp·cos(2π·f·δ) =
-        // Vp·e^(−(T − δ)/RC). Solved below by fixed-point iteration: δ ≈ 33 µs, droop ≈ 5 V·(1 − e^(−0.967 ms/47 ms))
+        // RC discharge between peaks (any circuits textbook): the held value falls as Vp·e^(−t/RC), RC = 100 kΩ · 4.7 µF =
+        // 0.47 s, until the input comes back above it a little before the next peak, at T − δ with Vp·cos(2π·f·δ) =
+        // Vp·e^(−(T − δ)/RC), T = 10 ms. Solved below by fixed-point iteration: δ ≈ 0.33 ms, droop ≈ 5 V·(1 − e^(−9.67 ms/470 ms))
         // ≈ 0.102 V = 2 % of full scale, against 1 % allowed. The amplifier's 2 mV offset is 0.04 %.
         var report = RuleFixture.Verify("reference/a/peak-detector-droop.yaml");
-        double rc = 100e3 * 470e-9, period = 1e-3, delta = 0;
+        double rc = 100e3 * 4.7e-6, period = 10e-3, delta = 0;
         for (int i = 0; i < 50; i++)
         {
             delta = Math.Acos(Math.Exp(-(period - delta) / rc)) / (2 * Math.PI / period);
@@ -107,7 +107,7 @@ public sealed class ReferenceSuiteA(ITestOutputHelper output)
         {
             Assert.Contains("hold capacitor chold", finding.Message, StringComparison.Ordinal);
             Assert.DoesNotContain("most from amplifier", finding.Message, StringComparison.Ordinal);
-            Assert.Equal(26, finding.Span.Line); // chold: 470 nF
+            Assert.Equal(26, finding.Span.Line); // chold: 4.7 uF
             Assert.Equal(14, finding.Span.Column);
         }
     }
