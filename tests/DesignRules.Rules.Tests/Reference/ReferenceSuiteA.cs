@@ -80,6 +80,12 @@ public sealed class ReferenceSuiteA(ITestOutputHelper output)
         AssertNear(0.0044, figure.GetProperty("value").GetDouble());
         AssertNear(0.016, figure.GetProperty("limit").GetDouble());
         AssertNear(0.0116, figure.GetProperty("margin").GetDouble());
+
+        // A figure no rule judged (no accuracy stated, so the gain is only recorded) carries no limit and no margin.
+        var gain = stage.GetProperty("figures").EnumerateArray().Single(f => f.GetProperty("name").GetString() == "nominal gain");
+        AssertNear(2, gain.GetProperty("value").GetDouble());
+        Assert.False(gain.TryGetProperty("limit", out _));
+        Assert.False(gain.TryGetProperty("margin", out _));
     }
 
     // ---- Blame (point 4) ----

@@ -43,8 +43,10 @@ internal sealed class WorstCaseTransferRule : Rule
             }
 
             var scale = analysis.Metric.FullScale;
-            var extra = analysis.Metric.Dynamic is { } dyn ? $"held value in the transient {Say.Percent(dyn.Magnitude / scale)}" : null;
-            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design, extra, ToleranceAnalyses.HoldDroop(analysis));
+            // A peak stage's held value in the transient is listed as the hold capacitor's droop where the stage has one.
+            var droop = ToleranceAnalyses.HoldDroop(analysis);
+            var extra = analysis.Metric.Dynamic is { } dyn && droop is null ? $"held value in the transient {Say.Percent(dyn.Magnitude / scale)}" : null;
+            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[level], scale, evaluation.Design, extra, droop);
             var nominal = Math.Abs(analysis.Nominal.Deviations[level]);
             var span = dominant is not null && dominant.Size >= nominal ? dominant.Span : stage.Stage.Requirements.Accuracy!.Span;
             evaluation.Report(Id, id, span, new Dictionary<string, string>
