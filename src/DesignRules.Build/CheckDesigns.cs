@@ -192,7 +192,8 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
     private void LogFinding(Finding f, CodeList noWarn, CodeList notAsErrors)
     {
-        var s = f.Span;
+        // A file name can hold a newline too; the log line shows it escaped, like the message.
+        var s = f.Span with { File = DiagnosticText.Escape(f.Span.File) };
         var help = HelpFor(f.RuleId);
         if (f.IsWaived)
         {

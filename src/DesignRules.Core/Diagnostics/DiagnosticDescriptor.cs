@@ -5,7 +5,8 @@ namespace DesignRules.Diagnostics;
 /// <summary>
 /// What a kind of diagnostic is: its id, title, category, default severity, help page and message format.
 /// Message formats use numbered placeholders (<c>{0}</c>); arguments are substituted once and never re-parsed,
-/// so text taken from a design file can hold braces safely.
+/// so text taken from a design file can hold braces safely; control characters in arguments are escaped and very long
+/// arguments cut (<see cref="DiagnosticText"/>), so no argument can break the message's one line.
 /// </summary>
 /// <param name="Id">The stable id, <c>DR</c> and three digits.</param>
 /// <param name="Title">A short title.</param>
@@ -25,7 +26,7 @@ public sealed record DiagnosticDescriptor(
 
     /// <summary>Substitutes named arguments (<c>{name}</c>) into the message format without re-reading the result.</summary>
     public string Render(IReadOnlyDictionary<string, string> arguments) =>
-        Substitute(name => arguments.TryGetValue(name, out var v) ? v : "{" + name + "}");
+        Substitute(name => arguments.TryGetValue(name, out var v) ? DiagnosticText.Quote(v) : "{" + name + "}");
 
     /// <summary>Makes a diagnostic of this kind at <paramref name="span"/>.</summary>
     public Diagnostic At(SourceSpan span, params object?[] args) =>
@@ -34,7 +35,7 @@ public sealed record DiagnosticDescriptor(
     /// <summary>Substitutes positional arguments (<c>{0}</c>) into the message format without re-reading the result.</summary>
     public string Render(object?[] args) =>
         Substitute(name => int.TryParse(name, NumberStyles.None, CultureInfo.InvariantCulture, out var i) && i < args.Length
-            ? Convert.ToString(args[i], CultureInfo.InvariantCulture) ?? string.Empty
+            ? DiagnosticText.Quote(Convert.ToString(args[i], CultureInfo.InvariantCulture))
             : string.Empty);
 
     private string Substitute(Func<string, string> value)

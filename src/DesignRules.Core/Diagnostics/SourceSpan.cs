@@ -15,5 +15,5 @@ public sealed record SourceSpan(string File, int Line, int Column, int EndLine, 
 
     /// <summary>The compiler-style position text, <c>file(line,col)</c>.</summary>
     public override string ToString() =>
-        string.Create(CultureInfo.InvariantCulture, $"{File}({Line},{Column})");
+        string.Create(CultureInfo.InvariantCulture, $"{DiagnosticText.Escape(File)}({Line},{Column})");
 }

@@ -17,6 +17,9 @@ public sealed class DesignLoader
     private readonly LoaderLimits limits;
     private readonly Func<string, string?> readFile;
     private readonly Dictionary<string, LibraryEntry> libraries = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, List<LibraryEntry>> resolved = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, SourceSpan> designIds = new(StringComparer.Ordinal);
+    private int filesRead;
     private readonly List<PartsLibrary> libraryOrder = [];
     private readonly List<Diagnostic> diagnostics = [];
     private LibraryEntry? builtin;
@@ -110,7 +113,7 @@ public sealed class DesignLoader
             var entry = Reference(file, reference);
             if (entry is not null)
             {
-                Collect(entry, [], 0, visible, seen);
+                Collect(entry, visible, seen);
             }
         }
 
@@ -118,6 +121,19 @@ public sealed class DesignLoader
         var design = DesignReader.Read(file, root, header, visible, catalog);
 
         // A design with any error is not handed on: later stages see only designs that loaded cleanly.
+        if (design is not null && designIds.TryGetValue(design.Id.Value, out var first))
+        {
+            // Two designs with one id would write one page over the other; the first in file order keeps it.
+            diagnostics.Add(DesignFileDiagnostics.DuplicateId.At(design.Id.Span, "design", design.Id.Value,
+                $"{first.File} {MappingReader.Position(first)}"));
+            return;
+        }
+
+        if (design is not null)
+        {
+            designIds[design.Id.Value] = design.Id.Span;
+        }
+
         if (design is not null && !diagnostics.Skip(errorsBefore).Any(d => d.Severity == Severity.Error))
         {
             designs.Add(design);
@@ -223,38 +239,45 @@ public sealed class DesignLoader
         return libraries[full];
     }
 
-    /// <summary>Adds a library and everything it uses (depth first) to <paramref name="visible"/>, reporting cycles.</summary>
-    private void Collect(LibraryEntry entry, List<LibraryEntry> chain, int depth, List<PartsLibrary> visible, HashSet<string> seen)
+    /// <summary>Adds a library and everything it uses to <paramref name="visible"/>, each once, in depth-first order.</summary>
+    private void Collect(LibraryEntry entry, List<PartsLibrary> visible, HashSet<string> seen)
     {
-        if (entry.Library is null)
+        if (entry.Library is null || !seen.Add(FullPath(entry.File)))
         {
             return;
         }
 
-        if (seen.Add(FullPath(entry.File)))
+        visible.Add(entry.Library);
+        foreach (var next in ResolveUses(entry, [], 0))
         {
-            visible.Add(entry.Library);
-        }
-
-        foreach (var next in ResolveUses(entry, chain, depth))
-        {
-            Collect(next, [.. chain, entry], depth + 1, visible, seen);
+            Collect(next, visible, seen);
         }
     }
 
+    /// <summary>
+    /// The libraries <paramref name="entry"/> uses directly, resolved once per run and remembered, so that a lattice of
+    /// libraries using the same few files costs each file once, not once per path. Cycles are reported where they close.
+    /// </summary>
     private List<LibraryEntry> ResolveUses(LibraryEntry entry, List<LibraryEntry> chain, int depth)
     {
-        var result = new List<LibraryEntry>();
         if (entry.Library is null)
         {
-            return result;
+            return [];
         }
 
+        var key = FullPath(entry.File);
+        if (resolved.TryGetValue(key, out var known))
+        {
+            return known;
+        }
+
+        var result = new List<LibraryEntry>();
         if (depth >= limits.MaxLibraryDepth)
         {
             var span = entry.Library.Uses.Count > 0 ? entry.Library.Uses[0].Span : SourceSpan.WholeFile(entry.File);
             diagnostics.Add(DesignFileDiagnostics.SizeLimit.At(span, "The chain of parts libraries using each other",
                 $"{limits.MaxLibraryDepth.ToString(CultureInfo.InvariantCulture)} levels"));
+            resolved[key] = result;
             return result;
         }
 
@@ -279,15 +302,34 @@ public sealed class DesignLoader
             ResolveUses(next, path, depth + 1);
         }
 
+        resolved[key] = result;
         return result;
     }
 
     private string? SafeRead(string path, Located<string>? reference)
     {
+        if (++filesRead > limits.MaxFiles)
+        {
+            // Said once, at the first file over the bound; the run fails, so the files not read cannot pass unnoticed.
+            if (filesRead == limits.MaxFiles + 1)
+            {
+                diagnostics.Add(DesignFileDiagnostics.SizeLimit.At(reference?.Span ?? SourceSpan.WholeFile(path),
+                    "The number of design and parts files one run reads",
+                    $"{limits.MaxFiles.ToString(CultureInfo.InvariantCulture)} files"));
+            }
+
+            return null;
+        }
+
         string? text;
         try
         {
             text = readFile(path);
+        }
+        catch (RefusedFileException refused)
+        {
+            diagnostics.Add(refused.ToDiagnostic(reference?.Span ?? SourceSpan.WholeFile(path)));
+            return null;
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
         {
@@ -310,22 +352,7 @@ public sealed class DesignLoader
         return text;
     }
 
-    private string? ReadFromDisk(string path)
-    {
-        var info = new FileInfo(path);
-        if (!info.Exists)
-        {
-            return null;
-        }
-
-        if (info.Length > (long)limits.MaxFileCharacters * 4)
-        {
-            // Too large to be read at all: hand the size check a marker string of the right length class.
-            return new string(' ', limits.MaxFileCharacters + 1);
-        }
-
-        return File.ReadAllText(path);
-    }
+    private string? ReadFromDisk(string path) => SourceFile.Read(path, limits);
 
     private static bool IsPartsFile(MappingReader root) => root.Entries.Any(e => e.Key.Value == "library");
 

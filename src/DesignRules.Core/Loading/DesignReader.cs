@@ -11,6 +11,9 @@ internal sealed record DesignHeader(Located<string>? Id, string Title, string Su
 
 internal static class DesignReader
 {
+    /// <summary>Names of pages the tool writes itself beside the design pages; no design id may take one.</summary>
+    internal static readonly HashSet<string> ReservedPageNames = new(StringComparer.Ordinal) { "index" };
+
     private static readonly Dictionary<string, WaveformKind> Waveforms = new(StringComparer.Ordinal)
     {
         ["sine"] = WaveformKind.Sine, ["triangle"] = WaveformKind.Triangle, ["square"] = WaveformKind.Square,
@@ -38,6 +41,14 @@ internal static class DesignReader
     {
         var header = root.Child("design", "the design header", required: true, "id, title and summary");
         var id = header?.Id("id", required: true);
+        if (id is not null && ReservedPageNames.Contains(id.Value))
+        {
+            // The design's page would be written over the page the tool writes under that name itself.
+            root.Diagnostics.Add(DesignFileDiagnostics.DuplicateId.At(id.Span, "design", id.Value,
+                $"the pages folder's own page {id.Value}.md, which the tool writes itself"));
+            id = null;
+        }
+
         var title = header?.Text("title", required: false, "a title")?.Value ?? string.Empty;
         var summary = header?.Text("summary", required: false, "a summary")?.Value ?? string.Empty;
         header?.Finish();

@@ -296,6 +296,7 @@ internal sealed partial class MappingReader
     public static string Position(SourceSpan span) =>
         string.Create(CultureInfo.InvariantCulture, $"line {span.Line}, column {span.Column}");
 
-    [GeneratedRegex("^[a-z][a-z0-9-]{0,63}$", RegexOptions.CultureInvariant)]
+    // \z, not $: in .NET '$' also matches before a final newline, which would let "id\n" through.
+    [GeneratedRegex("^[a-z][a-z0-9-]{0,63}\\z", RegexOptions.CultureInvariant)]
     private static partial Regex IdPattern();
 }

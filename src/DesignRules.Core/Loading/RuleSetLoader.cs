@@ -29,14 +29,23 @@ public static class RuleSetLoader
     public static (RuleSet RuleSet, IReadOnlyList<Diagnostic> Diagnostics) Load(string file, LoaderLimits? limits = null)
     {
         ArgumentNullException.ThrowIfNull(file);
-        string text;
+        string? text;
         try
         {
-            text = File.ReadAllText(file);
+            text = SourceFile.Read(file, limits ?? LoaderLimits.Default);
+        }
+        catch (RefusedFileException refused)
+        {
+            return (RuleSet.Default, [refused.ToDiagnostic(SourceSpan.WholeFile(file))]);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
         {
             return (RuleSet.Default, [DesignFileDiagnostics.NotADesignFile.At(SourceSpan.WholeFile(file), $"The rule-set file '{file}' cannot be read ({ex.Message.TrimEnd('.')})")]);
+        }
+
+        if (text is null)
+        {
+            return (RuleSet.Default, [DesignFileDiagnostics.NotADesignFile.At(SourceSpan.WholeFile(file), $"The rule-set file '{file}' does not exist")]);
         }
 
         return Read(file, text, limits);
@@ -66,13 +75,13 @@ public static class RuleSetLoader
         if (mc is not null)
         {
             var samples = mc.Quantity("samples", Dimension.Ratio, required: false,
-                q => q.Value is >= 10 and <= 1_000_000 && q.Value == Math.Floor(q.Value) ? null : "a whole number from 10 to 1,000,000");
+                q => q.Value is >= 10 and <= MonteCarloSettings.SampleLimit && q.Value == Math.Floor(q.Value) ? null : MonteCarloSettings.SamplesRange);
             var seed = mc.Quantity("seed", Dimension.Ratio, required: false,
                 q => q.Value is >= 0 and <= int.MaxValue && q.Value == Math.Floor(q.Value) ? null : "a whole number from 0 to 2147483647");
             var distribution = mc.Choice("distribution", Distributions, required: false);
             var sequential = mc.Flag("sequential");
             var maxSamples = mc.Quantity("max-samples", Dimension.Ratio, required: false,
-                q => q.Value is >= 10 and <= 10_000_000 && q.Value == Math.Floor(q.Value) ? null : "a whole number from 10 to 10,000,000");
+                q => q.Value is >= 10 and <= MonteCarloSettings.SampleLimit && q.Value == Math.Floor(q.Value) ? null : MonteCarloSettings.SamplesRange);
             mc.Finish();
             monteCarlo = new MonteCarloSettings(
                 samples is null ? monteCarlo.Samples : (int)samples.Value.Value,

@@ -44,6 +44,16 @@ public sealed record MonteCarloSettings(int Samples, int Seed, ToleranceDistribu
 
     /// <summary>The most samples a stage may draw when <see cref="Sequential"/> is on.</summary>
     public int MaxSamples { get; init; } = DefaultMaxSamples;
+
+    /// <summary>
+    /// The most samples a rule set may ask for, as a batch (<c>samples</c>) or as the cap of sequential sampling
+    /// (<c>max-samples</c>): 50,000 resolves a yield to a few hundredths of a percent and costs the example repository
+    /// tens of seconds, where a million cost many minutes (the README's limits table lists it).
+    /// </summary>
+    public const int SampleLimit = 50_000;
+
+    /// <summary>The accepted sample counts, in words.</summary>
+    public const string SamplesRange = "a whole number from 10 to 50,000 (the tool's limit on Monte Carlo samples)";
 }
 
 /// <summary>A change to one rule: its level and any thresholds.</summary>

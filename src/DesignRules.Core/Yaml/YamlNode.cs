@@ -10,6 +10,9 @@ internal abstract class YamlNode(SourceSpan span)
     /// <summary>Nodes in the expanded subtree, aliases counted as what they expand to (saturating).</summary>
     public long ExpandedWeight { get; set; } = 1;
 
+    /// <summary>Characters of keys and values in the expanded subtree, aliases counted as what they expand to (saturating).</summary>
+    public long ExpandedCharacters { get; set; }
+
     /// <summary>Words for diagnostics: "a mapping", "a list", "a value".</summary>
     public abstract string ShapeName { get; }
 }

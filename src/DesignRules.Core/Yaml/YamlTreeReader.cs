@@ -61,6 +61,7 @@ internal static class YamlTreeReader
     {
         private readonly Dictionary<string, YamlNode> anchors = new(StringComparer.Ordinal);
         private long total;
+        private long characters;
 
         /// <summary>The span of the last event read, for errors the parser reports without a position.</summary>
         public SourceSpan? LastSpan { get; private set; }
@@ -104,10 +105,12 @@ internal static class YamlTreeReader
                     }
 
                     Count(alias, target.ExpandedWeight);
+                    CountCharacters(alias, target.ExpandedCharacters);
                     return target;
                 case Scalar scalar:
                     parser.MoveNext();
-                    var node = new YamlScalar(scalar.Value, scalar.Style != ScalarStyle.Plain, SpanOf(scalar));
+                    var node = new YamlScalar(scalar.Value, scalar.Style != ScalarStyle.Plain, SpanOf(scalar)) { ExpandedCharacters = scalar.Value.Length };
+                    CountCharacters(scalar, scalar.Value.Length);
                     Remember(scalar, node);
                     return node;
                 case SequenceStart start:
@@ -120,6 +123,7 @@ internal static class YamlTreeReader
                         var item = ReadNode(parser, depth + 1);
                         sequence.Items.Add(item);
                         sequence.ExpandedWeight = Add(sequence.ExpandedWeight, item.ExpandedWeight);
+                        sequence.ExpandedCharacters = Add(sequence.ExpandedCharacters, item.ExpandedCharacters);
                     }
 
                     return sequence;
@@ -143,6 +147,7 @@ internal static class YamlTreeReader
 
                         mapping.Entries.Add(new(keyScalar, value));
                         mapping.ExpandedWeight = Add(mapping.ExpandedWeight, Add(key.ExpandedWeight, value.ExpandedWeight));
+                        mapping.ExpandedCharacters = Add(mapping.ExpandedCharacters, Add(key.ExpandedCharacters, value.ExpandedCharacters));
                     }
 
                     return mapping;
@@ -168,6 +173,17 @@ internal static class YamlTreeReader
             {
                 Refuse(at, "The expanded document (aliases counted as what they stand for)",
                     $"{limits.MaxExpandedNodes.ToString(CultureInfo.InvariantCulture)} nodes");
+            }
+        }
+
+        // Nodes alone do not bound memory: one long value named by many aliases is few nodes and many characters.
+        private void CountCharacters(ParsingEvent at, long count)
+        {
+            characters = Add(characters, count);
+            if (characters > limits.MaxExpandedCharacters)
+            {
+                Refuse(at, "The expanded text of keys and values (aliases counted as what they stand for)",
+                    $"{limits.MaxExpandedCharacters.ToString(CultureInfo.InvariantCulture)} characters");
             }
         }
 

@@ -47,7 +47,7 @@ internal static class Waivers
 
             foreach (var i in matches)
             {
-                result[i] = result[i] with { Waiver = waiver.Reason.Value };
+                result[i] = result[i] with { Waiver = DiagnosticText.Quote(waiver.Reason.Value) };
             }
         }
 
