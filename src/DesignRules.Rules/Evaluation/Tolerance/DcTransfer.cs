@@ -40,15 +40,20 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
 
         // A peak detector holds positive peaks: its negative levels say nothing and are hard to solve (its loop is open).
         bool positiveOnly = TransferTarget.Of(stage).Kind == TransferKind.Peak;
-        var distinct = new List<double>();
-        foreach (var level in levels.Where(l => !positiveOnly || l >= 0).Order())
+        // Levels closer than a part in 1e9 of the largest are one level; 0 V is always kept exactly, however small the
+        // signal (a merge once dropped it for a 1 pV source or a sum whose mean is a rounding error off zero).
+        var candidates = levels.Where(l => !positiveOnly || l >= 0).ToList();
+        double tolerance = 1e-9 * candidates.Select(Math.Abs).DefaultIfEmpty(0).Max();
+        var distinct = new List<double> { 0 };
+        foreach (var level in candidates.OrderBy(Math.Abs))
         {
-            if (distinct.Count == 0 || Math.Abs(level - distinct[^1]) > 1e-12 * Math.Max(1, Math.Abs(level)))
+            if (distinct.TrueForAll(kept => Math.Abs(level - kept) > tolerance))
             {
                 distinct.Add(level);
             }
         }
 
+        distinct.Sort();
         double? commonMode = !Circuit.IsReference(stage.ReferenceInputNode) && chain.Design.Source.CommonMode is { } cm
             ? (cm.Value.Value != 0 ? cm.Value.Value : 1.0)
             : null;
