@@ -91,6 +91,25 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     /// <inheritdoc />
     public override bool Execute()
     {
+        // The task runs inside the build process, whose culture is the user's (a comma-decimal locale, say), while every
+        // output must be the same bytes on every machine: run the check in the invariant culture and restore it after.
+        var culture = CultureInfo.CurrentCulture;
+        var uiCulture = CultureInfo.CurrentUICulture;
+        CultureInfo.CurrentCulture = CultureInfo.InvariantCulture;
+        CultureInfo.CurrentUICulture = CultureInfo.InvariantCulture;
+        try
+        {
+            return ExecuteInvariant();
+        }
+        finally
+        {
+            CultureInfo.CurrentCulture = culture;
+            CultureInfo.CurrentUICulture = uiCulture;
+        }
+    }
+
+    private bool ExecuteInvariant()
+    {
         try
         {
             if (Replay)
@@ -117,6 +136,23 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         {
             Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0,
                 $"DesignRulesLevels: {problem}.");
+            return false;
+        }
+
+        // Report and pages paths that cannot be written are the user's mistake: say so plainly, before the check runs.
+        var outputProblems = new[]
+        {
+            string.IsNullOrWhiteSpace(SarifFile) ? null : OutputPaths.FileProblem("DesignRulesSarifFile", SarifFile),
+            string.IsNullOrWhiteSpace(JsonFile) ? null : OutputPaths.FileProblem("DesignRulesJsonFile", JsonFile),
+            string.IsNullOrWhiteSpace(PagesFolder) ? null : OutputPaths.FolderProblem("DesignRulesPagesFolder", PagesFolder),
+        }.OfType<string>().ToList();
+        foreach (var outputProblem in outputProblems)
+        {
+            Log.LogError(null, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, outputProblem);
+        }
+
+        if (outputProblems.Count > 0)
+        {
             return false;
         }
 

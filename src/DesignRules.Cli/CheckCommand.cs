@@ -114,19 +114,44 @@ internal static class CheckCommand
             return ExitCodes.Unusable;
         }
 
+        // Report and pages paths that cannot be written are the user's mistake: say so now, before the check runs.
+        var outputProblems = new[]
+        {
+            result.GetValue(Sarif) is { } s && s != "-" ? OutputPaths.FileProblem("--sarif", s) : null,
+            result.GetValue(Json) is { } j && j != "-" ? OutputPaths.FileProblem("--json", j) : null,
+            result.GetValue(PagesFolder) is { } p ? OutputPaths.FolderProblem("--pages", p) : null,
+        }.OfType<string>().ToList();
+        foreach (var outputProblem in outputProblems)
+        {
+            Console.Error.WriteLine("error: " + outputProblem);
+        }
+
+        if (outputProblems.Count > 0)
+        {
+            return ExitCodes.Unusable;
+        }
+
         Terminal.Status(string.Create(CultureInfo.InvariantCulture, $"Checking {files.Count} file(s)…"));
         var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, today)));
         Terminal.ClearStatus();
         var helpBase = result.GetValue(HelpBase) ?? HelpLinks.FolderUri(Path.Combine(AppContext.BaseDirectory, "rules"));
         var settings = new ReportSettings(root, helpBase, ToolVersion);
-        if (result.GetValue(Sarif) is { } sarif)
+        try
         {
-            SarifReport.WriteFile(report, settings, sarif);
-        }
+            if (result.GetValue(Sarif) is { } sarif)
+            {
+                SarifReport.WriteFile(report, settings, sarif);
+            }
 
-        if (result.GetValue(Json) is { } json)
+            if (result.GetValue(Json) is { } json)
+            {
+                JsonReport.WriteFile(report, settings, json);
+            }
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
-            JsonReport.WriteFile(report, settings, json);
+            Console.Error.WriteLine($"error: a report file cannot be written ({DesignRules.Diagnostics.DiagnosticText.Escape(ex.Message.TrimEnd('.'))}).");
+            return ExitCodes.Unusable;
         }
 
         HumanReport.Write(report, Terminal.ForStandardOutput());
@@ -147,6 +172,12 @@ internal static class CheckCommand
             }
 
             templateErrors = pages.Diagnostics.Count;
+            if (pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
+            {
+                // A pages folder the tool will not write into is an unusable option, like a missing path.
+                return ExitCodes.Unusable;
+            }
+
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"{pages.Written.Count} page and plot file(s) written to {pagesFolder}, {pages.Removed.Count} stale file(s) removed."));
         }

@@ -12,6 +12,11 @@ namespace DesignRules.Pages;
 /// </summary>
 public static class DatasheetPages
 {
+    /// <summary>The id of a pages folder the tool will not write into (a file in its place, a link, a file in the way, a lock held too long).</summary>
+    public const string FolderProblemId = "DR931";
+
+    private static DiagnosticDescriptor FolderProblem => RuleCatalogue.Default[FolderProblemId];
+
     /// <summary>Renders every page of <paramref name="report"/> into the options' output folder.</summary>
     public static PageResult Write(CheckReport report, PageOptions options)
     {
@@ -68,8 +73,22 @@ public static class DatasheetPages
             output.Write("index.md", index);
         }
 
-        var removed = output.Finish(diagnostics);
-        return new PageResult(output.Written.ToList(), removed, diagnostics);
+        try
+        {
+            var removed = output.Commit(diagnostics);
+            return new PageResult(output.Written.ToList(), removed, diagnostics);
+        }
+        catch (PagesFolderException ex)
+        {
+            diagnostics.Add(FolderProblem.At(SourceSpan.WholeFile(ex.Path), ex.Message));
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            diagnostics.Add(FolderProblem.At(SourceSpan.WholeFile(options.OutputFolder),
+                $"the pages folder '{options.OutputFolder}' cannot be written ({ex.Message.TrimEnd('.')})"));
+        }
+
+        return new PageResult([], [], diagnostics);
     }
 
     private static string? Render(TemplateSet templates, string name, string variable, ScriptObject model, List<Diagnostic> diagnostics)
@@ -88,6 +107,7 @@ public static class DatasheetPages
             MemberRenamer = member => member.Name,
         };
         context.PushGlobal(globals);
+        context.PushCulture(System.Globalization.CultureInfo.InvariantCulture);
         try
         {
             return template.Render(context);

@@ -1,26 +1,37 @@
+using System.Diagnostics;
+using System.Globalization;
 using System.Text;
 using DesignRules.Diagnostics;
 
 namespace DesignRules.Pages;
 
 /// <summary>
-/// The output folder's discipline: safe names, nothing written outside it, files written whole (write then rename),
-/// and a manifest of what the tool wrote so that only its own stale files are ever removed.
+/// The output folder's discipline. Pages are gathered first and written together under a lock on the folder; a file is
+/// written only where nothing is or where the manifest (<c>.designrules-pages</c>) says an earlier run wrote it; no
+/// symbolic link below the folder is ever followed (the folder's own path may be one); every file is written whole to a
+/// hidden temporary name unique to the run and renamed into place; and only files the manifest lists are ever removed.
+/// A problem with the folder becomes <see cref="PagesFolderException"/> with a plain sentence naming the path.
 /// </summary>
 internal sealed class OutputFolder
 {
     /// <summary>The manifest's file name inside the output folder.</summary>
     public const string ManifestName = ".designrules-pages";
 
-    private readonly string root;
-    private readonly SortedSet<string> written = new(StringComparer.Ordinal);
+    /// <summary>The lock file concurrent checks take on the folder; it stays, empty, between runs.</summary>
+    public const string LockName = ".designrules-pages.lock";
 
-    public OutputFolder(string folder)
+    private readonly string root;
+    private readonly TimeSpan lockWait;
+    private readonly SortedDictionary<string, string> pending = new(StringComparer.Ordinal);
+
+    public OutputFolder(string folder, TimeSpan? lockWait = null)
     {
-        root = Path.GetFullPath(folder);
+        root = Path.TrimEndingDirectorySeparator(Path.GetFullPath(folder));
+        this.lockWait = lockWait ?? TimeSpan.FromSeconds(60);
     }
 
-    public IReadOnlyCollection<string> Written => written;
+    /// <summary>The files written, relative to the folder, once <see cref="Commit"/> has run.</summary>
+    public IReadOnlyCollection<string> Written => pending.Keys;
 
     /// <summary>Turns an id into a file-name part: lower-case letters, digits and hyphens only.</summary>
     public static string SafeName(string id)
@@ -35,51 +46,204 @@ internal sealed class OutputFolder
         return name.Length == 0 ? "unnamed" : name;
     }
 
-    /// <summary>Writes a text file whole, with \n line ends, and records it in the manifest.</summary>
+    /// <summary>Gathers a text file (with \n line ends) to be written by <see cref="Commit"/>.</summary>
     public void Write(string relative, string content)
     {
-        var full = Path.GetFullPath(Path.Combine(root, relative));
-        if (!full.StartsWith(root + Path.DirectorySeparatorChar, StringComparison.Ordinal))
+        relative = relative.Replace('\\', '/');
+        if (Inside(relative) is null)
         {
             // Names are made by SafeName; reaching this is a programming error.
             throw new InvalidOperationException($"Refusing to write outside the output folder: {relative}");
         }
 
-        Directory.CreateDirectory(Path.GetDirectoryName(full)!);
-        var temporary = full + ".partial";
-        File.WriteAllText(temporary, content.ReplaceLineEndings("\n"), new UTF8Encoding(encoderShouldEmitUTF8Identifier: false));
-        File.Move(temporary, full, overwrite: true);
-        written.Add(relative.Replace('\\', '/'));
+        pending[relative] = content.ReplaceLineEndings("\n");
     }
 
-    /// <summary>Removes files the previous run wrote and this one did not, then writes the new manifest.</summary>
-    public IReadOnlyList<string> Finish(List<Diagnostic> diagnostics)
+    /// <summary>
+    /// Under the folder's lock: checks that nothing is in the way, writes every gathered file, removes files the previous
+    /// run wrote and this one did not, and writes the new manifest. Returns the files removed.
+    /// </summary>
+    public IReadOnlyList<string> Commit(List<Diagnostic> diagnostics)
     {
-        var manifest = Path.Combine(root, ManifestName);
-        var removed = new List<string>();
-        if (File.Exists(manifest))
+        if (File.Exists(root))
         {
-            foreach (var line in File.ReadAllLines(manifest).Where(l => l.Length > 0 && !l.StartsWith('#')))
-            {
-                var full = Path.GetFullPath(Path.Combine(root, line));
-                if (written.Contains(line) || !full.StartsWith(root + Path.DirectorySeparatorChar, StringComparison.Ordinal) || !File.Exists(full))
-                {
-                    continue;
-                }
+            throw new PagesFolderException(root, $"'{root}' is a file, not a folder; name a folder for the pages");
+        }
 
-                try
-                {
-                    File.Delete(full);
-                    removed.Add(line);
-                }
-                catch (IOException ex)
-                {
-                    diagnostics.Add(RuleCatalogue.Default["DR930"].At(SourceSpan.WholeFile(full), ManifestName, $"the stale page {line} cannot be removed ({ex.Message})"));
-                }
+        try
+        {
+            Directory.CreateDirectory(root);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            throw new PagesFolderException(root, $"the pages folder '{root}' cannot be created ({ex.Message.TrimEnd('.')})");
+        }
+
+        using var held = Lock();
+        var listed = ReadManifest();
+        foreach (var relative in pending.Keys)
+        {
+            var full = Refuse(relative, "write");
+            if (File.Exists(full) && !listed.Contains(relative))
+            {
+                throw new PagesFolderException(full,
+                    $"'{full}' is in the way: a page of this name is due, but the file is not one the tool wrote (the manifest {ManifestName} does not list it). Move or rename it, then check again");
+            }
+
+            if (Directory.Exists(full))
+            {
+                throw new PagesFolderException(full, $"'{full}' is a folder where a page is due; move or rename it, then check again");
             }
         }
 
-        Write(ManifestName, "# Files written by DesignRules; only these are ever removed by it.\n" + string.Join('\n', written.Where(w => w != ManifestName)) + "\n");
+        foreach (var (relative, content) in pending)
+        {
+            WriteWhole(Inside(relative)!, content);
+        }
+
+        var removed = new List<string>();
+        foreach (var relative in listed.Where(l => !pending.ContainsKey(l)))
+        {
+            var full = Inside(relative);
+            if (full is null || LinkOnTheWay(relative) is not null || !File.Exists(full))
+            {
+                continue;
+            }
+
+            try
+            {
+                File.Delete(full);
+                removed.Add(relative);
+            }
+            catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+            {
+                diagnostics.Add(RuleCatalogue.Default["DR930"].At(SourceSpan.WholeFile(full), ManifestName, $"the stale page {relative} cannot be removed ({ex.Message})"));
+            }
+        }
+
+        Refuse(ManifestName, "write");
+        WriteWhole(Path.Combine(root, ManifestName),
+            "# Files written by DesignRules; only these are ever written over or removed by it.\n" + string.Concat(pending.Keys.Select(w => w + "\n")));
         return removed;
     }
+
+    /// <summary>The full path of a relative name when it stays inside the folder; null otherwise.</summary>
+    private string? Inside(string relative)
+    {
+        var full = Path.GetFullPath(Path.Combine(root, relative));
+        return full.StartsWith(root + Path.DirectorySeparatorChar, StringComparison.Ordinal) ? full : null;
+    }
+
+    /// <summary>The first symbolic link on the way from the folder to <paramref name="relative"/>, or null.</summary>
+    private string? LinkOnTheWay(string relative)
+    {
+        var path = root;
+        foreach (var part in relative.Split('/', StringSplitOptions.RemoveEmptyEntries))
+        {
+            path = Path.Combine(path, part);
+            FileSystemInfo info = Directory.Exists(path) ? new DirectoryInfo(path) : new FileInfo(path);
+            if (info.LinkTarget is not null)
+            {
+                return path;
+            }
+
+            if (!info.Exists)
+            {
+                return null;
+            }
+        }
+
+        return null;
+    }
+
+    private string Refuse(string relative, string what)
+    {
+        if (LinkOnTheWay(relative) is { } link)
+        {
+            throw new PagesFolderException(link,
+                $"'{link}' is a symbolic link inside the pages folder, and the tool never follows links there (it would {what} through it). Replace the link with a real folder or file, or remove it");
+        }
+
+        return Inside(relative)!;
+    }
+
+    private HashSet<string> ReadManifest()
+    {
+        var manifest = Path.Combine(root, ManifestName);
+        Refuse(ManifestName, "read");
+        var listed = new HashSet<string>(StringComparer.Ordinal);
+        if (!File.Exists(manifest))
+        {
+            return listed;
+        }
+
+        using var reader = new StreamReader(manifest, Encoding.UTF8);
+        string? line;
+        var characters = 0L;
+        while ((line = reader.ReadLine()) is not null && (characters += line.Length) <= 4 << 20)
+        {
+            if (line.Length > 0 && !line.StartsWith('#'))
+            {
+                listed.Add(line.Replace('\\', '/'));
+            }
+        }
+
+        return listed;
+    }
+
+    /// <summary>Writes a file whole: a hidden temporary name unique to this run, created new (never through a link), then renamed.</summary>
+    private static void WriteWhole(string full, string content)
+    {
+        var folder = Path.GetDirectoryName(full)!;
+        Directory.CreateDirectory(folder);
+        var temporary = Path.Combine(folder, string.Create(CultureInfo.InvariantCulture,
+            $".{Path.GetFileName(full)}.{Environment.ProcessId}-{Guid.NewGuid():N}.partial"));
+        try
+        {
+            using (var stream = new FileStream(temporary, FileMode.CreateNew, FileAccess.Write, FileShare.None))
+            {
+                var bytes = new UTF8Encoding(encoderShouldEmitUTF8Identifier: false).GetBytes(content);
+                stream.Write(bytes);
+            }
+
+            File.Move(temporary, full, overwrite: true);
+        }
+        finally
+        {
+            if (File.Exists(temporary))
+            {
+                File.Delete(temporary);
+            }
+        }
+    }
+
+    /// <summary>Takes the folder's lock, waiting a bounded time for another check that holds it.</summary>
+    private FileStream Lock()
+    {
+        var path = Refuse(LockName, "lock");
+        var clock = Stopwatch.StartNew();
+        while (true)
+        {
+            try
+            {
+                // FileShare.None is an exclusive lock between processes (flock on Unix); the file itself stays.
+                return new FileStream(path, FileMode.OpenOrCreate, FileAccess.ReadWrite, FileShare.None);
+            }
+            catch (IOException) when (clock.Elapsed < lockWait)
+            {
+                Thread.Sleep(50);
+            }
+            catch (IOException)
+            {
+                throw new PagesFolderException(root, string.Create(CultureInfo.InvariantCulture,
+                    $"another check has been writing pages into '{root}' for {lockWait.TotalSeconds:0} s (it holds {LockName}); run the checks one after the other, or give each its own pages folder"));
+            }
+        }
+    }
+}
+
+/// <summary>A pages folder the tool will not write into, with a plain sentence that names the path.</summary>
+internal sealed class PagesFolderException(string path, string message) : IOException(message)
+{
+    public string Path { get; } = path;
 }

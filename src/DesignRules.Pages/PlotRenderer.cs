@@ -140,6 +140,9 @@ internal static class PlotRenderer
             TitleFontSize = 14,
             Background = OxyColors.White,
             PlotAreaBorderColor = OxyColors.Gray,
+
+            // OxyPlot formats axis labels in the current culture by default; the pages must not change with the build machine's locale.
+            Culture = System.Globalization.CultureInfo.InvariantCulture,
         };
         model.Legends.Add(new Legend
         {
