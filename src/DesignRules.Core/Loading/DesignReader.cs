@@ -204,8 +204,11 @@ internal static class DesignReader
                 d(m).Add(DesignFileDiagnostics.MissingKey.At(m.Anchor, what, "frequency", "or 'band', e.g. band: 20 Hz..20 kHz"));
             }
 
-            frequency = m.Quantity("frequency", Dimension.Frequency, required: false, ValueChecks.Within(1e-3, 1e9, "a signal frequency lies between 1 mHz and 1 GHz"));
-            band = m.Range("band", Dimension.Frequency, required: false, r => r.Low.Value > 0 ? null : "the band must start above 0 Hz");
+            // One range for a signal frequency, whether given alone or as either end of a band.
+            var signalFrequency = ValueChecks.Within(1e-3, 1e9, "a signal frequency lies between 1 mHz and 1 GHz");
+            frequency = m.Quantity("frequency", Dimension.Frequency, required: false, signalFrequency);
+            band = m.Range("band", Dimension.Frequency, required: false,
+                r => r.Low.Value > 0 ? signalFrequency(r.Low) ?? signalFrequency(r.High) : "the band must start above 0 Hz");
             if (hasFrequency && hasBand)
             {
                 band = null;
@@ -224,6 +227,14 @@ internal static class DesignReader
         if (isSum)
         {
             var items = m.List("components", required: true, "sine, triangle, square or dc entries");
+            if (items.Count > DesignLimits.MaxSumComponents)
+            {
+                d(m).Add(DesignFileDiagnostics.SizeLimit.At(m.KeySpan("components"),
+                    $"A sum of {items.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} components",
+                    $"{DesignLimits.MaxSumComponents.ToString(System.Globalization.CultureInfo.InvariantCulture)} components"));
+                return null;
+            }
+
             foreach (var item in items)
             {
                 var part = MappingReader.Of(item, "a component of the sum", d(m));
@@ -286,6 +297,14 @@ internal static class DesignReader
                 d(root).Add(DesignFileDiagnostics.MissingKey.At(root.KeySpan("stages"), "the design", "stages", "at least one stage"));
             }
 
+            return null;
+        }
+
+        if (items.Count > DesignLimits.MaxStages)
+        {
+            d(root).Add(DesignFileDiagnostics.SizeLimit.At(root.KeySpan("stages"),
+                $"The chain of {items.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} stages",
+                $"{DesignLimits.MaxStages.ToString(System.Globalization.CultureInfo.InvariantCulture)} stages"));
             return null;
         }
 

@@ -142,7 +142,7 @@ internal sealed partial class MappingReader
             return null;
         }
 
-        var problem = check?.Invoke(q);
+        var problem = PlausibleRange.Check(q) ?? check?.Invoke(q);
         if (problem is not null)
         {
             diagnostics.Add(DesignFileDiagnostics.OutOfRange.At(s.Span, s.Value, key, problem));
@@ -168,7 +168,7 @@ internal sealed partial class MappingReader
             return null;
         }
 
-        var problem = check?.Invoke(r);
+        var problem = PlausibleRange.Check(r.Low) ?? PlausibleRange.Check(r.High) ?? check?.Invoke(r);
         if (problem is not null)
         {
             diagnostics.Add(DesignFileDiagnostics.OutOfRange.At(s.Span, s.Value, key, problem));

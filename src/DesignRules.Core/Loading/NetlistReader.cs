@@ -1,3 +1,4 @@
+using System.Globalization;
 using System.Text.RegularExpressions;
 using DesignRules.Diagnostics;
 using DesignRules.Model;
@@ -35,6 +36,16 @@ internal static partial class NetlistReader
         var ids = new Dictionary<string, SourceSpan>(StringComparer.Ordinal);
         var ok = true;
         var items = m.List("elements", required: true, "element entries with id, type, value or part, and nodes");
+        if (items.Count > DesignLimits.MaxNetlistElements)
+        {
+            d.Add(DesignFileDiagnostics.SizeLimit.At(m.KeySpan("elements"),
+                $"A netlist of {items.Count.ToString(CultureInfo.InvariantCulture)} elements",
+                $"{DesignLimits.MaxNetlistElements.ToString(CultureInfo.InvariantCulture)} elements"));
+            m.Know("input");
+            m.Know("output");
+            return null;
+        }
+
         foreach (var item in items)
         {
             var e = MappingReader.Of(item, "an element", d);
@@ -61,6 +72,15 @@ internal static partial class NetlistReader
         {
             d.Add(DesignFileDiagnostics.MissingKey.At(m.KeySpan("elements"), m.What, "elements", "at least one element"));
             ok = false;
+        }
+
+        var nodeCount = elements.SelectMany(e => e.Nodes).Select(n => n.Value).Where(n => !GlobalNodes.Contains(n, StringComparer.Ordinal)).Distinct(StringComparer.Ordinal).Count();
+        if (nodeCount > DesignLimits.MaxNetlistNodes)
+        {
+            d.Add(DesignFileDiagnostics.SizeLimit.At(m.KeySpan("elements"),
+                $"A netlist of {nodeCount.ToString(CultureInfo.InvariantCulture)} nodes",
+                $"{DesignLimits.MaxNetlistNodes.ToString(CultureInfo.InvariantCulture)} nodes"));
+            return null;
         }
 
         if (ok && input is not null && output is not null && id is not null)

@@ -29,3 +29,54 @@ internal static class ValueChecks
     public static Func<Quantity, string?> Within(double low, double high, string what) =>
         q => Math.Abs(q.Value) >= low && Math.Abs(q.Value) <= high ? null : what;
 }
+
+/// <summary>
+/// The one plausible range of every quantity of a dimension, applied wherever such a quantity appears (a value, either
+/// end of a range, a part's figure, a requirement) before the key's own check: beyond it a value can only be a typo,
+/// and it would drive the analyses into overflow ("Infinity W") or a solver failure far from the value that caused it.
+/// Zero passes here; keys that need a positive value say so themselves. The README's limits table lists these.
+/// </summary>
+public static class PlausibleRange
+{
+    private static readonly Dictionary<Dimension, (double Smallest, double Largest)> Ranges = new()
+    {
+        [Dimension.Ratio] = (1e-12, 1e10),
+        [Dimension.Voltage] = (1e-12, 1e5),
+        [Dimension.Current] = (1e-21, 1e3),
+        [Dimension.Resistance] = (1e-3, 1e12),
+        [Dimension.Capacitance] = (1e-15, 10),
+        [Dimension.Inductance] = (1e-12, 1e3),
+        [Dimension.Frequency] = (1e-3, 1e10),
+        [Dimension.Time] = (1e-15, 1e4),
+        [Dimension.Power] = (1e-9, 1e4),
+        [Dimension.SlewRate] = (1e-3, 1e12),
+        [Dimension.TemperatureCoefficient] = (1e-12, 1),
+        [Dimension.VoltageNoiseDensity] = (1e-15, 1e-3),
+    };
+
+    /// <summary>The smallest non-zero and the largest magnitude accepted for a dimension (temperatures have their key's own range).</summary>
+    public static (double Smallest, double Largest) Of(Dimension dimension) =>
+        Ranges.TryGetValue(dimension, out var range) ? range : (double.Epsilon, double.MaxValue);
+
+    /// <summary>Null when the value lies in its dimension's plausible range (or is zero), else why not.</summary>
+    public static string? Check(Quantity q)
+    {
+        var (smallest, largest) = Of(q.Dimension);
+        var size = Math.Abs(q.Value);
+        if (double.IsFinite(q.Value) && (size == 0 || (size >= smallest && size <= largest)))
+        {
+            return null;
+        }
+
+        return $"every {Name(q.Dimension)} must lie between {new Quantity(smallest, q.Dimension).Format()} and {new Quantity(largest, q.Dimension).Format()} in size (or be 0 where zero is allowed)";
+    }
+
+    private static string Name(Dimension dimension) => dimension switch
+    {
+        Dimension.Ratio => "ratio",
+        Dimension.SlewRate => "slew rate",
+        Dimension.TemperatureCoefficient => "temperature coefficient",
+        Dimension.VoltageNoiseDensity => "noise density",
+        _ => dimension.ToString().ToLowerInvariant(),
+    };
+}
