@@ -97,8 +97,9 @@ public sealed class CheckDesignsTaskTests : IDisposable
     [Fact]
     public void Internal_failure_is_one_DR990_error_not_an_exception()
     {
-        // A report path that is an existing folder cannot be written.
-        var (task, engine) = Task(SampleRepository.Design(), t => t.SarifFile = root);
+        // The targets always pass today's date as yyyy-MM-dd; anything else reaching the task is a fault of the tool's own
+        // wiring. (A report path that is a folder, once the trigger here, is now the user's mistake: see below.)
+        var (task, engine) = Task(SampleRepository.Design(), t => t.Today = "not-a-date");
         Assert.False(task.Execute());
         var error = Assert.Single(engine.Errors);
         Assert.Equal(CheckDesigns.InternalErrorCode, error.Code);
@@ -122,5 +123,50 @@ public sealed class CheckDesignsTaskTests : IDisposable
         Assert.False(task.Execute());
         Assert.Contains("\"DR906\"", File.ReadAllText(sarif), StringComparison.Ordinal);
         Assert.Contains("\"designs/line-driver.yaml\"", File.ReadAllText(json), StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void In_a_build_whose_culture_writes_decimal_commas_the_pages_are_the_same_bytes_and_the_culture_is_restored()
+    {
+        // MSBuild runs the task in the user's culture; a comma-decimal one (like de-DE) is made from the invariant one
+        // because the tests run with invariant globalization.
+        var comma = (System.Globalization.CultureInfo)System.Globalization.CultureInfo.InvariantCulture.Clone();
+        comma.NumberFormat.NumberDecimalSeparator = ",";
+        comma.NumberFormat.NumberGroupSeparator = ".";
+        var (invariantTask, _) = Task(SampleRepository.Design(), t => t.PagesFolder = Path.Combine(root, "invariant"));
+        Assert.True(invariantTask.Execute());
+
+        var saved = System.Globalization.CultureInfo.CurrentCulture;
+        try
+        {
+            System.Globalization.CultureInfo.CurrentCulture = comma;
+            var (commaTask, _) = Task(SampleRepository.Design(), t => t.PagesFolder = Path.Combine(root, "comma"));
+            Assert.True(commaTask.Execute());
+            Assert.Same(comma, System.Globalization.CultureInfo.CurrentCulture);
+        }
+        finally
+        {
+            System.Globalization.CultureInfo.CurrentCulture = saved;
+        }
+
+        var files = Directory.GetFiles(Path.Combine(root, "invariant"), "*.svg", SearchOption.AllDirectories);
+        Assert.NotEmpty(files);
+        foreach (var file in files.Concat(Directory.GetFiles(Path.Combine(root, "invariant"), "*.md")))
+        {
+            var twin = Path.Combine(root, "comma", Path.GetRelativePath(Path.Combine(root, "invariant"), file));
+            Assert.True(File.ReadAllBytes(file).AsSpan().SequenceEqual(File.ReadAllBytes(twin)), file);
+        }
+    }
+
+    [Fact]
+    public void A_sarif_path_that_is_a_folder_is_a_plain_error_naming_it_not_a_fault_of_the_tool()
+    {
+        var folder = Path.Combine(root, "reports");
+        Directory.CreateDirectory(folder);
+        var (task, engine) = Task(SampleRepository.Design(), t => t.SarifFile = folder);
+        Assert.False(task.Execute());
+        var error = Assert.Single(engine.Errors);
+        Assert.Null(error.Code);
+        Assert.Contains($"DesignRulesSarifFile '{folder}' is a folder", error.Message, StringComparison.Ordinal);
     }
 }
