@@ -14,6 +14,7 @@ namespace DesignRules.Build.Tests;
 /// and within 10 seconds. Each CI run tries the same few hundred mutants; set <c>DESIGNRULES_FUZZ_MUTANTS</c> to try
 /// more and <c>DESIGNRULES_FUZZ_SEED</c> to try others (the README says so).
 /// </summary>
+[Collection(Alone.Name)]
 public sealed class MutationFuzzerTests : IDisposable
 {
     private const int DefaultMutants = 300;
@@ -143,4 +144,14 @@ public sealed class MutationFuzzerTests : IDisposable
             return 2;
         }
     }
+}
+
+/// <summary>
+/// Tests that time single runs: they run after the parallel tests, alone, so that the builds and processes of other
+/// tests in this assembly do not share the cores with the run being timed.
+/// </summary>
+[CollectionDefinition(Name, DisableParallelization = true)]
+public sealed class Alone
+{
+    public const string Name = "timed runs, alone";
 }

@@ -120,7 +120,6 @@ public sealed class DesignLoader
         var catalog = new PartsCatalog(visible, diagnostics, file);
         var design = DesignReader.Read(file, root, header, visible, catalog);
 
-        // A design with any error is not handed on: later stages see only designs that loaded cleanly.
         if (design is not null && designIds.TryGetValue(design.Id.Value, out var first))
         {
             // Two designs with one id would write one page over the other; the first in file order keeps it.
@@ -134,6 +133,7 @@ public sealed class DesignLoader
             designIds[design.Id.Value] = design.Id.Span;
         }
 
+        // A design with any error is not handed on: later stages see only designs that loaded cleanly.
         if (design is not null && !diagnostics.Skip(errorsBefore).Any(d => d.Severity == Severity.Error))
         {
             designs.Add(design);
