@@ -318,7 +318,7 @@ public sealed class HostileInputTests : IDisposable
         var run = Check(".");
         Assert.Equal(1, run.ExitCode);
         Assert.Contains("design-rules.yaml(2,27): error DR905: ", run.Output, StringComparison.Ordinal);
-        Assert.Contains("20,000", run.Output, StringComparison.Ordinal);
+        Assert.Contains("50,000", run.Output, StringComparison.Ordinal);
     }
 
     [Fact]
