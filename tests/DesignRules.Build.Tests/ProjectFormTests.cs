@@ -28,7 +28,7 @@ public sealed class ProjectFormTests(PackedFeed feed)
         var clean = repo.Build("-warnaserror");
         Assert.True(clean.ExitCode == 0, clean.ToString());
         Assert.DoesNotContain("CS2008", clean.Output, StringComparison.Ordinal);
-        Assert.DoesNotContain("warning", clean.Output, StringComparison.OrdinalIgnoreCase);
+        Assert.DoesNotContain(": warning ", clean.Output, StringComparison.Ordinal);
         Assert.Empty(Directory.GetFiles(repo.Root, "*.dll", SearchOption.AllDirectories));
 
         var text = SampleRepository.Design(SampleRepository.UnknownAmplifier);
