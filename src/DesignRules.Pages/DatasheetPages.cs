@@ -76,8 +76,9 @@ public static class DatasheetPages
 
         if (options.HelpUriBase is null)
         {
-            var linked = report.Findings.Where(f => f.DesignId is not null && pages.Any(p => p.Summary.Design.Id.Value == f.DesignId))
-                .Select(f => f.RuleId).Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal);
+            // Every rule of the run, not only those the pages mention: build diagnostics link to these copies too, and a
+            // design that failed to load has no page but does have findings.
+            var linked = report.Findings.Select(f => f.RuleId).Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal);
             foreach (var id in linked)
             {
                 if (RuleHelp.Markdown(id) is { } help)

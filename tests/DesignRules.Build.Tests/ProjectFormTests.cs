@@ -37,6 +37,9 @@ public sealed class ProjectFormTests(PackedFeed feed)
         Assert.True(failed.ExitCode != 0, failed.ToString());
         Assert.Contains("error DR906", failed.Output, StringComparison.Ordinal);
 
+        // The diagnostic's help link points at a copy of the help page beside the pages, never into the NuGet cache.
+        Assert.True(File.Exists(Path.Combine(repo.Root, "design-pages", "rules", "DR906.md")), failed.ToString());
+
         var sarif = File.ReadAllText(repo.SarifFile);
         Assert.Empty(SarifSchema.Problems(sarif));
         Assert.Empty(SarifSchema.MissingCodeScanningFields(sarif));
