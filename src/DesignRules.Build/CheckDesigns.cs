@@ -10,7 +10,7 @@ using Microsoft.Build.Utilities;
 namespace DesignRules.Build;
 
 /// <summary>
-/// The MSBuild task: checks the design and parts files of a hardware repository through <see cref="DesignCheck.Run"/>
+/// The MSBuild task: checks the design and parts files of a hardware repository through <see cref="DesignCheck"/>
 /// and logs every finding as an error, warning or message with its code, file, line, column, end position and help link.
 /// MSBuild applies <c>-warnaserror</c>, <c>WarningsAsErrors</c> and <c>NoWarn</c> to the DR codes itself; this task
 /// applies <c>TreatWarningsAsErrors</c> (which MSBuild leaves to compilers), honouring <c>WarningsNotAsErrors</c> and
@@ -75,6 +75,19 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
     /// <summary>The project's <c>NoWarn</c>: listed DR warnings are logged as low-importance messages.</summary>
     public string? NoWarn { get; set; }
+
+    /// <summary>The project's <c>WarningsAsErrors</c> (MSBuild promotes these itself; reports need to know too).</summary>
+    public string? WarningsAsErrors { get; set; }
+
+    /// <summary>
+    /// The folder SARIF and JSON paths are relative to: empty for the nearest folder at or above
+    /// <see cref="RepositoryRoot"/> that holds <c>.git</c> (else <see cref="RepositoryRoot"/> itself), so that code
+    /// scanning finds the files however deep the project sits in the repository.
+    /// </summary>
+    public string? ReportRoot { get; set; }
+
+    /// <summary>False writes locations as <c>file(line,col)</c>, without the end position, for problem matchers that read only that form.</summary>
+    public bool EndPositions { get; set; } = true;
 
     /// <summary>Findings logged as errors (after warnings treated as errors).</summary>
     [Output]
@@ -158,26 +171,31 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
         var files = Files.Select(f => f.GetMetadata("FullPath")).Where(f => f.Length > 0).Distinct(StringComparer.Ordinal).ToList();
         var ruleSet = string.IsNullOrWhiteSpace(RuleSetFile) ? null : Path.GetFullPath(RuleSetFile);
-        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, ParseToday())));
-        var settings = new ReportSettings(root, EffectiveHelpBase(), ToolVersion);
+        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, ParseToday()), LogDesign));
+        var reportRoot = string.IsNullOrWhiteSpace(ReportRoot) ? RepositoryPaths.FindRepositoryRoot(root) : Path.GetFullPath(ReportRoot);
+        var settings = new ReportSettings(reportRoot, string.IsNullOrWhiteSpace(HelpUriBase) ? null : HelpUriBase, ToolVersion);
+        var asTheBuildShowsIt = BuildWarnings().Apply(report);
         if (!string.IsNullOrWhiteSpace(SarifFile))
         {
-            SarifReport.WriteFile(report, settings, SarifFile);
+            SarifReport.WriteFile(asTheBuildShowsIt, settings, SarifFile);
         }
 
         if (!string.IsNullOrWhiteSpace(JsonFile))
         {
-            JsonReport.WriteFile(report, settings, JsonFile);
+            JsonReport.WriteFile(asTheBuildShowsIt, settings, JsonFile);
         }
 
         if (!string.IsNullOrWhiteSpace(PagesFolder))
         {
             var pages = DatasheetPages.Write(report, new PageOptions(Path.GetFullPath(PagesFolder),
-                string.IsNullOrWhiteSpace(TemplateFolder) ? null : Path.GetFullPath(TemplateFolder), root));
+                string.IsNullOrWhiteSpace(TemplateFolder) ? null : Path.GetFullPath(TemplateFolder), root)
+            {
+                HelpUriBase = string.IsNullOrWhiteSpace(HelpUriBase) ? null : HelpUriBase,
+            });
             foreach (var template in pages.Diagnostics)
             {
                 var span = template.Span;
-                Log.LogError(null, template.Id, null, HelpFor(template.Id), span.File, span.Line, span.Column, span.EndLine, span.EndColumn, template.Message);
+                Log.LogError(null, template.Id, null, HelpFor(template.Id), span.File, span.Line, span.Column, EndLine(span), EndColumn(span), template.Message);
             }
 
             Log.LogMessage(MessageImportance.Normal, string.Create(CultureInfo.InvariantCulture,
@@ -231,9 +249,10 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         // A file name can hold a newline too; the log line shows it escaped, like the message.
         var s = f.Span with { File = DiagnosticText.Escape(f.Span.File) };
         var help = HelpFor(f.RuleId);
+        var (endLine, endColumn) = (EndLine(s), EndColumn(s));
         if (f.IsWaived)
         {
-            Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, MessageImportance.Low,
+            Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, endLine, endColumn, MessageImportance.Low,
                 $"{f.Message} (waived: {f.Waiver})");
             return;
         }
@@ -242,22 +261,22 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         {
             case Severity.Error:
                 ErrorCount++;
-                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, f.Message);
+                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, endLine, endColumn, f.Message);
                 break;
             case Severity.Warning when noWarn.Contains(f.RuleId):
-                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, MessageImportance.Low, f.Message);
+                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, endLine, endColumn, MessageImportance.Low, f.Message);
                 break;
             case Severity.Warning when TreatWarningsAsErrors && !notAsErrors.Contains(f.RuleId):
                 ErrorCount++;
-                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, f.Message);
+                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, endLine, endColumn, f.Message);
                 break;
             case Severity.Warning:
                 // MSBuild turns this into an error itself under -warnaserror or WarningsAsErrors, and into a message under NoWarn.
                 WarningCount++;
-                Log.LogWarning(null, f.RuleId, null, help, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, f.Message);
+                Log.LogWarning(null, f.RuleId, null, help, s.File, s.Line, s.Column, endLine, endColumn, f.Message);
                 break;
             default:
-                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, s.EndLine, s.EndColumn, MessageImportance.Normal, f.Message);
+                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, endLine, endColumn, MessageImportance.Normal, f.Message);
                 break;
         }
     }
@@ -270,12 +289,32 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         Log.LogMessage(MessageImportance.Low, detail.ToString());
     }
 
+    /// <summary>
+    /// Where a diagnostic's help link points: the configured base; else the copy of the page in the pages folder (pages
+    /// copy every help page they link to), a file of the repository rather than of a package cache; else the folder given.
+    /// </summary>
     private string? EffectiveHelpBase() =>
         !string.IsNullOrWhiteSpace(HelpUriBase) ? HelpUriBase
+        : !string.IsNullOrWhiteSpace(PagesFolder) ? HelpLinks.FolderUri(Path.Combine(Path.GetFullPath(PagesFolder), DatasheetPages.HelpFolder))
         : !string.IsNullOrWhiteSpace(HelpFolder) ? HelpLinks.FolderUri(HelpFolder)
         : null;
 
     private string? HelpFor(string ruleId) => HelpLinks.For(ruleId, EffectiveHelpBase());
+
+    private WarningLevels BuildWarnings() =>
+        new(TreatWarningsAsErrors, new CodeList(WarningsAsErrors), new CodeList(WarningsNotAsErrors), new CodeList(NoWarn))
+        {
+            HostTreatsAsError = BuildEngine is IBuildEngine8 engine ? engine.ShouldTreatWarningAsError : null,
+        };
+
+    private int EndLine(DesignRules.Diagnostics.SourceSpan span) => EndPositions ? span.EndLine : 0;
+
+    private int EndColumn(DesignRules.Diagnostics.SourceSpan span) => EndPositions ? span.EndColumn : 0;
+
+    /// <summary>One line per design as it finishes, at normal verbosity: a long check shows its progress.</summary>
+    private void LogDesign(DesignProgress progress) =>
+        Log.LogMessage(MessageImportance.Normal, string.Create(CultureInfo.InvariantCulture,
+            $"DesignRules: {progress.File}: design '{progress.DesignId}' checked: {progress.Errors} error(s), {progress.Warnings} warning(s) in {progress.Elapsed.TotalSeconds:0.00} s."));
 
     private DateOnly ParseToday() =>
         string.IsNullOrWhiteSpace(Today) ? DateOnly.FromDateTime(DateTime.Today)

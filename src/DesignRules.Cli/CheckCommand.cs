@@ -17,9 +17,14 @@ internal static class CheckCommand
         Arity = ArgumentArity.ZeroOrMore,
     };
 
-    private static readonly Option<string?> Sarif = new("--sarif") { Description = "Also write the findings as SARIF 2.1.0 to FILE.", HelpName = "FILE" };
+    private static readonly Option<string?> Sarif = new("--sarif") { Description = "Also write the findings as SARIF 2.1.0 to FILE ('-': standard output).", HelpName = "FILE" };
 
-    private static readonly Option<string?> Json = new("--json") { Description = "Also write the findings with their figures as JSON to FILE.", HelpName = "FILE" };
+    private static readonly Option<string?> Json = new("--json") { Description = "Also write the findings with their figures as JSON to FILE ('-': standard output).", HelpName = "FILE" };
+
+    private static readonly Option<bool> WarningsAsErrors = new("--warnings-as-errors")
+    {
+        Description = "Treat every warning as an error: it is printed and reported as an error and makes the exit code 1.",
+    };
 
     private static readonly Option<string?> RuleSet = new("--rules")
     {
@@ -29,13 +34,13 @@ internal static class CheckCommand
 
     private static readonly Option<string?> Root = new("--root")
     {
-        Description = "The repository root that report paths are relative to (default: the one folder given, else the current folder).",
+        Description = "The repository root: the rule-set file is found there, and report paths are relative to it (default: the one folder given, else the current folder; report paths from the nearest folder above it with .git).",
         HelpName = "DIR",
     };
 
     private static readonly Option<string?> HelpBase = new("--help-uri-base")
     {
-        Description = "The address rule help links start with; DRnnn.md is appended (default: the pages shipped with the tool).",
+        Description = "The address rule help links start with; DRnnn.md is appended (default: SARIF embeds the help pages, and --pages copies them beside the pages).",
         HelpName = "URI",
     };
 
@@ -67,8 +72,17 @@ internal static class CheckCommand
     {
         var command = new Command("check", "Check every design and report problems as file(line,col): severity DRnnn: message.")
         {
-            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today,
+            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today, WarningsAsErrors,
         };
+        // An option the command does not know is an error, not a path: System.CommandLine gives every token that is not
+        // an option to the paths argument. A path that starts with '-' can be written ./-name.
+        Paths.Validators.Add(result =>
+        {
+            foreach (var token in result.Tokens.Where(t => t.Value.Length > 1 && t.Value.StartsWith('-')))
+            {
+                result.AddError($"Unknown option '{token.Value}' for check. Run 'designrules check --help' for the options.");
+            }
+        });
         command.SetAction(Run);
         return command;
     }
@@ -131,21 +145,48 @@ internal static class CheckCommand
             return ExitCodes.Unusable;
         }
 
-        Terminal.Status(string.Create(CultureInfo.InvariantCulture, $"Checking {files.Count} file(s)…"));
-        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, today)));
-        Terminal.ClearStatus();
-        var helpBase = result.GetValue(HelpBase) ?? HelpLinks.FolderUri(Path.Combine(AppContext.BaseDirectory, "rules"));
-        var settings = new ReportSettings(root, helpBase, ToolVersion);
+        var sarif = result.GetValue(Sarif);
+        var json = result.GetValue(Json);
+        if (sarif == StandardOutput && json == StandardOutput)
+        {
+            Console.Error.WriteLine("--sarif, --json: error: only one report can go to standard output ('-'); give the other a file name");
+            return ExitCodes.Unusable;
+        }
+
+        // Progress on standard error, one line per design as it finishes, so a long check is never silent and standard
+        // output stays the findings (or the report that '-' sends there).
+        var displayRoot = Path.GetFullPath(root);
+        var check = DesignCheck.Run(files, new CheckOptions(ruleSet, today), progress => Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+            $"checked {RepositoryPaths.Display(displayRoot, progress.File)} ({progress.DesignId}): {progress.Errors} error(s), {progress.Warnings} warning(s), {progress.Elapsed.TotalSeconds:0.00} s")));
+        var warnings = result.GetValue(WarningsAsErrors) ? WarningLevels.None with { AllAsErrors = true } : WarningLevels.None;
+        var report = warnings.Apply(levels.Apply(check));
+        var helpBase = result.GetValue(HelpBase);
+        var reportRoot = result.GetValue(Root) is { } explicitRoot ? Path.GetFullPath(explicitRoot) : RepositoryPaths.FindRepositoryRoot(root);
+        var settings = new ReportSettings(reportRoot, helpBase, ToolVersion);
         try
         {
-            if (result.GetValue(Sarif) is { } sarif)
+            if (sarif is not null)
             {
-                SarifReport.WriteFile(report, settings, sarif);
+                if (sarif == StandardOutput)
+                {
+                    WriteToStandardOutput(SarifReport.ToBytes(report, settings));
+                }
+                else
+                {
+                    SarifReport.WriteFile(report, settings, sarif);
+                }
             }
 
-            if (result.GetValue(Json) is { } json)
+            if (json is not null)
             {
-                JsonReport.WriteFile(report, settings, json);
+                if (json == StandardOutput)
+                {
+                    WriteToStandardOutput(JsonReport.ToBytes(report, settings));
+                }
+                else
+                {
+                    JsonReport.WriteFile(report, settings, json);
+                }
             }
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
@@ -154,7 +195,8 @@ internal static class CheckCommand
             return ExitCodes.Unusable;
         }
 
-        HumanReport.Write(report, Terminal.ForStandardOutput());
+        var toStandardOutput = sarif == StandardOutput || json == StandardOutput;
+        HumanReport.Write(report, toStandardOutput ? new Terminal(Console.Error, colour: false) : Terminal.ForStandardOutput());
         var templateErrors = 0;
         if (result.GetValue(PagesFolder) is { } pagesFolder)
         {
@@ -165,7 +207,7 @@ internal static class CheckCommand
                 return ExitCodes.Unusable;
             }
 
-            var pages = DatasheetPages.Write(report, new PageOptions(pagesFolder, templates, root));
+            var pages = DatasheetPages.Write(report, new PageOptions(pagesFolder, templates, root) { HelpUriBase = helpBase });
             foreach (var diagnostic in pages.Diagnostics)
             {
                 Console.Error.WriteLine(diagnostic.ToString());
@@ -178,11 +220,21 @@ internal static class CheckCommand
                 return ExitCodes.Unusable;
             }
 
-            Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
+            (toStandardOutput ? Console.Error : Console.Out).WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"{pages.Written.Count} page and plot file(s) written to {pagesFolder}, {pages.Removed.Count} stale file(s) removed."));
         }
 
         return report.ErrorCount > 0 || templateErrors > 0 ? ExitCodes.Errors : ExitCodes.Clean;
+    }
+
+    /// <summary>The file name that means standard output.</summary>
+    private const string StandardOutput = "-";
+
+    private static void WriteToStandardOutput(byte[] bytes)
+    {
+        using var stdout = Console.OpenStandardOutput();
+        stdout.Write(bytes);
+        stdout.Flush();
     }
 
     private static bool TryToday(string? text, out DateOnly today)

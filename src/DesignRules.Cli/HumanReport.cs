@@ -11,7 +11,8 @@ internal static class HumanReport
     {
         foreach (var f in report.Findings)
         {
-            var level = f.Severity.ToString().ToLowerInvariant();
+            // A waived finding says "waived", never its level: a log parser that counts "warning" lines counts open ones only.
+            var level = f.IsWaived ? "waived" : f.Severity.ToString().ToLowerInvariant();
             var painted = f.IsWaived ? terminal.Dim(level) : f.Severity switch
             {
                 Severity.Error => terminal.Red(level),
@@ -19,7 +20,7 @@ internal static class HumanReport
                 _ => terminal.Cyan(level),
             };
             var line = $"{f.Span}: {painted} {terminal.Bold(f.RuleId)}: {f.Message}";
-            terminal.Output.WriteLine(f.IsWaived ? $"{line} {terminal.Dim($"(waived: {f.Waiver})")}" : line);
+            terminal.Output.WriteLine(f.IsWaived ? $"{line} {terminal.Dim($"(reason: {f.Waiver})")}" : line);
         }
 
         var waived = report.Findings.Count(f => f.IsWaived);

@@ -3,16 +3,16 @@ using DesignRules.Loading;
 
 namespace DesignRules.Cli;
 
-/// <summary><c>designrules schema design|parts</c>: prints the JSON Schema of a file format, for editors.</summary>
+/// <summary><c>designrules schema design|parts|rule-set</c>: prints the JSON Schema of a file format, for editors.</summary>
 internal static class SchemaCommand
 {
-    private static readonly Argument<string> Kind = new("kind") { Description = "design or parts." };
+    private static readonly Argument<string> Kind = new("kind") { Description = "design, parts or rule-set." };
 
-    static SchemaCommand() => Kind.AcceptOnlyFromAmong("design", "parts");
+    static SchemaCommand() => Kind.AcceptOnlyFromAmong("design", "parts", "rule-set");
 
     public static Command Create()
     {
-        var command = new Command("schema", "Print the JSON Schema (draft 2020-12) of design files or parts files.") { Kind };
+        var command = new Command("schema", "Print the JSON Schema (draft 2020-12) of design files, parts files or the rule-set file.") { Kind };
         command.SetAction(Run);
         return command;
     }

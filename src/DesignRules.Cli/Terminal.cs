@@ -18,24 +18,6 @@ internal sealed class Terminal
     public static Terminal ForStandardOutput() =>
         new(Console.Out, !Console.IsOutputRedirected && string.IsNullOrEmpty(Environment.GetEnvironmentVariable("NO_COLOR")));
 
-    /// <summary>A status line on standard error, only when it is a terminal: long runs show that they are working.</summary>
-    public static void Status(string text)
-    {
-        if (!Console.IsErrorRedirected)
-        {
-            Console.Error.Write("\r\u001b[2K" + text);
-        }
-    }
-
-    /// <summary>Clears the status line.</summary>
-    public static void ClearStatus()
-    {
-        if (!Console.IsErrorRedirected)
-        {
-            Console.Error.Write("\r\u001b[2K");
-        }
-    }
-
     public string Red(string text) => Paint("31", text);
 
     public string Yellow(string text) => Paint("33", text);

@@ -17,6 +17,12 @@ public static class DatasheetPages
 
     private static DiagnosticDescriptor FolderProblem => RuleCatalogue.Default[FolderProblemId];
 
+    /// <summary>
+    /// The sub-folder of the pages folder that holds a copy of every rule help page a page links to, so that each link
+    /// resolves where the pages are read (a wiki, a forge's file view), not inside a package cache.
+    /// </summary>
+    public const string HelpFolder = "rules";
+
     /// <summary>Renders every page of <paramref name="report"/> into the options' output folder.</summary>
     public static PageResult Write(CheckReport report, PageOptions options)
     {
@@ -37,7 +43,7 @@ public static class DatasheetPages
             var name = OutputFolder.SafeName(summary.Design.Id.Value);
             var page = $"{name}.md";
             string? PlotPath(string stage, string kind) => $"plots/{name}/{OutputFolder.SafeName(stage)}-{kind}.svg";
-            var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath);
+            var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath, id => HelpLink(id, options));
             var text = Render(templates, "design", "design", model, diagnostics);
             if (text is null)
             {
@@ -73,6 +79,20 @@ public static class DatasheetPages
             output.Write("index.md", index);
         }
 
+        if (options.HelpUriBase is null)
+        {
+            // Every rule of the run, not only those the pages mention: build diagnostics link to these copies too, and a
+            // design that failed to load has no page but does have findings.
+            var linked = report.Findings.Select(f => f.RuleId).Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal);
+            foreach (var id in linked)
+            {
+                if (RuleHelp.Markdown(id) is { } help)
+                {
+                    output.Write($"{HelpFolder}/{id}.md", help);
+                }
+            }
+        }
+
         try
         {
             var removed = output.Commit(diagnostics);
@@ -91,12 +111,17 @@ public static class DatasheetPages
         return new PageResult([], [], diagnostics);
     }
 
+    /// <summary>A rule's help link as a page in the pages folder's root writes it.</summary>
+    private static string HelpLink(string ruleId, PageOptions options) =>
+        options.HelpUriBase is { } root ? root.TrimEnd('/', '\\') + "/" + ruleId + ".md" : $"{HelpFolder}/{ruleId}.md";
+
     private static string? Render(TemplateSet templates, string name, string variable, ScriptObject model, List<Diagnostic> diagnostics)
     {
         var (template, path, _) = templates[name];
         var globals = EngineeringFunctions.Create();
         globals[variable] = model;
-        var context = new TemplateContext
+        globals["include"] = new MarkdownInclude();
+        var context = new MarkdownTemplateContext
         {
             TemplateLoader = templates,
             StrictVariables = true,

@@ -47,10 +47,9 @@ internal static class EngineeringFunctions
             : number.ToString("G" + digits.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture) + " " + unit;
     }
 
-    /// <summary>Escapes text for a Markdown table cell: pipes and line breaks would end the cell or the row.</summary>
-    public static string Cell(object? value) =>
-        (Convert.ToString(value, CultureInfo.InvariantCulture) ?? string.Empty)
-            .Replace("|", "\\|", StringComparison.Ordinal).ReplaceLineEndings(" ");
+    /// <summary>Escapes text for a Markdown table cell: inline escaping covers pipes and line breaks too.</summary>
+    public static MarkdownText Cell(object? value) =>
+        value as MarkdownText ?? new MarkdownText(MarkdownEscape.Inline(Convert.ToString(value, CultureInfo.InvariantCulture)));
 
     private static double ToDouble(object? value) => value switch
     {
@@ -64,7 +63,7 @@ internal static class EngineeringFunctions
     };
 }
 
-/// <summary>The functions as the templates call them: <c>eng</c>, <c>percent</c>, <c>cell</c>.</summary>
+/// <summary>The functions as the templates call them: <c>eng</c>, <c>percent</c>, <c>cell</c>, <c>code</c>, <c>url</c>.</summary>
 internal static class TemplateFunctions
 {
     /// <summary><c>eng value unit [digits]</c>: engineering notation.</summary>
@@ -74,5 +73,13 @@ internal static class TemplateFunctions
     public static string Percent(object? value) => EngineeringFunctions.Engineering(value, "%");
 
     /// <summary><c>cell text</c>: text made safe for a Markdown table cell.</summary>
-    public static string Cell(object? value) => EngineeringFunctions.Cell(value);
+    public static MarkdownText Cell(object? value) => EngineeringFunctions.Cell(value);
+
+    /// <summary><c>code text</c>: a code span holding the text literally, whatever backticks or pipes it has.</summary>
+    public static MarkdownText Code(object? value) =>
+        new(MarkdownEscape.Code(value is MarkdownText m ? m.Text : Convert.ToString(value, CultureInfo.InvariantCulture)));
+
+    /// <summary><c>url target</c>: a link or image target that cannot end early.</summary>
+    public static MarkdownText Url(object? value) =>
+        value as MarkdownText ?? new MarkdownText(MarkdownEscape.Url(Convert.ToString(value, CultureInfo.InvariantCulture)));
 }

@@ -37,7 +37,7 @@ internal static class PageModel
                 ["id"] = summary.Design.Id.Value,
                 ["title"] = Title(summary.Design),
                 ["summary"] = summary.Design.Summary,
-                ["page"] = page,
+                ["page"] = new MarkdownText(MarkdownEscape.Url(page)),
                 ["stages"] = summary.Design.Stages.Count,
                 ["errors"] = findings.Count(f => f.Severity == Severity.Error && !f.IsWaived),
                 ["warnings"] = findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived),
@@ -56,14 +56,15 @@ internal static class PageModel
         };
     }
 
-    public static ScriptObject Design(CheckReport report, DesignSummary summary, string? repositoryRoot, Func<string, string, string?> plotPath)
+    public static ScriptObject Design(CheckReport report, DesignSummary summary, string? repositoryRoot, Func<string, string, string?> plotPath,
+        Func<string, string> helpLink)
     {
         var design = summary.Design;
         var findings = report.Findings.Where(f => f.DesignId == design.Id.Value).ToList();
         var stages = new ScriptArray();
         foreach (var stage in design.Stages)
         {
-            stages.Add(Stage(design, stage, summary, findings, plotPath));
+            stages.Add(Stage(design, stage, summary, findings, plotPath, helpLink));
         }
 
         var source = design.Source.Waveform;
@@ -97,17 +98,18 @@ internal static class PageModel
                 ["capacitance"] = design.Load.Capacitance?.Value.Value,
                 ["returns_to"] = design.Load.ReturnsTo.Value.Value,
             },
-            ["mermaid"] = Mermaid(design),
+            ["mermaid"] = new MarkdownText(Mermaid(design)),
             ["requirements"] = Requirements(design, findings),
             ["stages"] = stages,
-            ["findings"] = Findings(findings.Where(f => f.StageId is null)),
+            ["findings"] = Findings(findings.Where(f => f.StageId is null), helpLink),
             ["errors"] = findings.Count(f => f.Severity == Severity.Error && !f.IsWaived),
             ["warnings"] = findings.Count(f => f.Severity == Severity.Warning && !f.IsWaived),
             ["waived"] = findings.Count(f => f.IsWaived),
         };
     }
 
-    private static ScriptObject Stage(Design design, Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath)
+    private static ScriptObject Stage(Design design, Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath,
+        Func<string, string> helpLink)
     {
         var parts = new ScriptArray();
         var values = new ScriptArray();
@@ -182,10 +184,10 @@ internal static class PageModel
             ["parts"] = parts,
             ["values"] = values,
             ["figures"] = figures,
-            ["findings"] = Findings(findings.Where(f => f.StageId == stage.Id.Value)),
-            ["transient_plot"] = plots?.Transient is null ? null : plotPath(stage.Id.Value, "transient"),
-            ["bode_plot"] = plots?.Bode is null ? null : plotPath(stage.Id.Value, "response"),
-            ["histogram_plot"] = plots?.Distribution is null ? null : plotPath(stage.Id.Value, "monte-carlo"),
+            ["findings"] = Findings(findings.Where(f => f.StageId == stage.Id.Value), helpLink),
+            ["transient_plot"] = plots?.Transient is null ? null : Link(plotPath(stage.Id.Value, "transient")),
+            ["bode_plot"] = plots?.Bode is null ? null : Link(plotPath(stage.Id.Value, "response")),
+            ["histogram_plot"] = plots?.Distribution is null ? null : Link(plotPath(stage.Id.Value, "monte-carlo")),
             ["histogram_caption"] = plots?.Distribution?.Caption,
             ["amplifier_nodes"] = new ScriptArray(plots?.Transient?.Traces.Where(t => t.Role == TraceRole.AmplifierOutput).Select(t => t.Name) ?? []),
         };
@@ -205,7 +207,9 @@ internal static class PageModel
         ["tolerance"] = tolerance,
     };
 
-    private static ScriptArray Findings(IEnumerable<Finding> findings)
+    private static MarkdownText? Link(string? target) => target is null ? null : new MarkdownText(MarkdownEscape.Url(target));
+
+    private static ScriptArray Findings(IEnumerable<Finding> findings, Func<string, string> helpLink)
     {
         var list = new ScriptArray();
         foreach (var f in findings)
@@ -215,12 +219,13 @@ internal static class PageModel
                 ["id"] = f.RuleId,
                 ["title"] = f.Title,
                 ["severity"] = f.Severity.ToString().ToLowerInvariant(),
-                ["message"] = f.Message,
+                // Messages put node and key names in `code`; those stay code spans, the rest is escaped text.
+                ["message"] = new MarkdownText(MarkdownEscape.Message(f.Message)),
                 ["line"] = f.Span.Line,
                 ["column"] = f.Span.Column,
                 ["waived"] = f.IsWaived,
                 ["reason"] = f.Waiver,
-                ["help"] = f.HelpPage,
+                ["help"] = new MarkdownText(MarkdownEscape.Url(helpLink(f.RuleId))),
             });
         }
 
@@ -269,19 +274,19 @@ internal static class PageModel
         var lines = new List<string> { "flowchart LR" };
         var source = design.Source.Waveform;
         var freq = source.Frequency is not null ? source.Frequency.Value.Format() : source.Band?.Value.Format() ?? "DC";
-        lines.Add($"  source[\"Source: {source.Kind.ToString().ToLowerInvariant()} {source.Amplitude?.Value.Format() ?? source.Offset?.Value.Format()}, {freq}, {design.Source.Impedance.Value.Format()}\"]");
+        lines.Add($"  source[\"{MarkdownEscape.MermaidLabel($"Source: {source.Kind.ToString().ToLowerInvariant()} {source.Amplitude?.Value.Format() ?? source.Offset?.Value.Format()}, {freq}, {design.Source.Impedance.Value.Format()}")}\"]");
         var previous = "source";
         var i = 0;
         foreach (var stage in design.Stages)
         {
             var node = $"s{i++}";
             var kind = stage is BlockStage b ? b.Block.Name : "netlist";
-            lines.Add($"  {node}[\"{stage.Id.Value}: {kind}\"]");
+            lines.Add($"  {node}[\"{MarkdownEscape.MermaidLabel($"{stage.Id.Value}: {kind}")}\"]");
             lines.Add($"  {previous} --> {node}");
             previous = node;
         }
 
-        lines.Add($"  load[\"Load: {design.Load.Resistance.Value.Format()}{(design.Load.Capacitance is null ? string.Empty : " ∥ " + design.Load.Capacitance.Value.Format())}\"]");
+        lines.Add($"  load[\"{MarkdownEscape.MermaidLabel($"Load: {design.Load.Resistance.Value.Format()}{(design.Load.Capacitance is null ? string.Empty : " ∥ " + design.Load.Capacitance.Value.Format())}")}\"]");
         lines.Add($"  {previous} --> load");
         return string.Join('\n', lines);
     }

@@ -4,7 +4,14 @@ namespace DesignRules.Pages;
 /// <param name="OutputFolder">The one folder pages and plots are written to (created when missing).</param>
 /// <param name="TemplateFolder">A folder of the repository's own templates; each replaces the built-in of the same name. Null for none.</param>
 /// <param name="RepositoryRoot">The repository root, to show design files by their path relative to it. Null to show them as given.</param>
-public sealed record PageOptions(string OutputFolder, string? TemplateFolder = null, string? RepositoryRoot = null);
+public sealed record PageOptions(string OutputFolder, string? TemplateFolder = null, string? RepositoryRoot = null)
+{
+    /// <summary>
+    /// The address rule help links start with (<c>DRnnn.md</c> is appended); null links to copies of the help pages
+    /// that the run writes into the pages folder's <c>rules/</c>, so every link resolves beside the pages.
+    /// </summary>
+    public string? HelpUriBase { get; init; }
+}
 
 /// <summary>What a page run did.</summary>
 /// <param name="Written">Files written, relative to the output folder, sorted.</param>

@@ -28,6 +28,12 @@ public sealed record LevelOverrides(IReadOnlyDictionary<string, Severity?> Level
                 return null;
             }
 
+            if (!RuleCatalogue.Default.TryGet(id, out _))
+            {
+                problem = $"'{id}' in '{entry}' is not a rule id of the catalogue (rules/catalogue.yaml lists them)";
+                return null;
+            }
+
             switch (parts[1].Trim().ToLowerInvariant())
             {
                 case "error": levels[id] = Severity.Error; break;

@@ -11,4 +11,12 @@ public sealed record ReportSettings(string RepositoryRoot, string? HelpUriBase, 
 
     /// <summary>The tool's name as reports state it.</summary>
     public const string ToolName = "DesignRules";
+
+    /// <summary>
+    /// Where people learn about the tool (SARIF's <c>tool.driver.informationUri</c>): the help base when one is given,
+    /// else the tool's own identifier, an absolute URI that names the tool and its version without pointing at a host
+    /// (the project has no public address the tool could name on its own).
+    /// </summary>
+    public string InformationUri { get; init; } =
+        Uri.TryCreate(HelpUriBase, UriKind.Absolute, out var help) ? help.AbsoluteUri : "urn:designrules:" + Uri.EscapeDataString(ToolVersion);
 }

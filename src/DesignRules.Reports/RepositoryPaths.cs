@@ -25,6 +25,27 @@ public static class RepositoryPaths
         return relative.Replace(Path.DirectorySeparatorChar, '/');
     }
 
+    /// <summary>
+    /// The root of the version-controlled repository that holds <paramref name="folder"/>: the nearest folder at or above
+    /// it with a <c>.git</c> folder or file (a worktree or submodule has a file), else <paramref name="folder"/> itself.
+    /// Code scanning reads SARIF paths relative to that root, wherever the project file sits in it.
+    /// </summary>
+    public static string FindRepositoryRoot(string folder)
+    {
+        ArgumentNullException.ThrowIfNull(folder);
+        var start = Path.GetFullPath(folder);
+        for (var dir = new DirectoryInfo(start); dir is not null; dir = dir.Parent)
+        {
+            var git = Path.Combine(dir.FullName, ".git");
+            if (Directory.Exists(git) || File.Exists(git))
+            {
+                return dir.FullName;
+            }
+        }
+
+        return start;
+    }
+
     /// <summary>The path as reports show it: relative to the root where possible, else as given (forward slashes).</summary>
     public static string Display(string root, string file) =>
         Relative(root, file) ?? file.Replace('\\', '/');

@@ -1,12 +1,16 @@
+using System.Security.Cryptography;
+using System.Text;
 using System.Text.Json;
 using DesignRules.Diagnostics;
 using DesignRules.Rules;
+using DesignRules.Yaml;
 
 namespace DesignRules.Reports;
 
 /// <summary>
 /// Writes a check report as SARIF 2.1.0 (OASIS): one run whose <c>tool.driver</c> lists every rule, and one result per
-/// finding with a repository-relative location; waived findings carry an external suppression with the waiver's reason.
+/// finding with a repository-relative location, a fingerprint that survives unrelated edits (rule, design, stage and
+/// YAML key path, never a line number), and, for waived findings, an in-source suppression with the waiver's reason.
 /// The bytes depend only on the report and the settings: no timestamps, invariant formatting, stable order.
 /// </summary>
 public static class SarifReport
@@ -44,9 +48,10 @@ public static class SarifReport
         w.WriteEndObject();
         w.WriteEndObject();
         w.WriteStartArray("results");
+        var fingerprints = new Fingerprints(settings.RepositoryRoot);
         foreach (var finding in report.Findings)
         {
-            WriteResult(w, finding, index[finding.RuleId], settings);
+            WriteResult(w, finding, index[finding.RuleId], settings, fingerprints.Next(finding));
         }
 
         w.WriteEndArray();
@@ -84,7 +89,9 @@ public static class SarifReport
         w.WriteStartObject("tool");
         w.WriteStartObject("driver");
         w.WriteString("name", ReportSettings.ToolName);
+        w.WriteString("version", settings.ToolVersion);
         w.WriteString("semanticVersion", settings.ToolVersion);
+        w.WriteString("informationUri", settings.InformationUri);
         w.WriteStartArray("rules");
         foreach (var rule in rules)
         {
@@ -93,6 +100,13 @@ public static class SarifReport
             w.WriteString("name", RuleName(rule.Title));
             w.WriteStartObject("shortDescription");
             w.WriteString("text", rule.Title);
+            w.WriteEndObject();
+            w.WriteStartObject("fullDescription");
+            w.WriteString("text", RuleHelp.Why(rule.Id) ?? rule.Title + ".");
+            w.WriteEndObject();
+            w.WriteStartObject("help");
+            w.WriteString("text", RuleHelp.Text(rule.Id) ?? rule.Title + ".");
+            w.WriteString("markdown", RuleHelp.Markdown(rule.Id) ?? rule.Title + ".");
             w.WriteEndObject();
             if (HelpLinks.For(rule.Id, settings.HelpUriBase) is { } help)
             {
@@ -104,6 +118,10 @@ public static class SarifReport
             w.WriteEndObject();
             w.WriteStartObject("properties");
             w.WriteString("category", rule.Category);
+            w.WriteStartArray("tags");
+            w.WriteStringValue(rule.Category);
+            w.WriteStringValue("design-rules");
+            w.WriteEndArray();
             w.WriteEndObject();
             w.WriteEndObject();
         }
@@ -113,7 +131,7 @@ public static class SarifReport
         w.WriteEndObject();
     }
 
-    private static void WriteResult(Utf8JsonWriter w, Finding f, int ruleIndex, ReportSettings settings)
+    private static void WriteResult(Utf8JsonWriter w, Finding f, int ruleIndex, ReportSettings settings, string fingerprint)
     {
         w.WriteStartObject();
         w.WriteString("ruleId", f.RuleId);
@@ -142,11 +160,15 @@ public static class SarifReport
         w.WriteEndObject();
         w.WriteEndObject();
         w.WriteEndArray();
+        w.WriteStartObject("partialFingerprints");
+        w.WriteString(FingerprintName, fingerprint);
+        w.WriteEndObject();
         if (f.Waiver is not null)
         {
+            // A waiver is written in the design file itself, beside the design it waives: an in-source suppression.
             w.WriteStartArray("suppressions");
             w.WriteStartObject();
-            w.WriteString("kind", "external");
+            w.WriteString("kind", "inSource");
             w.WriteString("status", "accepted");
             w.WriteString("justification", f.Waiver);
             w.WriteEndObject();
@@ -203,6 +225,47 @@ public static class SarifReport
         string.Concat(title.Split([' ', '-', '/'], StringSplitOptions.RemoveEmptyEntries)
             .Select(word => char.ToUpperInvariant(word[0]) + word[1..]))
         .Where(char.IsLetterOrDigit).Aggregate(new System.Text.StringBuilder(), (b, c) => b.Append(c)).ToString();
+
+    /// <summary>The name of the partial fingerprint; the version changes only if the recipe does.</summary>
+    public const string FingerprintName = "designRulesFinding/v1";
+
+    /// <summary>
+    /// Fingerprints that stay the same when unrelated lines move: rule, file, design, stage and the YAML key path of
+    /// the node, plus a count for the rare case of two findings with all of these equal.
+    /// </summary>
+    private sealed class Fingerprints(string root)
+    {
+        private readonly Dictionary<string, string?> texts = new(StringComparer.Ordinal);
+        private readonly Dictionary<string, int> seen = new(StringComparer.Ordinal);
+
+        public string Next(Finding f)
+        {
+            var key = string.Join('\u001f', f.RuleId, RepositoryPaths.Display(root, f.Span.File), f.DesignId ?? string.Empty,
+                f.StageId ?? string.Empty, NodePathOf(f.Span) ?? string.Empty);
+            var count = seen[key] = seen.GetValueOrDefault(key) + 1;
+            var bytes = SHA256.HashData(Encoding.UTF8.GetBytes(key + "\u001f" + count.ToString(System.Globalization.CultureInfo.InvariantCulture)));
+            return Convert.ToHexStringLower(bytes)[..32];
+        }
+
+        private string? NodePathOf(SourceSpan span)
+        {
+            if (!texts.TryGetValue(span.File, out var text))
+            {
+                try
+                {
+                    text = File.Exists(span.File) ? File.ReadAllText(span.File) : null;
+                }
+                catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
+                {
+                    text = null;
+                }
+
+                texts[span.File] = text;
+            }
+
+            return text is null ? null : NodePath.At(span.File, text, span.Line, span.Column);
+        }
+    }
 
     private static string EscapePath(string relative) =>
         string.Join('/', relative.Split('/').Select(Uri.EscapeDataString));

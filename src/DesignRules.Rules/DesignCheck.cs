@@ -11,7 +11,13 @@ public static class DesignCheck
     /// <summary>Loads the design and parts files and the rule-set file, evaluates every rule, and returns all findings.</summary>
     /// <param name="files">Design and parts files; order does not matter (they are sorted).</param>
     /// <param name="options">Rule-set file and the date for waiver expiry.</param>
-    public static CheckReport Run(IEnumerable<string> files, CheckOptions options)
+    public static CheckReport Run(IEnumerable<string> files, CheckOptions options) => Run(files, options, null);
+
+    /// <summary>
+    /// As <see cref="Run(IEnumerable{string}, CheckOptions)"/>, and calls <paramref name="designChecked"/> once per design
+    /// as soon as it is checked (in the order they finish, one call at a time), so that hosts can show progress.
+    /// </summary>
+    public static CheckReport Run(IEnumerable<string> files, CheckOptions options, Action<DesignProgress>? designChecked)
     {
         ArgumentNullException.ThrowIfNull(files);
         ArgumentNullException.ThrowIfNull(options);
@@ -32,7 +38,23 @@ public static class DesignCheck
 
         // Designs are independent: evaluate them side by side, then order the findings so output is deterministic.
         var perDesign = new (List<Finding> Findings, DesignSummary Summary)[loaded.Designs.Count];
-        Parallel.For(0, loaded.Designs.Count, i => perDesign[i] = Evaluate(loaded.Designs[i], ruleSet, options.Today));
+        var gate = new object();
+        Parallel.For(0, loaded.Designs.Count, i =>
+        {
+            var started = System.Diagnostics.Stopwatch.GetTimestamp();
+            perDesign[i] = Evaluate(loaded.Designs[i], ruleSet, options.Today);
+            if (designChecked is not null)
+            {
+                var open = perDesign[i].Findings.Where(f => !f.IsWaived).ToList();
+                var progress = new DesignProgress(loaded.Designs[i].File, loaded.Designs[i].Id.Value,
+                    open.Count(f => f.Severity == Severity.Error), open.Count(f => f.Severity == Severity.Warning),
+                    System.Diagnostics.Stopwatch.GetElapsedTime(started));
+                lock (gate)
+                {
+                    designChecked(progress);
+                }
+            }
+        });
         foreach (var (list, _) in perDesign)
         {
             findings.AddRange(list);

@@ -56,6 +56,9 @@ public sealed class CliProcessTests : IDisposable
     [InlineData("check", ".", "--levels", "DR906=loud")]
     [InlineData("check", ".", "--today", "30/06/2027")]
     [InlineData("check", ".", "--sarif")]
+    [InlineData("check", "--bogus")]
+    [InlineData("check", ".", "--levels", "DR999=off")]
+    [InlineData("check", ".", "--sarif", "-", "--json", "-")]
     [InlineData("explain", "DR999")]
     [InlineData("explain", "906")]
     [InlineData("schema", "netlist")]
@@ -93,6 +96,63 @@ public sealed class CliProcessTests : IDisposable
     }
 
     [Fact]
+    public void No_arguments_print_the_commands_not_an_error()
+    {
+        var run = Cli();
+        Assert.True(run.ExitCode == 0, run.ToString());
+        Assert.Contains("Usage:", run.Output, StringComparison.Ordinal);
+        Assert.Contains("check", run.Output, StringComparison.Ordinal);
+        Assert.DoesNotContain("Required command", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_dash_sends_the_sarif_report_to_standard_output_and_the_findings_to_standard_error()
+    {
+        SampleRepository.Write(root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
+        var run = Cli("check", root, "--sarif", "-");
+        Assert.True(run.ExitCode == 1, run.ToString());
+        using var sarif = JsonDocument.Parse(run.StandardOutput);
+        Assert.Equal("DR906", sarif.RootElement.GetProperty("runs")[0].GetProperty("results")[0].GetProperty("ruleId").GetString());
+        Assert.Contains("error DR906", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Warnings_as_errors_makes_a_warning_an_error_and_the_exit_code_1()
+    {
+        SampleRepository.Write(root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
+        var run = Cli("check", root, "--levels", "DR906=warning", "--warnings-as-errors");
+        Assert.True(run.ExitCode == 1, run.ToString());
+        Assert.Contains("error DR906", run.Output, StringComparison.Ordinal);
+        Assert.DoesNotContain("warning DR906", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_waived_finding_is_printed_as_waived_never_as_a_warning_and_progress_names_each_design()
+    {
+        var text = SampleRepository.Design(feedback: "49.9k").Replace("supplies:", "e-series: E24\nsupplies:", StringComparison.Ordinal)
+            + "waivers:\n  - rule: DR701\n    stage: gain\n    reason: Kept from the last board revision.\n";
+        SampleRepository.Write(root, text);
+        var run = Cli("check", root);
+        Assert.True(run.ExitCode == 0, run.ToString());
+        Assert.Matches(@"line-driver\.yaml\(\d+,\d+\): waived DR701: .*\(reason: Kept from the last board revision\.\)", run.Output);
+        Assert.DoesNotContain("warning", run.StandardOutput.Split('\n').Single(l => l.Contains("DR701", StringComparison.Ordinal)), StringComparison.Ordinal);
+        Assert.Matches(@"checked designs/line-driver\.yaml \(line-driver\): 0 error\(s\), 0 warning\(s\), \d+\.\d\d s", run.Output);
+    }
+
+    [Fact]
+    public void Parts_lists_the_builtin_and_the_repository_parts_with_key_figures()
+    {
+        Directory.CreateDirectory(Path.Combine(root, "parts"));
+        File.WriteAllText(Path.Combine(root, "parts", "bench.yaml"),
+            "library:\n  id: bench\nresistors:\n  - id: bench-film\n    tolerance: 0.5%\n    tempco: 25 ppm/°C\n    power: 250 mW\n");
+        var run = Cli("parts", root);
+        Assert.True(run.ExitCode == 0, run.ToString());
+        Assert.Matches(@"jfet-input-15v\s+GBW [0-9.]+ [kM]Hz, slew [0-9.]+ V/µs", run.Output);
+        Assert.Contains("bench-film", run.Output, StringComparison.Ordinal);
+        Assert.Contains("±0.5 %", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Explain_prints_the_rule_page()
     {
         var run = Cli("explain", "dr906");
@@ -104,6 +164,7 @@ public sealed class CliProcessTests : IDisposable
     [Theory]
     [InlineData("design")]
     [InlineData("parts")]
+    [InlineData("rule-set")]
     public void Schema_prints_a_json_schema(string kind)
     {
         var run = Cli("schema", kind);

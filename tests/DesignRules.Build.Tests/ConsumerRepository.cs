@@ -9,13 +9,29 @@ internal sealed class ConsumerRepository : IDisposable
     private static readonly TimeSpan Limit = TimeSpan.FromMinutes(3);
     private readonly string folder;
 
+    /// <summary>The two project forms the README offers.</summary>
+    public enum Form
+    {
+        /// <summary><c>&lt;Project Sdk="DesignRules.Build/VERSION"&gt;</c>.</summary>
+        ProjectSdk,
+
+        /// <summary>A NoTargets project with a package reference.</summary>
+        PackageReference,
+    }
+
     public ConsumerRepository(PackedFeed feed, bool asProjectSdk)
+        : this(feed, asProjectSdk ? Form.ProjectSdk : Form.PackageReference, "hardware.csproj")
+    {
+    }
+
+    public ConsumerRepository(PackedFeed feed, Form form, string projectFileName, string subfolder = "")
     {
         folder = TestPaths.NewTempFolder("consumer");
-        Root = Path.Combine(folder, "repo");
+        RepositoryTop = Path.Combine(folder, "repo");
+        Root = Path.Combine(RepositoryTop, subfolder);
         Directory.CreateDirectory(Root);
         Packages = Path.Combine(folder, "packages");
-        File.WriteAllText(Path.Combine(Root, "nuget.config"), $"""
+        File.WriteAllText(Path.Combine(RepositoryTop, "nuget.config"), $"""
             <?xml version="1.0" encoding="utf-8"?>
             <configuration>
               <packageSources>
@@ -24,9 +40,10 @@ internal sealed class ConsumerRepository : IDisposable
             </configuration>
             """);
         // Stop any Directory.Build.* above the temp folder from leaking in.
-        File.WriteAllText(Path.Combine(Root, "Directory.Build.props"), "<Project />\n");
-        File.WriteAllText(Path.Combine(Root, "Directory.Build.targets"), "<Project />\n");
-        var project = asProjectSdk
+        File.WriteAllText(Path.Combine(RepositoryTop, "Directory.Build.props"), "<Project />\n");
+        File.WriteAllText(Path.Combine(RepositoryTop, "Directory.Build.targets"), "<Project />\n");
+        // The README's package-reference form: a project on the NoTargets SDK, which compiles nothing.
+        var project = form == Form.ProjectSdk
             ? $"""
               <Project Sdk="DesignRules.Build/{feed.Version}">
                 <PropertyGroup>
@@ -35,7 +52,7 @@ internal sealed class ConsumerRepository : IDisposable
               </Project>
               """
             : $"""
-              <Project Sdk="Microsoft.NET.Sdk">
+              <Project Sdk="Microsoft.Build.NoTargets/3.7.0">
                 <PropertyGroup>
                   <TargetFramework>net10.0</TargetFramework>
                   <DesignRulesSarifFile>$(MSBuildProjectDirectory)/out/designrules.sarif</DesignRulesSarifFile>
@@ -45,8 +62,11 @@ internal sealed class ConsumerRepository : IDisposable
                 </ItemGroup>
               </Project>
               """;
-        File.WriteAllText(Path.Combine(Root, "hardware.csproj"), project);
+        File.WriteAllText(Path.Combine(Root, projectFileName), project);
     }
+
+    /// <summary>The top of the repository (where a .git folder would be); <see cref="Root"/> may be a folder inside it.</summary>
+    public string RepositoryTop { get; }
 
     public string Root { get; }
 

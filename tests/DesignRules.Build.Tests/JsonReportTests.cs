@@ -24,12 +24,12 @@ public sealed class JsonReportTests
         var findings = Document().GetProperty("findings").EnumerateArray().ToList();
         Assert.Equal(4, findings.Count);
         var waived = findings[1];
-        Assert.Equal("DR104", waived.GetProperty("ruleId").GetString());
+        Assert.Equal("DR103", waived.GetProperty("ruleId").GetString());
         Assert.Equal("designs/front end.yaml", waived.GetProperty("file").GetString());
         Assert.Equal(20, waived.GetProperty("line").GetInt32());
         Assert.Equal(5, waived.GetProperty("column").GetInt32());
         Assert.True(waived.GetProperty("waived").GetBoolean());
-        Assert.Equal("https://example.invalid/rules/DR104.md", waived.GetProperty("helpUri").GetString());
+        Assert.Equal("https://example.invalid/rules/DR103.md", waived.GetProperty("helpUri").GetString());
         var figures = waived.GetProperty("figures").EnumerateArray().ToList();
         Assert.Equal(["glitch width", "limit", "margin"], figures.Select(f => f.GetProperty("name").GetString()));
         Assert.Equal(2e-6, figures[1].GetProperty("value").GetDouble());

@@ -1,8 +1,8 @@
 namespace DesignRules.Build.Tests;
 
 /// <summary>
-/// Packs DesignRules.Build from this build's outputs into a temporary local feed, with a version no other run uses,
-/// so that a consumer with its own NuGet cache can never pick up a stale copy.
+/// Packs DesignRules.Build and the DesignRules.Cli tool from this build's outputs into a temporary local feed, both with
+/// one version no other run uses, so that a consumer with its own NuGet cache can never pick up a stale copy.
 /// </summary>
 public sealed class PackedFeed : IDisposable
 {
@@ -13,8 +13,12 @@ public sealed class PackedFeed : IDisposable
         var pack = ProcessRun.Dotnet(TestPaths.RepositoryRoot, new Dictionary<string, string?> { ["DR_ARTIFACTS"] = TestPaths.ArtifactsPath },
             TimeSpan.FromMinutes(4), "pack", TestPaths.BuildProject, "--no-build", "--no-restore", "-c", TestPaths.Configuration,
             "-o", Folder, $"-p:PackageVersion={Version}", "-nodeReuse:false", "-tl:off");
-        PackOutput = pack;
+        var packTool = ProcessRun.Dotnet(TestPaths.RepositoryRoot, new Dictionary<string, string?> { ["DR_ARTIFACTS"] = TestPaths.ArtifactsPath },
+            TimeSpan.FromMinutes(4), "pack", TestPaths.CliProject, "--no-build", "--no-restore", "-c", TestPaths.Configuration,
+            "-o", Folder, $"-p:PackageVersion={Version}", "-nodeReuse:false", "-tl:off");
+        PackOutput = pack with { ExitCode = pack.ExitCode != 0 ? pack.ExitCode : packTool.ExitCode, Output = pack.Output + packTool.Output };
         Package = Path.Combine(Folder, $"DesignRules.Build.{Version}.nupkg");
+        ToolPackage = Path.Combine(Folder, $"DesignRules.Cli.{Version}.nupkg");
     }
 
     public string Folder { get; }
@@ -22,6 +26,9 @@ public sealed class PackedFeed : IDisposable
     public string Version { get; }
 
     public string Package { get; }
+
+    /// <summary>The command-line tool's package, same version, same feed.</summary>
+    public string ToolPackage { get; }
 
     public ProcessRun PackOutput { get; }
 

@@ -6,6 +6,9 @@ namespace DesignRules.Build.Tests;
 /// <summary>Runs a child process with a bounded time and returns its exit code and combined output.</summary>
 public sealed record ProcessRun(int ExitCode, string Output)
 {
+    /// <summary>Standard output alone (<see cref="Output"/> holds both streams as they came).</summary>
+    public string StandardOutput { get; init; } = string.Empty;
+
     // Variables a test host inherits from `dotnet test` that would point a child build at the wrong MSBuild or SDK.
     private static readonly string[] Inherited =
     [
@@ -43,8 +46,9 @@ public sealed record ProcessRun(int ExitCode, string Output)
         }
 
         var output = new StringBuilder();
+        var standardOutput = new StringBuilder();
         using var process = new Process { StartInfo = start };
-        process.OutputDataReceived += (_, e) => { if (e.Data is not null) { lock (output) { output.AppendLine(e.Data); } } };
+        process.OutputDataReceived += (_, e) => { if (e.Data is not null) { lock (output) { output.AppendLine(e.Data); standardOutput.AppendLine(e.Data); } } };
         process.ErrorDataReceived += (_, e) => { if (e.Data is not null) { lock (output) { output.AppendLine(e.Data); } } };
         process.Start();
         process.BeginOutputReadLine();
@@ -58,7 +62,7 @@ public sealed record ProcessRun(int ExitCode, string Output)
         process.WaitForExit();
         lock (output)
         {
-            return new ProcessRun(process.ExitCode, output.ToString());
+            return new ProcessRun(process.ExitCode, output.ToString()) { StandardOutput = standardOutput.ToString() };
         }
     }
 

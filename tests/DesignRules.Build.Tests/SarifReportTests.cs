@@ -1,5 +1,7 @@
 using System.Text.Json;
+using DesignRules.Diagnostics;
 using DesignRules.Reports;
+using DesignRules.Rules;
 
 namespace DesignRules.Build.Tests;
 
@@ -23,7 +25,7 @@ public sealed class SarifReportTests
         var driver = Run().GetProperty("tool").GetProperty("driver");
         Assert.Equal("DesignRules", driver.GetProperty("name").GetString());
         var rules = driver.GetProperty("rules").EnumerateArray().ToList();
-        Assert.Equal(["DR104", "DR906", "DR990"], rules.Select(r => r.GetProperty("id").GetString()));
+        Assert.Equal(["DR103", "DR906", "DR990"], rules.Select(r => r.GetProperty("id").GetString()));
         var dr906 = rules[1];
         Assert.Equal("UnknownPart", dr906.GetProperty("name").GetString());
         Assert.Equal("Unknown part", dr906.GetProperty("shortDescription").GetProperty("text").GetString());
@@ -52,11 +54,13 @@ public sealed class SarifReportTests
     }
 
     [Fact]
-    public void Waived_finding_is_an_external_suppression_with_its_justification()
+    public void Waived_finding_is_an_in_source_suppression_with_its_justification()
     {
+        // SARIF 2.1.0 §3.35.2: a suppression written in the analysed file itself (the design's waivers:) is inSource.
         var waived = Run().GetProperty("results")[1];
         var suppression = waived.GetProperty("suppressions")[0];
-        Assert.Equal("external", suppression.GetProperty("kind").GetString());
+        Assert.Equal("inSource", suppression.GetProperty("kind").GetString());
+        Assert.Equal("accepted", suppression.GetProperty("status").GetString());
         Assert.Equal("Accepted: the meter averages over 100 ms.", suppression.GetProperty("justification").GetString());
         Assert.Equal(2.5e-6, waived.GetProperty("properties").GetProperty("figures")[0].GetProperty("value").GetDouble());
     }
@@ -69,6 +73,70 @@ public sealed class SarifReportTests
         var builtin = results[3].GetProperty("locations")[0].GetProperty("physicalLocation").GetProperty("artifactLocation");
         Assert.Equal("builtin:parts", builtin.GetProperty("uri").GetString());
         Assert.False(builtin.TryGetProperty("uriBaseId", out _));
+    }
+
+    [Fact]
+    public void The_document_is_valid_against_the_oasis_schema_and_has_every_field_code_scanning_shows()
+    {
+        var text = System.Text.Encoding.UTF8.GetString(SarifReport.ToBytes(ReportFixtures.Report(), ReportFixtures.Settings));
+        Assert.Empty(SarifSchema.Problems(text));
+        Assert.Empty(SarifSchema.MissingCodeScanningFields(text));
+        var driver = Run().GetProperty("tool").GetProperty("driver");
+        Assert.Equal("1.2.3", driver.GetProperty("version").GetString());
+        var dr906 = driver.GetProperty("rules")[1];
+        Assert.StartsWith("# DR906: Unknown part", dr906.GetProperty("help").GetProperty("markdown").GetString(), StringComparison.Ordinal);
+        Assert.DoesNotContain("#", dr906.GetProperty("help").GetProperty("text").GetString(), StringComparison.Ordinal);
+        Assert.StartsWith("A part reference must name", dr906.GetProperty("fullDescription").GetProperty("text").GetString(), StringComparison.Ordinal);
+        Assert.Contains("design-file", dr906.GetProperty("properties").GetProperty("tags").EnumerateArray().Select(t => t.GetString()));
+    }
+
+    [Fact]
+    public void A_fingerprint_survives_lines_added_above_the_finding_and_differs_for_another_node()
+    {
+        var root = TestPaths.NewTempFolder("fingerprint");
+        try
+        {
+            var file = Path.Combine(root, "designs", "d.yaml");
+            Directory.CreateDirectory(Path.GetDirectoryName(file)!);
+            var text = "design:\n  id: d\nstages:\n  - id: gain\n    values:\n      rin: 10k\n      rf: 20k\n";
+            File.WriteAllText(file, text);
+            string Fingerprint(int line, int column) => FingerprintOf(new Finding("DR701", "Preferred value", Severity.Warning, "m",
+                new SourceSpan(file, line, column, line, column + 3), "rules/DR701.md", "d", "gain", null, []), root);
+
+            var before = Fingerprint(6, 12);
+            var otherNode = Fingerprint(7, 11);
+            File.WriteAllText(file, "# a comment\n# and another\n" + text);
+            var after = Fingerprint(8, 12);
+            Assert.Equal(before, after);
+            Assert.NotEqual(before, otherNode);
+        }
+        finally
+        {
+            Directory.Delete(root, recursive: true);
+        }
+    }
+
+    [Fact]
+    public void Levels_follow_the_build_warnings_switched_off_are_left_out_and_promoted_ones_are_errors()
+    {
+        var report = ReportFixtures.Report();
+        var quiet = new WarningLevels(false, CodeList.Empty, CodeList.Empty, new CodeList("DR103")).Apply(report);
+        // The waived DR103 stays (a suppression, not a warning); the open one is not annotated.
+        Assert.Equal(["DR906", "DR103", "DR990"], quiet.Findings.Select(f => f.RuleId));
+        var promoted = new WarningLevels(false, new CodeList("DR103"), CodeList.Empty, CodeList.Empty).Apply(report);
+        Assert.Equal(Severity.Error, promoted.Findings[2].Severity);
+        var all = new WarningLevels(true, CodeList.Empty, new CodeList("DR103"), CodeList.Empty).Apply(report);
+        Assert.Equal(Severity.Warning, all.Findings[2].Severity);
+        var host = (WarningLevels.None with { }) with { HostTreatsAsError = code => code == "DR103" };
+        Assert.Equal(Severity.Error, host.Apply(report).Findings[2].Severity);
+    }
+
+    private static string FingerprintOf(Finding finding, string root)
+    {
+        var report = new CheckReport([finding], [], 1, 1);
+        using var doc = JsonDocument.Parse(SarifReport.ToBytes(report, new ReportSettings(root, null, "1.0.0")));
+        return doc.RootElement.GetProperty("runs")[0].GetProperty("results")[0].GetProperty("partialFingerprints")
+            .GetProperty(SarifReport.FingerprintName).GetString()!;
     }
 
     [Fact]

@@ -17,6 +17,8 @@ internal static class TestPaths
     public static string CliAssembly =>
         Path.Combine(ArtifactsPath, "bin", "DesignRules.Cli", Configuration.ToLowerInvariant(), "designrules.dll");
 
+    public static string CliProject => Path.Combine(RepositoryRoot, "src", "DesignRules.Cli", "DesignRules.Cli.csproj");
+
     public static string BuildProject => Path.Combine(RepositoryRoot, "src", "DesignRules.Build", "DesignRules.Build.csproj");
 
     /// <summary>A fresh folder outside the source tree, removed by the caller.</summary>

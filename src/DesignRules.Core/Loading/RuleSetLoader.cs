@@ -7,7 +7,7 @@ using DesignRules.Yaml;
 namespace DesignRules.Loading;
 
 /// <summary>
-/// Reads the optional rule-set file (first key <c>rule-set:</c>): Monte Carlo settings and, per rule id, a level
+/// Reads the optional rule-set file (sections <c>rule-set:</c>, <c>rules:</c>, <c>designs:</c>, each optional): Monte Carlo settings and, per rule id, a level
 /// (<c>off</c>, <c>note</c>, <c>warning</c>, <c>error</c>) and threshold values, for every design, one design, or one stage.
 /// </summary>
 public static class RuleSetLoader
@@ -69,7 +69,8 @@ public static class RuleSetLoader
             return (RuleSet.Default with { File = file }, diagnostics);
         }
 
-        var header = root.Child("rule-set", "the rule-set header", required: true, "monte-carlo settings (may be empty)");
+        // Every section is optional: a file with only `rules:` (or only `designs:`) is a whole rule-set file.
+        var header = root.Child("rule-set", "the rule-set header", required: false, "monte-carlo settings (may be empty)");
         var monteCarlo = MonteCarloSettings.Default;
         var mc = header?.Child("monte-carlo", "the Monte Carlo settings", required: false, string.Empty);
         if (mc is not null)

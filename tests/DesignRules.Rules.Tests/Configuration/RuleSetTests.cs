@@ -32,4 +32,15 @@ public sealed class RuleSetTests
         Assert.Contains(diagnostics, d => d.Id == "DR914" && d.Span.Line == 5 && d.Message.Contains("loud", StringComparison.Ordinal));
         Assert.Contains(diagnostics, d => d.Id == "DR901" && d.Span.Line == 5 && d.Message.Contains("derating", StringComparison.Ordinal));
     }
+
+    [Theory]
+    [InlineData("rules:\n  DR702: off\n")]
+    [InlineData("designs:\n  any-design:\n    rules: { DR702: off }\n")]
+    [InlineData("rule-set:\n")]
+    public void Every_section_of_the_rule_set_file_is_optional(string yaml)
+    {
+        var (ruleSet, diagnostics) = RuleSetLoader.Read("design-rules.yaml", yaml);
+        Assert.Empty(diagnostics);
+        Assert.Equal(MonteCarloSettings.Default, ruleSet.MonteCarlo);
+    }
 }

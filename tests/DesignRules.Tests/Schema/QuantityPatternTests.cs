@@ -176,6 +176,10 @@ public sealed class QuantityPatternsFollowTheUnitOfTheKey
                 // Each definition is self-contained (type, pattern, bounds), so it can stand alone as a schema.
                 var node = Definition(name, asJson: true);
                 node["$schema"] = "https://json-schema.org/draft/2020-12/schema";
+                // The editors' message keywords carry no validation; a definition standing alone as a root would need a
+                // vocabulary for them, so they are left out here.
+                node.Remove("patternErrorMessage");
+                node.Remove("errorMessage");
                 schema = JsonSchema.FromText(node.ToJsonString(), new BuildOptions { SchemaRegistry = new SchemaRegistry() });
                 DefinitionSchemas[name] = schema;
             }

@@ -20,6 +20,11 @@ internal static class SchemaCheck
     private static readonly Lazy<JsonSchema> DesignSchema = new(() => Build("design.schema.json"));
     private static readonly Lazy<JsonSchema> PartsSchema = new(() => Build("parts.schema.json"));
 
+    private static readonly Lazy<JsonSchema> RuleSetSchema = new(() => Build("rule-set.schema.json"));
+
+    /// <summary>The schema of the rule-set file.</summary>
+    public static JsonSchema RuleSet => RuleSetSchema.Value;
+
     public static JsonSchema For(FileKind kind) => kind == FileKind.Design ? DesignSchema.Value : PartsSchema.Value;
 
     /// <summary>The text of an embedded schema, exactly as shipped in the Core assembly.</summary>

@@ -8,7 +8,7 @@ namespace DesignRules.Tests.Schema;
 /// <summary>The schemas themselves: valid draft 2020-12, documented for editors, closed to unknown keys, in step with the loader.</summary>
 public sealed class SchemasAreValidAndDocumented
 {
-    public static TheoryData<string> SchemaFiles() => new("design.schema.json", "parts.schema.json");
+    public static TheoryData<string> SchemaFiles() => new("design.schema.json", "parts.schema.json", "rule-set.schema.json");
 
     [Theory]
     [MemberData(nameof(SchemaFiles))]
@@ -25,7 +25,8 @@ public sealed class SchemasAreValidAndDocumented
     [MemberData(nameof(SchemaFiles))]
     public void The_schema_builds_with_every_reference_resolved(string file)
     {
-        var schema = SchemaCheck.For(file.StartsWith("design", StringComparison.Ordinal) ? FileKind.Design : FileKind.Parts);
+        var schema = file.StartsWith("rule-set", StringComparison.Ordinal) ? SchemaCheck.RuleSet
+            : SchemaCheck.For(file.StartsWith("design", StringComparison.Ordinal) ? FileKind.Design : FileKind.Parts);
         Assert.NotNull(schema);
     }
 
@@ -100,6 +101,47 @@ public sealed class SchemasAreValidAndDocumented
                 ? d["propertyNames"]!["enum"]!.AsArray().Select(n => n!.GetValue<string>())
                 : [];
             Assert.Equal(block.DiodeSlots.Order(StringComparer.Ordinal), diodeSlots.Order(StringComparer.Ordinal));
+        }
+    }
+
+    [Theory]
+    [MemberData(nameof(SchemaFiles))]
+    public void Every_pattern_has_a_readable_message_for_editors(string file)
+    {
+        // A wrong unit in an editor shows the message, not the regular expression (patternErrorMessage and errorMessage
+        // are the keywords YAML language servers read).
+        var bare = Walk(JsonNode.Parse(SchemaCheck.EmbeddedText(file))!, "#")
+            .Where(x => x.Node["pattern"] is JsonValue)
+            .Where(x => x.Node["patternErrorMessage"]?.GetValue<string>() is not { Length: > 10 } message
+                || message.Contains("(?:", StringComparison.Ordinal) || x.Node["errorMessage"] is null)
+            .Select(x => x.Path)
+            .ToList();
+        Assert.True(bare.Count == 0, "patterns without a readable message: " + string.Join(", ", bare));
+    }
+
+    [Fact]
+    public void Part_references_offer_exactly_the_builtin_part_ids_for_completion()
+    {
+        var library = DesignRules.Loading.DesignLoader.LoadFiles([]).Libraries.Single(l => l.File == DesignRules.Loading.DesignLoader.BuiltinLibraryFile);
+        var stage = JsonNode.Parse(SchemaCheck.EmbeddedText("design.schema.json"))!["$defs"]!["stage"]!["properties"]!;
+        static List<string> Examples(JsonNode node) => node["examples"]!.AsArray().Select(n => n!.GetValue<string>()).ToList();
+        Assert.Equal(library.Amplifiers.Select(a => a.Id.Value), Examples(stage["amplifier"]!));
+        Assert.Equal(library.Amplifiers.Select(a => a.Id.Value), Examples(stage["amplifiers"]!["additionalProperties"]!));
+        Assert.Equal(library.Diodes.Select(d => d.Id.Value), Examples(stage["diode"]!));
+        Assert.Equal(library.Resistors.Select(r => r.Id.Value), Examples(stage["resistors"]!));
+        Assert.Equal(library.Capacitors.Select(c => c.Id.Value), Examples(stage["capacitors"]!));
+    }
+
+    [Fact]
+    public void The_rule_set_schema_knows_every_rule_and_threshold_of_the_catalogue()
+    {
+        var rules = JsonNode.Parse(SchemaCheck.EmbeddedText("rule-set.schema.json"))!["$defs"]!["rules"]!["properties"]!.AsObject();
+        var expected = DesignRules.Diagnostics.RuleCatalogue.Default.Rules.Where(r => r.Category != "design-file").ToList();
+        Assert.Equal(expected.Select(r => r.Id), rules.Select(r => r.Key));
+        foreach (var rule in expected)
+        {
+            var thresholds = rules[rule.Id]!["anyOf"]![1]!["properties"]!.AsObject().Select(p => p.Key).Where(k => k != "severity");
+            Assert.Equal(rule.Thresholds.Select(t => t.Name), thresholds);
         }
     }
 
