@@ -9,6 +9,9 @@ namespace DesignRules.Quantities;
 /// </summary>
 internal static class QuantityParser
 {
+    /// <summary>The hint for a value written with a spelt-out mega prefix.</summary>
+    internal const string MegaHint = "write M for mega, as in 4.7M";
+
     /// <summary>Reads <paramref name="text"/> as a value of the <paramref name="expected"/> dimension.</summary>
     internal static bool TryParse(string? text, Dimension expected, out Quantity value, [NotNullWhen(false)] out QuantityError? error)
     {
@@ -86,6 +89,11 @@ internal static class QuantityParser
         else if (TryReadNumber(s, i, out number, out end))
         {
             string suffix = s[SkipSpaces(s, end)..];
+            if (suffix.StartsWith("meg", StringComparison.OrdinalIgnoreCase))
+            {
+                // Mega is the SI prefix M; a three-letter spelling of it is not one of our forms.
+                return Malformed(s, expected, MegaHint);
+            }
             if (!TryReadSuffix(suffix, out int prefixExponent, out unit))
             {
                 return Malformed(s, expected, null);
@@ -207,23 +215,13 @@ internal static class QuantityParser
             return true;
         }
 
-        int prefixLength;
-        if (suffix.StartsWith("meg", StringComparison.Ordinal))
-        {
-            prefixExponent = 6;
-            prefixLength = 3;
-        }
-        else if (UnitSpellings.PrefixExponent(suffix[0]) is int exponent)
-        {
-            prefixExponent = exponent;
-            prefixLength = 1;
-        }
-        else
+        if (UnitSpellings.PrefixExponent(suffix[0]) is not int exponent)
         {
             return false;
         }
 
-        string rest = suffix[prefixLength..];
+        prefixExponent = exponent;
+        string rest = suffix[1..];
         return rest.Length == 0 || (UnitSpellings.TryUnit(rest, out unit) && unit.TakesPrefix);
     }
 

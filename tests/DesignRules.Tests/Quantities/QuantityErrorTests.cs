@@ -36,6 +36,17 @@ public sealed class BadValuesComeBackAsErrors
     }
 
     [Theory]
+    [InlineData("4.7meg")]
+    [InlineData("4.7megohm")]
+    [InlineData("1 Meg")]
+    [InlineData("2MEG")]
+    public void Mega_spelt_out_is_refused_with_the_hint_to_write_M(string text)
+    {
+        var error = QuantityAssert.Fails(text, Dimension.Resistance, QuantityErrorKind.Malformed);
+        Assert.Contains("write M", error.Message, StringComparison.Ordinal);
+    }
+
+    [Theory]
     [InlineData("abc")]
     [InlineData("4.7 kX")]
     [InlineData("4..7")]

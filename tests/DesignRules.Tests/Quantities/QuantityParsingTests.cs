@@ -16,7 +16,7 @@ public sealed class ValuesAreReadInEveryAcceptedForm
     [InlineData("10R", Dimension.Resistance, 10.0)]
     [InlineData("600", Dimension.Resistance, 600.0)]
     [InlineData("  10k  ", Dimension.Resistance, 10000.0)]
-    [InlineData("4.7megohm", Dimension.Resistance, 4.7e6)]
+    [InlineData("4.7Mohm", Dimension.Resistance, 4.7e6)]
     // voltage, current, power
     [InlineData("-12V", Dimension.Voltage, -12.0)]
     [InlineData("-12 V", Dimension.Voltage, -12.0)]

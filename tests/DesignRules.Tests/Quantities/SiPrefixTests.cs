@@ -18,7 +18,6 @@ public sealed class SiPrefixesFollowTheSiBrochure
         { "k", 3 },
         { "K", 3 },       // common practice for kilo on drawings
         { "M", 6 },
-        { "meg", 6 },     // common practice spelling of mega
         { "G", 9 },
         { "T", 12 },
     };
