@@ -3,6 +3,13 @@ namespace DesignRules.Diagnostics;
 /// <summary>Finds the closest known word to a misspelled one, for "did you mean" hints.</summary>
 public static class SpellingSuggestion
 {
+    /// <summary>
+    /// The least similarity, 1 − edits / length of the longer word, at which a candidate is suggested. One edit in a
+    /// one- or two-letter name leaves at most half of it, so such a name gets no suggestion: it says too little about
+    /// what was meant. A one-letter name gets none at all, not even a change of letter case.
+    /// </summary>
+    public const double MinimumSimilarity = 0.6;
+
     /// <summary>The closest candidate within a distance that suggests a typo, or null.</summary>
     public static string? Closest(string word, IEnumerable<string> candidates)
     {
@@ -18,10 +25,15 @@ public static class SpellingSuggestion
             }
         }
 
-        // A third of the word's length (at least 1, at most 3 edits) is where a typo stops being plausible.
+        // A third of the word's length (at least 1, at most 3 edits) is where a typo stops being plausible; and the two
+        // must be similar enough that a short name is not "corrected" into an unrelated one.
         var allowed = Math.Clamp(word.Length / 3, 1, 3);
-        return bestDistance <= allowed ? best : null;
+        return best is not null && word.Length > 1 && bestDistance <= allowed && Similarity(bestDistance, word, best) >= MinimumSimilarity
+            ? best
+            : null;
     }
+
+    private static double Similarity(int distance, string a, string b) => 1.0 - ((double)distance / Math.Max(a.Length, b.Length));
 
     /// <summary>A hint sentence, " Did you mean 'x'?" or empty.</summary>
     public static string Hint(string word, IEnumerable<string> candidates)

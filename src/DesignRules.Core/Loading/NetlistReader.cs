@@ -11,7 +11,10 @@ namespace DesignRules.Loading;
 internal static partial class NetlistReader
 {
     /// <summary>Nodes every netlist may use without defining them.</summary>
-    public static readonly IReadOnlyList<string> GlobalNodes = ["ground", "0", "vpos", "vneg"];
+    public static readonly IReadOnlyList<string> GlobalNodes = [NetlistStage.Ground, NetlistStage.PositiveRail, NetlistStage.NegativeRail];
+
+    /// <summary>The hint given for a node named <c>0</c>: the reference node has one name only.</summary>
+    public const string ZeroNodeHint = "the reference node is `ground`";
 
     private static readonly Dictionary<string, ElementKind> Kinds = new(StringComparer.Ordinal)
     {
@@ -96,9 +99,9 @@ internal static partial class NetlistReader
     private static Located<string>? ReadNode(MappingReader m, string key)
     {
         var s = m.Text(key, required: true, "a node name such as in or out");
-        if (s is not null && !NodePattern().IsMatch(s.Value))
+        if (s is not null && NodeProblem(s.Value, "a node name such as in, out or n1") is { } problem)
         {
-            m.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, "a node name is letters, digits, '-' and '_'; expected a node name such as in, out or n1"));
+            m.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, problem));
             return null;
         }
 
@@ -189,13 +192,15 @@ internal static partial class NetlistReader
         var nodes = new List<Located<string>>();
         foreach (var item in items)
         {
-            if (item is YamlScalar { IsNull: false } s && NodePattern().IsMatch(s.Value))
+            var problem = item is YamlScalar { IsNull: false } s ? NodeProblem(s.Value, hint) : NodeProblem(string.Empty, hint);
+            if (problem is null)
             {
-                nodes.Add(new Located<string>(s.Value, s.Span));
+                var scalar = (YamlScalar)item;
+                nodes.Add(new Located<string>(scalar.Value, scalar.Span));
             }
             else
             {
-                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(item.Span, (item as YamlScalar)?.Value ?? item.ShapeName, "between", "a node name is letters, digits, '-' and '_'; expected " + hint));
+                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(item.Span, (item as YamlScalar)?.Value ?? item.ShapeName, "between", problem));
             }
         }
 
@@ -220,13 +225,13 @@ internal static partial class NetlistReader
         foreach (var pin in AmplifierPins)
         {
             var s = pins.Text(pin, required: true, "a node name");
-            if (s is not null && NodePattern().IsMatch(s.Value))
+            if (s is not null && NodeProblem(s.Value, "a node name such as n1") is { } problem)
             {
-                nodes.Add(s);
+                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, pin, problem));
             }
             else if (s is not null)
             {
-                e.Diagnostics.Add(DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, pin, "a node name is letters, digits, '-' and '_'; expected a node name such as n1"));
+                nodes.Add(s);
             }
         }
 
@@ -274,6 +279,12 @@ internal static partial class NetlistReader
 
         return ok;
     }
+
+    /// <summary>Why a text is not a usable node name, or null when it is one.</summary>
+    private static string? NodeProblem(string name, string expected) =>
+        name == "0" ? ZeroNodeHint
+        : NodePattern().IsMatch(name) ? null
+        : "a node name is letters, digits, '-' and '_'; expected " + expected;
 
     [GeneratedRegex("^[A-Za-z0-9_-]{1,64}$", RegexOptions.CultureInvariant)]
     private static partial Regex NodePattern();

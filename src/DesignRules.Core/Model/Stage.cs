@@ -90,4 +90,14 @@ public sealed record NetlistStage(
     Located<string> Output,
     IReadOnlyList<NetlistElement> Elements,
     Requirements Requirements,
-    SourceSpan Span) : Stage(Id, Requirements, Span);
+    SourceSpan Span) : Stage(Id, Requirements, Span)
+{
+    /// <summary>The reference node every netlist may use; no other spelling of it is accepted.</summary>
+    public const string Ground = "ground";
+
+    /// <summary>The positive supply rail node.</summary>
+    public const string PositiveRail = "vpos";
+
+    /// <summary>The negative supply rail node.</summary>
+    public const string NegativeRail = "vneg";
+}
