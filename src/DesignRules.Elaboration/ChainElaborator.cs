@@ -27,8 +27,8 @@ public static class ChainElaborator
         CheckOptions(design, options, chain);
 
         // Supplies: the nodes vpos and vneg that netlists may use.
-        circuit.AddVoltageSource("supply.pos", "vpos", "0", rails.Positive);
-        circuit.AddVoltageSource("supply.neg", "vneg", "0", rails.Negative);
+        circuit.AddVoltageSource("supply.pos", "vpos", Circuit.Ground, rails.Positive);
+        circuit.AddVoltageSource("supply.neg", "vneg", Circuit.Ground, rails.Negative);
         chain.Locate("supply.pos", design.Supplies.Positive.Span);
         chain.Locate("supply.neg", design.Supplies.Negative.Span);
 
@@ -36,7 +36,7 @@ public static class ChainElaborator
         var source = design.Source;
         var frequencies = SourceWaveforms.Frequencies(source.Waveform, options.BandEnd).Where(f => f > 0).ToArray();
         double frequencyScale = options.Frequency is { } wanted && frequencies.Length > 0 ? wanted / frequencies.Min() : 1;
-        var waveform = SourceWaveforms.Convert(source.Waveform, options.BandEnd, options.AmplitudeScale, frequencyScale) with { AcMagnitude = 1 };
+        var waveform = SourceWaveforms.Convert(source.Waveform, options.BandEnd, options.AmplitudeScale, frequencyScale);
         double? lowest = frequencies.Length > 0 ? frequencies.Min() * frequencyScale : null;
         double? highest = frequencies.Length > 0 ? frequencies.Max() * frequencyScale : null;
 
@@ -44,16 +44,16 @@ public static class ChainElaborator
         double commonMode = split ? source.CommonMode!.Value.Value : 0;
         double rs = source.Impedance.Value.Value;
         string emf = "source.emf";
-        circuit.AddVoltageSource(SourceId, emf, "0", waveform);
+        circuit.AddVoltageSource(SourceId, emf, Circuit.Ground, waveform);
         chain.Locate(SourceId, source.Span);
         chain.LocateNode(emf, source.Span);
-        string input, reference = "0";
+        string input, reference = Circuit.Ground;
         if (split)
         {
             // v(source.p) = cm + v/2 and v(source.n) = cm − v/2 behind half the source impedance each.
-            circuit.AddVoltageSource("source.cm", "source.cmv", "0", commonMode);
-            circuit.AddVoltageControlledVoltageSource("source.pos", "source.p.emf", "source.cmv", emf, "0", 0.5);
-            circuit.AddVoltageControlledVoltageSource("source.neg", "source.n.emf", "source.cmv", emf, "0", -0.5);
+            circuit.AddVoltageSource("source.cm", "source.cmv", Circuit.Ground, commonMode);
+            circuit.AddVoltageControlledVoltageSource("source.pos", "source.p.emf", "source.cmv", emf, Circuit.Ground, 0.5);
+            circuit.AddVoltageControlledVoltageSource("source.neg", "source.n.emf", "source.cmv", emf, Circuit.Ground, -0.5);
             input = SourceLeg(chain, "source.p.emf", "source.p", "source.rs.p", rs / 2, source);
             reference = SourceLeg(chain, "source.n.emf", "source.n", "source.rs.n", rs / 2, source);
             foreach (var id in new[] { "source.cm", "source.pos", "source.neg" }) chain.Locate(id, source.CommonMode!.Span);
@@ -82,7 +82,7 @@ public static class ChainElaborator
 
             stages.Add(probe);
             input = probe.OutputNode;
-            reference = "0";
+            reference = Circuit.Ground;
             commonMode = 0;
         }
 
@@ -133,12 +133,12 @@ public static class ChainElaborator
 
     private static void AddLoad(ChainContext chain, SignalLoad load, string output)
     {
-        string ret = "0";
+        string ret = Circuit.Ground;
         double level = load.ReturnsTo.Value.Value;
         if (level != 0)
         {
             ret = "load.ret";
-            chain.Circuit.AddVoltageSource("load.vret", ret, "0", level);
+            chain.Circuit.AddVoltageSource("load.vret", ret, Circuit.Ground, level);
             chain.Locate("load.vret", load.ReturnsTo.Span);
             chain.LocateNode(ret, load.Span);
         }

@@ -51,7 +51,7 @@ public sealed record BiasCurrents(double NonInverting, double Inverting);
 /// </summary>
 public sealed record ElaborationOptions
 {
-    /// <summary>The default options: band top, full amplitude, nominal offsets, typical bias currents, 27 °C.</summary>
+    /// <summary>The default options: band top, full amplitude, nominal offsets, typical bias currents, 25 °C.</summary>
     public static ElaborationOptions Default { get; } = new();
 
     /// <summary>Band end the source is driven at when it gives a band rather than a frequency.</summary>

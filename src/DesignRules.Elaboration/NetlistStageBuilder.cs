@@ -5,7 +5,7 @@ namespace DesignRules.Elaboration;
 
 /// <summary>
 /// Elaborates an explicit netlist stage. Node names map as follows: the netlist's input node is the node feeding the
-/// stage; "ground" and "0" (any letter case) are the reference; "vpos" and "vneg" are the supply nodes; every other node
+/// stage; <see cref="NetlistStage.Ground"/> is the engine's reference <see cref="Circuit.Ground"/>; "vpos" and "vneg" are the supply nodes; every other node
 /// becomes <c>stageId.name</c>. Element ids become <c>stageId.elementId</c>; amplifiers are powered from the chain's rails.
 /// The tool cannot derive a netlist's ideal transfer; it is taken from the stage's requirements (a gain, or a transfer
 /// kind with unit gain) and is a unity gain when none is given.
@@ -16,8 +16,8 @@ internal static class NetlistStageBuilder
     {
         string Map(string node) =>
             node == netlist.Input.Value ? s.Input
-            : Circuit.IsReference(node) ? "0"
-            : node is "vpos" or "vneg" ? node
+            : node == NetlistStage.Ground ? Circuit.Ground
+            : node is NetlistStage.PositiveRail or NetlistStage.NegativeRail ? node
             : s.Node(node);
 
         foreach (var e in netlist.Elements)

@@ -10,7 +10,7 @@ namespace DesignRules.Elaboration;
 /// <param name="InputNode">The node the stage is fed from (the previous stage's output, or the source's output).</param>
 /// <param name="ReferenceInputNode">
 /// For a stage fed differentially (a difference stage first in a chain whose source has a common-mode level), the node of
-/// the inverting signal input; "0" otherwise.
+/// the inverting signal input; <see cref="Circuit.Ground"/> otherwise.
 /// </param>
 /// <param name="OutputNode">The node that feeds the next stage or the load.</param>
 /// <param name="Amplifiers">Every amplifier of the stage.</param>

@@ -61,7 +61,7 @@ internal sealed class StageBuilder
     /// <summary>The node feeding the stage.</summary>
     public string Input { get; }
 
-    /// <summary>The node of the inverting signal input of a differentially fed stage, "0" otherwise.</summary>
+    /// <summary>The node of the inverting signal input of a differentially fed stage, <see cref="Circuit.Ground"/> otherwise.</summary>
     public string ReferenceInput { get; }
 
     /// <summary>The common-mode level of a differentially fed stage, V (0 otherwise).</summary>

@@ -30,29 +30,29 @@ public class EngineBenchmarks
         inverting = InvertingStage(10e3, 1e3);
         rectifier = PrecisionFullWaveRectifier();
         sweepValues = [.. Enumerable.Range(0, 101).Select(i => -2 + (0.04 * i))];
-        acSweep = new AcSweep([.. Enumerable.Range(0, 200).Select(i => 10 * Math.Pow(10, 6.0 * i / 199))]);
+        acSweep = new AcSweep("vin", [.. Enumerable.Range(0, 200).Select(i => 10 * Math.Pow(10, 6.0 * i / 199))]);
     }
 
     /// <summary>Inverting stage of gain −rf/rin with a 10 kΩ load, driven by <paramref name="input"/> volts DC (and 1 V AC).</summary>
     public static Circuit InvertingStage(double rf, double rin, double input = 0) => new Circuit()
-        .AddVoltageSource("vin", "in", "0", new DcWaveform(input) { AcMagnitude = 1 })
+        .AddVoltageSource("vin", "in", Circuit.Ground, new DcWaveform(input))
         .AddResistor("rin", "in", "sum", rin)
         .AddResistor("rf", "sum", "out", rf)
-        .AddResistor("load", "out", "0", 10e3)
-        .AddAmplifier("u1", "0", "sum", "out", Amplifier, Rails);
+        .AddResistor("load", "out", Circuit.Ground, 10e3)
+        .AddAmplifier("u1", Circuit.Ground, "sum", "out", Amplifier, Rails);
 
     /// <summary>Two-diode inverting half-wave rectifier summed with the input: |vin| at 20 kHz.</summary>
     public static Circuit PrecisionFullWaveRectifier() => new Circuit()
-        .AddVoltageSource("vin", "in", "0", new SineWaveform(1, 20e3))
+        .AddVoltageSource("vin", "in", Circuit.Ground, new SineWaveform(1, 20e3))
         .AddResistor("r1", "in", "sum1", 10e3)
-        .AddAmplifier("u1", "0", "sum1", "o1", Amplifier, Rails)
+        .AddAmplifier("u1", Circuit.Ground, "sum1", "o1", Amplifier, Rails)
         .AddDiode("d1", "o1", "sum1")
         .AddDiode("d2", "hw", "o1")
         .AddResistor("r2", "hw", "sum1", 10e3)
         .AddResistor("r3", "in", "sum2", 20e3)
         .AddResistor("r4", "hw", "sum2", 10e3)
         .AddResistor("rf2", "sum2", "out", 20e3)
-        .AddAmplifier("u2", "0", "sum2", "out", Amplifier, Rails);
+        .AddAmplifier("u2", Circuit.Ground, "sum2", "out", Amplifier, Rails);
 
     [Benchmark(Description = "DC sweep, 101 points, inverting stage")]
     public DcSweepResult DcSweep101() => Simulate.DcSweep(inverting, "vin", sweepValues);

@@ -93,7 +93,7 @@ public sealed class PartConversionTests
         Assert.Equal(expected, model.SaturationCurrent, expected * 1e-12);
 
         // The engine with that model: a 10 mA current source into the diode gives 0.7 V across it (series resistance included).
-        var circuit = new Circuit().AddCurrentSource("i1", "0", "a", 0.01).AddDiode("d1", "a", "0", model);
+        var circuit = new Circuit().AddCurrentSource("i1", Circuit.Ground, "a", 0.01).AddDiode("d1", "a", Circuit.Ground, model);
         var op = Simulate.OperatingPoint(circuit);
         Assert.True(op.Succeeded, op.Failure?.ToString());
         Assert.Equal(0.7, op.Voltage("a"), 6);

@@ -81,6 +81,6 @@ public sealed class ProbeNamingTests
         var bottom = ChainElaborator.Elaborate(Chain, new ElaborationOptions { BandEnd = BandEnd.Bottom, AmplitudeScale = 2 });
         Assert.Equal(20, bottom.TestFrequency!.Value, 9);
         Assert.Equal(2, ((SineWaveform)bottom.SourceWaveform).Amplitude, 12);
-        Assert.Equal(1, bottom.SourceWaveform.AcMagnitude);
+        Assert.Equal(ChainElaborator.SourceId, bottom.SourceId);
     }
 }

@@ -7,10 +7,10 @@ public sealed class AmplifierGainTests
     {
         var model = Stages.GeneralPurpose;
         var circuit = new Circuit()
-            .AddVoltageSource("vin", "in", "0", new DcWaveform(0) { AcMagnitude = 1 })
-            .AddAmplifier("u1", "in", "0", "out", model, Stages.Rails)
-            .AddResistor("load", "out", "0", 1e9);
-        var ac = Simulate.AcSweep(circuit, AcSweep.Decades(0.01, 1e7, 20));
+            .AddVoltageSource("vin", "in", Circuit.Ground, new DcWaveform(0))
+            .AddAmplifier("u1", "in", Circuit.Ground, "out", model, Stages.Rails)
+            .AddResistor("load", "out", Circuit.Ground, 1e9);
+        var ac = Simulate.AcSweep(circuit, AcSweep.Decades("vin", 0.01, 1e7, 20));
         Assert.True(ac.Succeeded, ac.Failure?.ToString());
 
         // textbook single-pole op-amp: A(f) = A0/(1 + j·f/fp), fp = GBW/A0 = 10 Hz; |A(GBW)| ≈ 1.
@@ -27,8 +27,8 @@ public sealed class AmplifierGainTests
     [InlineData(0, 1, 1)]
     public void Non_inverting_closed_loop_bandwidth_is_GBW_over_noise_gain_in_AC(double rf, double rg, double noiseGain)
     {
-        var circuit = Stages.NonInverting(new DcWaveform(0) { AcMagnitude = 1 }, Stages.GeneralPurpose, rf, rg);
-        var ac = Simulate.AcSweep(circuit, AcSweep.Decades(10, 1e7, 50));
+        var circuit = Stages.NonInverting(new DcWaveform(0), Stages.GeneralPurpose, rf, rg);
+        var ac = Simulate.AcSweep(circuit, AcSweep.Decades("vin", 10, 1e7, 50));
         Assert.True(ac.Succeeded, ac.Failure?.ToString());
 
         // textbook: closed-loop −3 dB bandwidth of a single-pole op-amp = GBW / noise gain.
@@ -39,8 +39,8 @@ public sealed class AmplifierGainTests
     [Fact]
     public void Inverting_closed_loop_bandwidth_uses_the_noise_gain_not_the_signal_gain()
     {
-        var circuit = Stages.Inverting(new DcWaveform(0) { AcMagnitude = 1 }, Stages.GeneralPurpose, 10e3, 10e3);
-        var ac = Simulate.AcSweep(circuit, AcSweep.Decades(10, 1e7, 50));
+        var circuit = Stages.Inverting(new DcWaveform(0), Stages.GeneralPurpose, 10e3, 10e3);
+        var ac = Simulate.AcSweep(circuit, AcSweep.Decades("vin", 10, 1e7, 50));
         Assert.True(ac.Succeeded, ac.Failure?.ToString());
 
         // textbook: inverting gain −1 has noise gain 1 + Rf/Rin = 2, so f−3dB = GBW/2.

@@ -28,8 +28,8 @@ public sealed class AmplifierLimitTests
     {
         var model = Stages.GeneralPurpose with { OutputResistance = 75 };
         var circuit = new Circuit()
-            .AddAmplifier("u1", "0", "0", "out", model, Stages.Rails)
-            .AddVoltageSource("vt", "t", "0", 1)
+            .AddAmplifier("u1", Circuit.Ground, Circuit.Ground, "out", model, Stages.Rails)
+            .AddVoltageSource("vt", "t", Circuit.Ground, 1)
             .AddResistor("rl", "t", "out", 925);
         var op = Simulate.OperatingPoint(circuit);
         Assert.True(op.Succeeded, op.Failure?.ToString());
@@ -43,7 +43,7 @@ public sealed class AmplifierLimitTests
     public void Output_current_is_limited_into_a_heavy_load()
     {
         var model = Stages.GeneralPurpose with { OutputCurrentLimit = 20e-3 };
-        var circuit = Stages.NonInverting(new DcWaveform(5), model, 0, 0).AddResistor("load", "out", "0", 100);
+        var circuit = Stages.NonInverting(new DcWaveform(5), model, 0, 0).AddResistor("load", "out", Circuit.Ground, 100);
         var op = Simulate.OperatingPoint(circuit);
         Assert.True(op.Succeeded, op.Failure?.ToString());
 

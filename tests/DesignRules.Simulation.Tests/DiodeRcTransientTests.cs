@@ -10,20 +10,20 @@ public sealed class DiodeRcTransientTests
         const double r = 1e3, c = 1e-6, amplitude = 5, frequency = 100, stop = 2 / frequency;
         var model = new DiodeModel { SaturationCurrent = 1e-14, EmissionCoefficient = 1, SeriesResistance = 0, JunctionCapacitance = 0 };
         var circuit = new Circuit()
-            .AddVoltageSource("vs", "in", "0", new SineWaveform(amplitude, frequency))
+            .AddVoltageSource("vs", "in", Circuit.Ground, new SineWaveform(amplitude, frequency))
             .AddResistor("r1", "in", "x", r)
-            .AddCapacitor("c1", "x", "0", c)
-            .AddDiode("d1", "x", "0", model);
+            .AddCapacitor("c1", "x", Circuit.Ground, c)
+            .AddDiode("d1", "x", Circuit.Ground, model);
         var result = Simulate.Transient(circuit, new TransientOptions { StopTime = stop, MaxStep = 1 / (frequency * 500) });
         Assert.True(result.Succeeded, result.Failure?.ToString());
         var v = result.Voltage("x");
 
         // Reference: MathNet.Numerics RungeKutta.FourthOrder on the same node equation
-        // C·dv/dt = (vs(t) − v)/R − Is·(exp(v/VT) − 1) − gmin·v, with a 0.1 µs step.
+        // C·dv/dt = (vs(t) − v)/R − Is·(exp(v/VT) − 1) − Gj·v (Gj the junction shunt), with a 0.1 µs step.
         double vt = PhysicalConstants.ThermalVoltage(PhysicalConstants.DefaultTemperature);
         const int steps = 200_000;
         double[] reference = RungeKutta.FourthOrder(0.0, 0, stop, steps, (t, y) =>
-            ((((amplitude * Math.Sin(2 * Math.PI * frequency * t)) - y) / r) - (model.SaturationCurrent * (Math.Exp(y / vt) - 1)) - (1e-12 * y)) / c);
+            ((((amplitude * Math.Sin(2 * Math.PI * frequency * t)) - y) / r) - (model.SaturationCurrent * (Math.Exp(y / vt) - 1)) - (SolverLimits.Default.JunctionShunt * y)) / c);
         var grid = Enumerable.Range(0, steps).Select(i => stop * i / (steps - 1)).ToArray();
         double peak = reference.Max(Math.Abs);
         for (int i = 0; i < v.Length; i++)

@@ -23,9 +23,9 @@ public sealed class DiodeTests
     public void Forward_current_through_a_series_resistor_matches_the_Lambert_W_closed_form(double supply, double resistance)
     {
         var circuit = new Circuit()
-            .AddVoltageSource("v1", "in", "0", supply)
+            .AddVoltageSource("v1", "in", Circuit.Ground, supply)
             .AddResistor("r1", "in", "a", resistance)
-            .AddDiode("d1", "a", "0", Model);
+            .AddDiode("d1", "a", Circuit.Ground, Model);
         var op = Simulate.OperatingPoint(circuit);
         Assert.True(op.Succeeded, op.Failure?.ToString());
         double current = -op.Current("v1");
@@ -45,9 +45,9 @@ public sealed class DiodeTests
     {
         var model = new DiodeModel { SaturationCurrent = 2.5e-9, EmissionCoefficient = 1.75, SeriesResistance = 5, JunctionCapacitance = 0 };
         var circuit = new Circuit()
-            .AddVoltageSource("v1", "in", "0", 10)
+            .AddVoltageSource("v1", "in", Circuit.Ground, 10)
             .AddResistor("r1", "in", "a", 100)
-            .AddDiode("d1", "a", "0", model);
+            .AddDiode("d1", "a", Circuit.Ground, model);
         var op = Simulate.OperatingPoint(circuit);
         Assert.True(op.Succeeded, op.Failure?.ToString());
         double nvt = 1.75 * PhysicalConstants.ThermalVoltage(PhysicalConstants.DefaultTemperature);
@@ -62,9 +62,9 @@ public sealed class DiodeTests
     {
         var model = new DiodeModel { SaturationCurrent = 1e-14, EmissionCoefficient = 1, SeriesResistance = 0, JunctionCapacitance = 0, BreakdownVoltage = 5.1, BreakdownCurrent = 1e-3 };
         var circuit = new Circuit()
-            .AddVoltageSource("v1", "in", "0", 12)
+            .AddVoltageSource("v1", "in", Circuit.Ground, 12)
             .AddResistor("r1", "in", "k", 1e3)
-            .AddDiode("z1", "0", "k", model);
+            .AddDiode("z1", Circuit.Ground, "k", model);
         var op = Simulate.OperatingPoint(circuit);
         Assert.True(op.Succeeded, op.Failure?.ToString());
 

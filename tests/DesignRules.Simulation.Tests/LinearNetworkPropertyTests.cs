@@ -33,7 +33,7 @@ public sealed class LinearNetworkPropertyTests
         return new Network(n, [.. resistors], sources, voltages);
     }
 
-    private static string Name(int node) => node == 0 ? "0" : "n" + node.ToString(System.Globalization.CultureInfo.InvariantCulture);
+    private static string Name(int node) => node == 0 ? Circuit.Ground : "n" + node.ToString(System.Globalization.CultureInfo.InvariantCulture);
 
     [Fact]
     public void Operating_point_of_random_resistor_networks_matches_a_direct_dense_nodal_solve()
@@ -44,7 +44,7 @@ public sealed class LinearNetworkPropertyTests
             int id = 0;
             foreach (var r in network.Resistors) circuit.AddResistor("r" + id++, Name(r.A), Name(r.B), r.Value);
             foreach (var i in network.CurrentSources) circuit.AddCurrentSource("i" + id++, Name(i.A), Name(i.B), i.Value);
-            foreach (var v in network.VoltageSources) circuit.AddVoltageSource("v" + id++, Name(v.A), "0", v.Value);
+            foreach (var v in network.VoltageSources) circuit.AddVoltageSource("v" + id++, Name(v.A), Circuit.Ground, v.Value);
             var op = Simulate.OperatingPoint(circuit);
             Assert.True(op.Succeeded, op.Failure?.ToString());
 

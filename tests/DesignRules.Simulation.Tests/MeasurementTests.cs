@@ -87,8 +87,8 @@ public sealed class MeasurementTests
     [Fact]
     public void Input_impedance_of_an_inverting_stage_is_its_input_resistor()
     {
-        var circuit = Stages.Inverting(new DcWaveform(0) { AcMagnitude = 1 }, Stages.GeneralPurpose, 100e3, 10e3);
-        var ac = Simulate.AcSweep(circuit, AcSweep.List(100, 1e3));
+        var circuit = Stages.Inverting(new DcWaveform(0), Stages.GeneralPurpose, 100e3, 10e3);
+        var ac = Simulate.AcSweep(circuit, AcSweep.List("vin", 100, 1e3));
 
         // textbook: the summing node is a virtual ground, so Zin = Rin = 10 kΩ (plus Rf/(1 + A) ≈ 1 Ω).
         Assert.Equal(10e3, FrequencyResponse.ImpedanceAtSource(ac, "in", "vin", 100).Magnitude, 10e3 * 1e-3);
@@ -98,9 +98,9 @@ public sealed class MeasurementTests
     public void Output_impedance_of_a_follower_is_Rout_divided_by_the_loop_gain()
     {
         var circuit = new Circuit()
-            .AddAmplifier("u1", "0", "out", "out", Stages.GeneralPurpose, Stages.Rails)
-            .AddCurrentSource("itest", "0", "out", new DcWaveform(0) { AcMagnitude = 1e-3 });
-        var ac = Simulate.AcSweep(circuit, AcSweep.List(1e3, 1e4));
+            .AddAmplifier("u1", Circuit.Ground, "out", "out", Stages.GeneralPurpose, Stages.Rails)
+            .AddCurrentSource("itest", Circuit.Ground, "out", new DcWaveform(0));
+        var ac = Simulate.AcSweep(circuit, AcSweep.List("itest", 1e3, 1e4) with { Amplitude = 1e-3 });
 
         // textbook: closed-loop Zout = Rout/(1 + A·β); at 1 kHz |A| ≈ GBW/f = 1000, so |Zout| ≈ 50 Ω/1000 = 0.05 Ω.
         Assert.Equal(0.05, FrequencyResponse.ImpedanceAtNode(ac, "out", 1e-3, 1e3).Magnitude, 0.05 * 0.01);

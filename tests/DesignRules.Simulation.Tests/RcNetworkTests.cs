@@ -5,9 +5,9 @@ public sealed class RcNetworkTests
     private const double R = 1e3, C = 1e-6, Tau = R * C;
 
     private static Circuit RcLowPass(Waveform drive) => new Circuit()
-        .AddVoltageSource("vin", "in", "0", drive)
+        .AddVoltageSource("vin", "in", Circuit.Ground, drive)
         .AddResistor("r1", "in", "out", R)
-        .AddCapacitor("c1", "out", "0", C);
+        .AddCapacitor("c1", "out", Circuit.Ground, C);
 
     [Fact]
     public void Step_response_follows_the_exponential_charge_curve()
@@ -62,8 +62,8 @@ public sealed class RcNetworkTests
     [Fact]
     public void Ac_sweep_of_the_low_pass_matches_the_transfer_function()
     {
-        var circuit = RcLowPass(new DcWaveform(0) { AcMagnitude = 1 });
-        var ac = Simulate.AcSweep(circuit, AcSweep.Decades(1, 1e5, 10));
+        var circuit = RcLowPass(new DcWaveform(0));
+        var ac = Simulate.AcSweep(circuit, AcSweep.Decades("vin", 1, 1e5, 10));
         Assert.True(ac.Succeeded, ac.Failure?.ToString());
         var vout = ac.Voltage("out");
         for (int i = 0; i < vout.Length; i++)

@@ -11,20 +11,20 @@ internal static class Stages
     /// <summary>Non-inverting stage of gain 1 + rf/rg driven by <paramref name="drive"/> at node "in"; output "out".</summary>
     public static Circuit NonInverting(Waveform drive, AmplifierModel model, double rf, double rg)
     {
-        var circuit = new Circuit().AddVoltageSource("vin", "in", "0", drive);
+        var circuit = new Circuit().AddVoltageSource("vin", "in", Circuit.Ground, drive);
         if (rf == 0) return circuit.AddAmplifier("u1", "in", "out", "out", model, Rails);
         return circuit
             .AddAmplifier("u1", "in", "fb", "out", model, Rails)
             .AddResistor("rf", "out", "fb", rf)
-            .AddResistor("rg", "fb", "0", rg);
+            .AddResistor("rg", "fb", Circuit.Ground, rg);
     }
 
     /// <summary>Inverting stage of gain −rf/rin driven at node "in"; output "out"; summing node "sum".</summary>
     public static Circuit Inverting(Waveform drive, AmplifierModel model, double rf, double rin) => new Circuit()
-        .AddVoltageSource("vin", "in", "0", drive)
+        .AddVoltageSource("vin", "in", Circuit.Ground, drive)
         .AddResistor("rin", "in", "sum", rin)
         .AddResistor("rf", "sum", "out", rf)
-        .AddAmplifier("u1", "0", "sum", "out", model, Rails);
+        .AddAmplifier("u1", Circuit.Ground, "sum", "out", model, Rails);
 
     /// <summary>Time at which a rising (or falling) series first crosses <paramref name="level"/>, interpolated.</summary>
     public static double Crossing(IReadOnlyList<double> time, IReadOnlyList<double> values, double level, double from = 0, bool rising = true)

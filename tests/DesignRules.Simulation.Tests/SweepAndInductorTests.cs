@@ -25,9 +25,9 @@ public sealed class SweepAndInductorTests
     {
         const double r = 100, l = 10e-3, tau = l / r;
         var circuit = new Circuit()
-            .AddVoltageSource("v1", "in", "0", new PiecewiseLinearWaveform([new(0, 0), new(1e-9, 1)]))
+            .AddVoltageSource("v1", "in", Circuit.Ground, new PiecewiseLinearWaveform([new(0, 0), new(1e-9, 1)]))
             .AddResistor("r1", "in", "a", r)
-            .AddInductor("l1", "a", "0", l);
+            .AddInductor("l1", "a", Circuit.Ground, l);
         var result = Simulate.Transient(circuit, new TransientOptions { StopTime = 5 * tau, MaxStep = tau / 50 });
         Assert.True(result.Succeeded, result.Failure?.ToString());
         var current = result.Current("l1");
@@ -46,11 +46,11 @@ public sealed class SweepAndInductorTests
     public void Ideal_controlled_source_buffers_a_divider_without_loading_it()
     {
         var circuit = new Circuit()
-            .AddVoltageSource("v1", "in", "0", 10)
+            .AddVoltageSource("v1", "in", Circuit.Ground, 10)
             .AddResistor("r1", "in", "mid", 1e3)
-            .AddResistor("r2", "mid", "0", 1e3)
-            .AddVoltageControlledVoltageSource("e1", "out", "0", "mid", "0", 2)
-            .AddResistor("load", "out", "0", 10);
+            .AddResistor("r2", "mid", Circuit.Ground, 1e3)
+            .AddVoltageControlledVoltageSource("e1", "out", Circuit.Ground, "mid", Circuit.Ground, 2)
+            .AddResistor("load", "out", Circuit.Ground, 10);
         var op = Simulate.OperatingPoint(circuit);
         Assert.Equal(10, op.Voltage("out"), 1e-9);
         Assert.Equal(-1, op.Current("e1"), 1e-9);
@@ -60,9 +60,9 @@ public sealed class SweepAndInductorTests
     public void Trapezoidal_integration_gives_the_same_RC_charge_curve()
     {
         var circuit = new Circuit()
-            .AddVoltageSource("v1", "in", "0", new PiecewiseLinearWaveform([new(0, 0), new(1e-9, 1)]))
+            .AddVoltageSource("v1", "in", Circuit.Ground, new PiecewiseLinearWaveform([new(0, 0), new(1e-9, 1)]))
             .AddResistor("r1", "in", "out", 1e3)
-            .AddCapacitor("c1", "out", "0", 1e-6);
+            .AddCapacitor("c1", "out", Circuit.Ground, 1e-6);
         var result = Simulate.Transient(circuit, new TransientOptions { StopTime = 5e-3, MaxStep = 2e-5, Method = IntegrationMethod.Trapezoidal });
         Assert.True(result.Succeeded, result.Failure?.ToString());
 

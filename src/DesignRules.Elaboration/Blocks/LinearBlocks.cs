@@ -13,11 +13,11 @@ internal sealed class InvertingBlock : IBlockBuilder
     public StageProbe Build(StageBuilder s)
     {
         string sum = s.Node("sum"), output = s.Node("out");
-        string plus = "0";
+        string plus = Circuit.Ground;
         if (s.Has("rcomp"))
         {
             plus = s.Node("ref");
-            s.Resistor("rcomp", plus, "0");
+            s.Resistor("rcomp", plus, Circuit.Ground);
         }
 
         s.Resistor("rin", s.Input, sum);
@@ -40,7 +40,7 @@ internal sealed class NonInvertingBlock : IBlockBuilder
     {
         string fb = s.Node("fb"), output = s.Node("out");
         s.Resistor("rf", output, fb);
-        s.Resistor("rg", fb, "0");
+        s.Resistor("rg", fb, Circuit.Ground);
         s.Amplifier("u1", s.Input, fb, output);
         return s.Finish(output, IdealTransfer.Linear(1 + (s.Value("rf") / s.Value("rg"))));
     }
@@ -76,7 +76,7 @@ internal sealed class DifferenceBlock : IBlockBuilder
         s.Resistor("r1", s.ReferenceInput, sum);
         s.Resistor("r2", sum, output);
         s.Resistor("r3", s.Input, plus);
-        s.Resistor("r4", plus, "0");
+        s.Resistor("r4", plus, Circuit.Ground);
         s.Amplifier("u1", plus, sum, output);
         s.SummingJunction(sum);
         double r1 = s.Value("r1"), r2 = s.Value("r2"), r3 = s.Value("r3"), r4 = s.Value("r4");
@@ -108,12 +108,12 @@ internal sealed class SummingBlock : IBlockBuilder
         {
             string bias = s.Node("bias");
             double level = s.Has("bias") ? s.Value("bias") : 0;
-            s.Source("vbias", bias, "0", level, s.Stage.Span);
+            s.Source("vbias", bias, Circuit.Ground, level, s.Stage.Span);
             s.Resistor("r2", bias, sum);
             offset = -s.Value("rf") * level / s.Value("r2");
         }
 
-        s.Amplifier("u1", "0", sum, output);
+        s.Amplifier("u1", Circuit.Ground, sum, output);
         s.SummingJunction(sum);
         return s.Finish(output, IdealTransfer.Linear(-s.Value("rf") / s.Value("r1"), offset));
     }

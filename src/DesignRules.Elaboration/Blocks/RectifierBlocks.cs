@@ -1,4 +1,5 @@
 using DesignRules.Model;
+using DesignRules.Simulation;
 
 namespace DesignRules.Elaboration.Blocks;
 
@@ -28,7 +29,7 @@ internal sealed class HalfWaveInvertingBlock : IBlockBuilder
         string sum = s.Node(sumName), amplifierOut = s.Node("u1.out");
         s.Resistor(inputResistor, s.Input, sum);
         s.Resistor(feedbackResistor, output, sum);
-        s.Amplifier("u1", "0", sum, amplifierOut);
+        s.Amplifier("u1", Circuit.Ground, sum, amplifierOut);
         s.Diode("d1", amplifierOut, sum);
         s.Diode("d2", output, amplifierOut);
         s.SummingJunction(sum);
@@ -50,7 +51,7 @@ internal sealed class HalfWaveFollowerBlock : IBlockBuilder
         string output = s.Node("out"), amplifierOut = s.Node("u1.out");
         s.Amplifier("u1", s.Input, output, amplifierOut);
         s.Diode("d1", amplifierOut, output);
-        if (s.Has("rload")) s.Resistor("rload", output, "0");
+        if (s.Has("rload")) s.Resistor("rload", output, Circuit.Ground);
         return s.Finish(output, new IdealTransfer(TransferKind.HalfWavePositive, 1, 0, 0));
     }
 }
@@ -72,7 +73,7 @@ internal sealed class AbsoluteValueBlock : IBlockBuilder
         s.Resistor("r3", s.Input, sum2);
         s.Resistor("r4", halfWave, sum2);
         s.Resistor("r5", sum2, output);
-        s.Amplifier("u2", "0", sum2, output);
+        s.Amplifier("u2", Circuit.Ground, sum2, output);
         s.SummingJunction(sum2);
         double r1 = s.Value("r1"), r2 = s.Value("r2"), r3 = s.Value("r3"), r4 = s.Value("r4"), r5 = s.Value("r5");
         double direct = -r5 / r3;
@@ -103,8 +104,8 @@ internal sealed class PeakDetectorBlock : IBlockBuilder
         s.Amplifier("u1", s.Input, cathode, amplifierOut);
         s.Diode("d1", amplifierOut, cathode);
         if (s.Has("rser")) s.Resistor("rser", cathode, hold);
-        s.Capacitor("chold", hold, "0");
-        s.Resistor("rdis", hold, "0");
+        s.Capacitor("chold", hold, Circuit.Ground);
+        s.Resistor("rdis", hold, Circuit.Ground);
         if (buffered) s.Amplifier("u2", hold, output, output);
         return s.Finish(output, new IdealTransfer(TransferKind.Peak, 1, 1, 0), s.Value("rdis") * s.Value("chold"));
     }
@@ -125,7 +126,7 @@ internal sealed class AveragingFilterBlock : IBlockBuilder
         string output = s.Node("out");
         string node = buffered ? s.Node("avg") : output;
         s.Resistor("r", s.Input, node);
-        s.Capacitor("c", node, "0");
+        s.Capacitor("c", node, Circuit.Ground);
         if (buffered) s.Amplifier("u1", node, output, output);
         return s.Finish(output, new IdealTransfer(TransferKind.Average, 1, 1, 0), s.Value("r") * s.Value("c"));
     }

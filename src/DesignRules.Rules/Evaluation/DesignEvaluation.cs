@@ -145,7 +145,7 @@ internal sealed class DesignEvaluation
     public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain)
     {
         var rule = RuleCatalogue.Default["DR920"];
-        var message = rule.Render([analysis, Design.Id.Value, failure.ToString()]);
+        var message = FailureMessage(analysis, Design.Id.Value, failure);
         if (findings.Any(f => f.RuleId == "DR920" && f.Message == message))
         {
             return;
@@ -153,6 +153,10 @@ internal sealed class DesignEvaluation
 
         findings.Add(new Finding("DR920", rule.Title, Severity.Error, message, chain.Locate(failure), rule.HelpPage, Design.Id.Value, null, null, []));
     }
+
+    /// <summary>The DR920 message of a failed analysis: the failure in its own words (never the kind's code name) and where to look.</summary>
+    public static string FailureMessage(string analysis, string designId, SimulationFailure failure) =>
+        RuleCatalogue.Default["DR920"].Render([analysis, designId, failure.ToString(), FailureWording.Advice(failure.Kind)]);
 
     private static RuleLevel ToLevel(Severity severity) => severity switch
     {

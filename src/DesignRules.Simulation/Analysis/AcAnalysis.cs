@@ -8,10 +8,14 @@ namespace DesignRules.Simulation;
 /// </summary>
 internal static class AcAnalysis
 {
-    public static AcResult Run(CompiledCircuit compiled, double[] operatingPoint, IReadOnlyList<double> frequencies, SolverLimits limits, OperatingPointResult op)
+    public static AcResult Run(CompiledCircuit compiled, double[] operatingPoint, AcSweep sweep, SolverLimits limits, OperatingPointResult op)
     {
         var layout = compiled.Layout;
-        var context = new AcLoadContext(layout.Size) { Gmin = limits.Gmin, Temperature = compiled.Temperature };
+        var context = new AcLoadContext(layout.Size)
+        {
+            JunctionShunt = limits.JunctionShunt, Temperature = compiled.Temperature, Stimulus = sweep.Source, StimulusAmplitude = sweep.Amplitude,
+        };
+        var frequencies = sweep.Frequencies;
         Array.Copy(operatingPoint, context.X, operatingPoint.Length);
         var map = new SignalMap(compiled);
         var table = new SampleTable<Complex>(map.Width);
@@ -26,7 +30,7 @@ internal static class AcAnalysis
             if (singular >= 0)
             {
                 string? owner = layout.Owners[singular];
-                var failure = new SimulationFailure(FailureKind.SingularMatrix, $"the small-signal equations are singular at '{layout.Names[singular]}'")
+                var failure = new SimulationFailure(FailureKind.Undetermined, $"the small-signal equations leave '{layout.Names[singular]}' undetermined")
                 {
                     Node = owner is null ? layout.Names[singular] : null,
                     ElementId = owner,

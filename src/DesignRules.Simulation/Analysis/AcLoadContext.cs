@@ -14,8 +14,8 @@ internal sealed class AcLoadContext(int size)
     /// <summary>Angular frequency ω in rad/s.</summary>
     public double Omega { get; set; }
 
-    /// <summary>Minimum junction conductance in S.</summary>
-    public double Gmin { get; set; }
+    /// <summary>Conductance across every diode junction in S (<see cref="SolverLimits.JunctionShunt"/>).</summary>
+    public double JunctionShunt { get; set; }
 
     /// <summary>Circuit temperature in K.</summary>
     public double Temperature { get; set; } = PhysicalConstants.DefaultTemperature;
@@ -44,6 +44,12 @@ internal sealed class AcLoadContext(int size)
         Add(b, a, -y);
     }
 
-    /// <summary>Phasor of a source waveform.</summary>
-    public static Complex Phasor(Waveform waveform) => Complex.FromPolarCoordinates(waveform.AcMagnitude, waveform.AcPhase);
+    /// <summary>Id of the source that carries the small-signal stimulus.</summary>
+    public string Stimulus { get; init; } = string.Empty;
+
+    /// <summary>Amplitude of the stimulus, V or A, at zero phase.</summary>
+    public double StimulusAmplitude { get; init; } = 1;
+
+    /// <summary>Small-signal value of an independent source: the stimulus amplitude for the requested source, zero for every other.</summary>
+    public Complex SourcePhasor(string id) => string.Equals(id, Stimulus, StringComparison.Ordinal) ? new Complex(StimulusAmplitude, 0) : Complex.Zero;
 }

@@ -46,8 +46,8 @@ internal sealed class CircuitLayout
     /// <summary>Owning element of each state.</summary>
     public IReadOnlyList<string> StateOwners => stateOwners;
 
-    /// <summary>True for the reference node names "0" and "ground" (any letter case).</summary>
-    public static bool IsReference(string name) => name == "0" || string.Equals(name, "ground", StringComparison.OrdinalIgnoreCase);
+    /// <summary>True for the reference node <see cref="Circuit.Ground"/>.</summary>
+    public static bool IsReference(string name) => string.Equals(name, Circuit.Ground, StringComparison.Ordinal);
 
     /// <summary>Index of a circuit node, creating it on first use; −1 for the reference.</summary>
     public int Node(string name)

@@ -29,8 +29,8 @@ internal sealed class LoadContext(int size, int stateCount)
     /// <summary>Scale applied to every independent source (source stepping); 1 normally.</summary>
     public double SourceScale { get; set; } = 1;
 
-    /// <summary>Minimum junction conductance in S.</summary>
-    public double Gmin { get; set; }
+    /// <summary>Conductance across every diode junction in S (<see cref="SolverLimits.JunctionShunt"/>).</summary>
+    public double JunctionShunt { get; set; }
 
     /// <summary>Leading coefficient of the integration formula (1/s); 0 in DC.</summary>
     public double Alpha { get; set; }

@@ -29,14 +29,14 @@ internal sealed class NewtonSolver
         var layout = circuit.Layout;
         Context = new LoadContext(layout.Size, layout.StateCount)
         {
-            Gmin = limits.Gmin,
+            JunctionShunt = limits.JunctionShunt,
             Temperature = circuit.Temperature,
         };
         tolerance = new double[layout.Size];
         isNode = new bool[layout.Size];
         for (int i = 0; i < layout.Size; i++)
         {
-            tolerance[i] = layout.Kinds[i] == UnknownKind.BranchCurrent ? limits.CurrentTolerance : limits.VoltageTolerance;
+            tolerance[i] = layout.Kinds[i] == UnknownKind.BranchCurrent ? limits.BranchCurrentTolerance : limits.VoltageTolerance;
             isNode[i] = layout.Kinds[i] == UnknownKind.NodeVoltage;
         }
     }
@@ -55,7 +55,7 @@ internal sealed class NewtonSolver
 
     /// <summary>Iterates from the guess in <see cref="LoadContext.X"/>; on success X holds the solution.</summary>
     /// <param name="maxIterations">Iteration cap.</param>
-    /// <param name="shunt">Conductance added from every node to the reference (gmin stepping), 0 normally.</param>
+    /// <param name="shunt">Conductance added from every node to the reference (the shunt ramp), 0 normally.</param>
     public NewtonOutcome Solve(int maxIterations, double shunt)
     {
         var context = Context;
@@ -128,11 +128,11 @@ internal sealed class NewtonSolver
             string reason = unknown >= 0 && layout.Kinds[unknown] == UnknownKind.BranchCurrent
                 ? $"the current of '{element}' is undetermined in {context}: voltage sources, amplifier outputs or inductors form a loop, or a source is shorted"
                 : $"the voltage of '{layout.Names[Math.Max(unknown, 0)]}' is undetermined in {context}: the node is floating or shorted between voltage sources";
-            return new SimulationFailure(FailureKind.SingularMatrix, reason) { Node = node, ElementId = element };
+            return new SimulationFailure(FailureKind.Undetermined, reason) { Node = node, ElementId = element };
         }
 
         string blame = Context.LimitedBy is { } limitedBy && unknown < 0 ? limitedBy : element ?? node ?? "the circuit";
-        return new SimulationFailure(FailureKind.NoConvergence, $"Newton iteration did not converge in {context} (largest change at '{(unknown >= 0 ? layout.Names[unknown] : blame)}')")
+        return new SimulationFailure(FailureKind.Unsettled, $"the Newton–Raphson iterations of {context} did not settle; the largest change was at '{(unknown >= 0 ? layout.Names[unknown] : blame)}'")
         {
             Node = node,
             ElementId = element ?? (unknown < 0 ? Context.LimitedBy : null),

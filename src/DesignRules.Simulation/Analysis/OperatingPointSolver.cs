@@ -1,9 +1,9 @@
 namespace DesignRules.Simulation;
 
 /// <summary>
-/// Finds a DC operating point: plain Newton first; if it fails (or meets a numerically singular iterate), gmin stepping (node-to-reference shunts from 1e-2 S
-/// down one decade per step, each step halved on failure) and then source stepping (all independent sources ramped
-/// from zero). Every loop is bounded by <see cref="SolverLimits"/>.
+/// Finds a DC operating point: plain Newton first; if it fails (or meets a numerically singular iterate), a shunt ramp
+/// (temporary node-to-ground shunts from 10 mS down to the junction shunt, each step halved on failure) and then a
+/// source ramp (all independent sources raised from zero). Every loop is bounded by <see cref="SolverLimits"/>.
 /// </summary>
 internal static class OperatingPointSolver
 {
@@ -24,11 +24,11 @@ internal static class OperatingPointSolver
         // those are caught before solving — so it goes on to the continuation methods like any non-convergence.
         var first = outcome;
 
-        if (GminStepping(solver, start)) return null;
-        if (SourceStepping(solver)) return null;
+        if (ShuntRamp(solver, start)) return null;
+        if (SourceRamp(solver)) return null;
         Array.Copy(start, context.X, start.Length);
         context.SourceScale = 1;
-        return solver.Describe(first, what + " (also with gmin and source stepping)");
+        return solver.Describe(first, what + " (also with the shunt ramp and the source ramp)");
     }
 
     /// <summary>
@@ -77,23 +77,23 @@ internal static class OperatingPointSolver
         return false;
     }
 
-    private static bool GminStepping(NewtonSolver solver, double[] start)
+    private static bool ShuntRamp(NewtonSolver solver, double[] start)
     {
         var limits = solver.Limits;
-        if (limits.GminSteps <= 0) return false;
+        if (limits.ShuntRampSteps <= 0) return false;
         var context = solver.Context;
         Array.Copy(start, context.X, start.Length);
         solver.ResetDevices();
         double[] good = (double[])context.X.Clone();
         double logShunt = -2;
-        double logStep = Math.Max((-2.0 - Math.Log10(Math.Max(limits.Gmin, 1e-15))) / limits.GminSteps, 0.1);
+        double logStep = Math.Max((-2.0 - Math.Log10(Math.Max(limits.JunctionShunt, 1e-15))) / limits.ShuntRampSteps, 0.1);
         double lastGood = double.NaN;
         int halvings = 0;
-        int guard = limits.GminSteps * (limits.MaxStepHalvings + 2) + 4;
+        int guard = limits.ShuntRampSteps * (limits.MaxStepHalvings + 2) + 4;
         while (guard-- > 0)
         {
             double shunt = Math.Pow(10, logShunt);
-            bool final = shunt <= limits.Gmin;
+            bool final = shunt <= limits.JunctionShunt;
             var outcome = solver.Solve(limits.MaxDcIterations, final ? 0 : shunt);
             if (outcome.Status == NewtonStatus.Converged)
             {
@@ -101,7 +101,7 @@ internal static class OperatingPointSolver
                 Array.Copy(context.X, good, good.Length);
                 lastGood = logShunt;
                 logShunt -= logStep;
-                if (Math.Pow(10, logShunt) < limits.Gmin) logShunt = Math.Log10(Math.Max(limits.Gmin, 1e-300)) - 1;
+                if (Math.Pow(10, logShunt) < limits.JunctionShunt) logShunt = Math.Log10(Math.Max(limits.JunctionShunt, 1e-300)) - 1;
                 continue;
             }
 
@@ -114,16 +114,16 @@ internal static class OperatingPointSolver
         return false;
     }
 
-    private static bool SourceStepping(NewtonSolver solver)
+    private static bool SourceRamp(NewtonSolver solver)
     {
         var limits = solver.Limits;
         var context = solver.Context;
         Array.Clear(context.X);
         solver.ResetDevices();
         double[] good = new double[context.X.Length];
-        double scale = 0, step = 1.0 / limits.SourceSteps, lastGood = -1;
+        double scale = 0, step = 1.0 / limits.SourceRampSteps, lastGood = -1;
         int halvings = 0;
-        int guard = limits.SourceSteps * (limits.MaxStepHalvings + 2) + 4;
+        int guard = limits.SourceRampSteps * (limits.MaxStepHalvings + 2) + 4;
         try
         {
             while (guard-- > 0)

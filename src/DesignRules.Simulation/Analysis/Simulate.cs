@@ -36,12 +36,12 @@ public static class Simulate
         if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new DcSweepResult(sourceId, null, null, [], failure);
         if (!compiled!.Devices.Any(d => d.Id == sourceId && d is VoltageSourceDevice or CurrentSourceDevice))
         {
-            return new DcSweepResult(sourceId, null, null, [], new SimulationFailure(FailureKind.InvalidRequest, $"'{sourceId}' is not an independent voltage or current source of this circuit") { ElementId = sourceId });
+            return new DcSweepResult(sourceId, null, null, [], new SimulationFailure(FailureKind.UnusableRequest, $"'{sourceId}' is not an independent voltage or current source of this circuit") { ElementId = sourceId });
         }
 
         if (values.Count == 0 || values.Count > limits.MaxSweepPoints || values.Any(v => !double.IsFinite(v)))
         {
-            return new DcSweepResult(sourceId, null, null, [], new SimulationFailure(FailureKind.InvalidRequest, "sweep values must be finite, at least one and no more than the sweep-point limit") { ElementId = sourceId });
+            return new DcSweepResult(sourceId, null, null, [], new SimulationFailure(FailureKind.UnusableRequest, "sweep values must be finite, at least one and no more than the sweep-point limit") { ElementId = sourceId });
         }
 
         var map = new SignalMap(compiled);
@@ -73,9 +73,12 @@ public static class Simulate
         return new DcSweepResult(sourceId, map, table, [.. solved], failure);
     }
 
-    /// <summary>AC small-signal sweep, linearised at the DC operating point; sources contribute their <see cref="Waveform.AcMagnitude"/> and phase.</summary>
+    /// <summary>
+    /// AC small-signal sweep, linearised at the DC operating point: the source the request names carries its amplitude,
+    /// every other source is quiet.
+    /// </summary>
     /// <param name="circuit">Circuit to solve.</param>
-    /// <param name="sweep">Frequencies.</param>
+    /// <param name="sweep">Stimulus source, amplitude and frequencies.</param>
     /// <param name="limits">Solver bounds.</param>
     public static AcResult AcSweep(Circuit circuit, AcSweep sweep, SolverLimits? limits = null)
     {
@@ -83,16 +86,28 @@ public static class Simulate
         ArgumentNullException.ThrowIfNull(sweep);
         limits ??= SolverLimits.Default;
         if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new AcResult(null, null, [], Failed(failure!), failure);
+        if (!compiled!.Devices.Any(d => d.Id == sweep.Source && d is VoltageSourceDevice or CurrentSourceDevice))
+        {
+            var bad = new SimulationFailure(FailureKind.UnusableRequest, $"the AC stimulus '{sweep.Source}' is not an independent voltage or current source of this circuit") { ElementId = sweep.Source };
+            return new AcResult(null, null, [], Failed(bad), bad);
+        }
+
+        if (!double.IsFinite(sweep.Amplitude))
+        {
+            var bad = new SimulationFailure(FailureKind.UnusableRequest, "the AC stimulus amplitude must be finite") { ElementId = sweep.Source };
+            return new AcResult(null, null, [], Failed(bad), bad);
+        }
+
         failure = OperatingPointSolver.Solve(solver, "the DC operating point");
         var op = Result(compiled!, solver, failure);
         if (failure is not null) return new AcResult(null, null, [], op, failure);
         var frequencies = sweep.Frequencies;
         if (frequencies is null || frequencies.Count == 0 || frequencies.Count > limits.MaxSweepPoints || frequencies.Any(f => !(f > 0) || !double.IsFinite(f)))
         {
-            return new AcResult(null, null, [], op, new SimulationFailure(FailureKind.InvalidRequest, "AC frequencies must be positive, finite, at least one and no more than the sweep-point limit"));
+            return new AcResult(null, null, [], op, new SimulationFailure(FailureKind.UnusableRequest, "AC frequencies must be positive, finite, at least one and no more than the sweep-point limit"));
         }
 
-        return AcAnalysis.Run(compiled!, solver.Context.X, frequencies, limits, op);
+        return AcAnalysis.Run(compiled, solver.Context.X, sweep, limits, op);
     }
 
     /// <summary>Transient analysis from the DC operating point at t = 0 (see <see cref="TransientOptions"/>).</summary>
@@ -105,7 +120,7 @@ public static class Simulate
         ArgumentNullException.ThrowIfNull(options);
         limits ??= SolverLimits.Default;
         var empty = new TransientStatistics(0, 0, 0, 0);
-        if (options.Validate() is { } bad) return new TransientResult(null, null, [], [], empty, new SimulationFailure(FailureKind.InvalidRequest, bad));
+        if (options.Validate() is { } bad) return new TransientResult(null, null, [], [], empty, new SimulationFailure(FailureKind.UnusableRequest, bad));
         if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new TransientResult(null, null, [], [], empty, failure);
         return new TransientAnalysis(compiled!, solver, options).Run();
     }
@@ -115,7 +130,7 @@ public static class Simulate
         compiled = null;
         if (limits.Validate() is { } bad)
         {
-            failure = new SimulationFailure(FailureKind.InvalidRequest, "solver limits: " + bad);
+            failure = new SimulationFailure(FailureKind.UnusableRequest, "solver limits: " + bad);
             return null;
         }
 

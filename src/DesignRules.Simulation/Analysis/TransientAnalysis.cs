@@ -83,7 +83,7 @@ internal sealed class TransientAnalysis
         {
             if (++steps > limits.MaxTransientSteps)
             {
-                return Finish(new SimulationFailure(FailureKind.StepLimitReached, $"the transient needed more than {limits.MaxTransientSteps} steps; raise the step limit or the maximum step") { Time = t });
+                return Finish(new SimulationFailure(FailureKind.BudgetSpent, $"the transient used up its budget of {limits.MaxTransientSteps} steps at t = {EngineeringText.Format(t, "s")} of {EngineeringText.Format(stop, "s")}") { Time = t });
             }
 
             while (nextBreak < breakpoints.Count && breakpoints[nextBreak] <= t + endTolerance) nextBreak++;
@@ -125,7 +125,13 @@ internal sealed class TransientAnalysis
                 if (h / 8 < minStep)
                 {
                     var why = solver.Describe(outcome, "a transient step");
-                    return Finish(new SimulationFailure(FailureKind.TimeStepTooSmall, $"the time step collapsed below {minStep:G3} s: {why.Reason}") { Node = why.Node, ElementId = why.ElementId, Time = t + h });
+                    string where = why.Node ?? why.ElementId ?? "the circuit";
+                    return Finish(new SimulationFailure(
+                        FailureKind.StepShrank,
+                        $"the time step shrank below {EngineeringText.Format(minStep, "s")} at t = {EngineeringText.Format(t + h, "s")} while '{where}' changed faster than a step that short can follow")
+                    {
+                        Node = why.Node, ElementId = why.ElementId, Time = t + h,
+                    });
                 }
 
                 h /= 8;

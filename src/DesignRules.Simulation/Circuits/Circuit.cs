@@ -2,7 +2,7 @@ namespace DesignRules.Simulation;
 
 /// <summary>
 /// A circuit under construction: named nodes and elements with unique ids. Nodes come into being when an element
-/// names them; "0" and "ground" (any letter case) are the reference node. Values are SI doubles.
+/// names them; <see cref="Ground"/> ("ground") is the reference node. Values are SI doubles.
 /// <para>Problems with element values (a zero resistance, a duplicate id, a pulse whose edges do not fit) are recorded
 /// in <see cref="Problems"/> rather than thrown; every analysis of a circuit with problems returns a failure naming the
 /// element. Null or empty ids and node names are programming errors and throw.</para>
@@ -15,7 +15,7 @@ public sealed class Circuit
     private readonly HashSet<string> knownNodes = new(StringComparer.Ordinal);
     private readonly List<SimulationFailure> problems = [];
 
-    /// <summary>Circuit temperature in K (default 300.15 K = 27 °C); sets the diodes' thermal voltage.</summary>
+    /// <summary>Circuit temperature in K (default 298.15 K = 25 °C); sets the diodes' thermal voltage.</summary>
     public double Temperature { get; set; } = PhysicalConstants.DefaultTemperature;
 
     /// <summary>Element ids in the order added.</summary>
@@ -32,7 +32,10 @@ public sealed class Circuit
 
     internal IReadOnlyList<ElementDefinition> Elements => elements;
 
-    /// <summary>True for the reference node names "0" and "ground" (any letter case).</summary>
+    /// <summary>The name of the reference node; every other name is an ordinary node.</summary>
+    public const string Ground = "ground";
+
+    /// <summary>True for the reference node <see cref="Ground"/>.</summary>
     /// <param name="node">Node name.</param>
     public static bool IsReference(string node) => CircuitLayout.IsReference(node);
 
@@ -135,13 +138,13 @@ public sealed class Circuit
         foreach (string node in element.Nodes) ArgumentException.ThrowIfNullOrWhiteSpace(node);
         if (!ids.Add(element.Id))
         {
-            problems.Add(new SimulationFailure(FailureKind.InvalidElement, "an element with this id already exists") { ElementId = element.Id });
+            problems.Add(new SimulationFailure(FailureKind.UnusableElement, "an element with this id already exists") { ElementId = element.Id });
             return this;
         }
 
         if (element.Validate() is { } problem)
         {
-            problems.Add(new SimulationFailure(FailureKind.InvalidElement, problem) { ElementId = element.Id });
+            problems.Add(new SimulationFailure(FailureKind.UnusableElement, problem) { ElementId = element.Id });
         }
 
         foreach (string node in element.Nodes)

@@ -25,12 +25,12 @@ internal sealed class CompiledCircuit
         if (circuit.Problems.Count > 0) return (null, circuit.Problems[0]);
         if (circuit.Elements.Count == 0 || circuit.NodeNames.Count == 0)
         {
-            return (null, new SimulationFailure(FailureKind.InvalidElement, "the circuit has no elements or no node besides the reference"));
+            return (null, new SimulationFailure(FailureKind.UnusableElement, "the circuit has no elements or no node besides the reference"));
         }
 
         if (!(circuit.Temperature > 0) || !double.IsFinite(circuit.Temperature))
         {
-            return (null, new SimulationFailure(FailureKind.InvalidElement, "circuit temperature must be a positive absolute temperature in K"));
+            return (null, new SimulationFailure(FailureKind.UnusableElement, "circuit temperature must be a positive absolute temperature in K"));
         }
 
         if (FindFloatingNode(circuit) is { } floating) return (null, floating);
@@ -75,7 +75,7 @@ internal sealed class CompiledCircuit
             if (Find(index[node]) == ground) continue;
             string? via = circuit.Elements.FirstOrDefault(e => e.Nodes.Contains(node, StringComparer.Ordinal))?.Id;
             return new SimulationFailure(
-                FailureKind.FloatingNode,
+                FailureKind.NoDcReturn,
                 $"node '{node}' has no DC path to ground (it is reached only through capacitors, current sources or amplifier inputs); add a resistor to ground or a DC return path")
             {
                 Node = node,

@@ -9,7 +9,7 @@ internal sealed record AmplifierDefinition(string Id, string NonInverting, strin
     public override IEnumerable<string> Nodes => [NonInverting, Inverting, Output];
 
     /// <summary>The output stage drives its node from a ground-referred source; the inputs draw only bias currents.</summary>
-    public override IEnumerable<(string A, string B)> DcPaths => [(Output, "0")];
+    public override IEnumerable<(string A, string B)> DcPaths => [(Output, Circuit.Ground)];
 
     public override bool ReportsCurrent => true;
 

@@ -26,7 +26,7 @@ internal sealed class CurrentSourceDevice(string id, int from, int to, Waveform 
 
     public override void LoadAc(AcLoadContext context)
     {
-        var current = AcLoadContext.Phasor(Waveform);
+        var current = context.SourcePhasor(Id);
         context.AddRhs(from, -current);
         context.AddRhs(to, current);
     }

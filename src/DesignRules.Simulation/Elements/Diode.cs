@@ -50,7 +50,7 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
         }
 
         lastVoltage = limitedV;
-        double current = Current(limitedV, context.Gmin, out double g);
+        double current = Current(limitedV, context.JunctionShunt, out double g);
         context.NonlinearBranch(junction, cathode, current, g, limitedV);
         if (state >= 0)
         {
@@ -65,12 +65,12 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
         Prepare(context.Temperature);
         if (junction != anode) context.Admittance(anode, junction, seriesConductance);
         double v = context.V(junction) - context.V(cathode);
-        Current(v, context.Gmin, out double g);
+        Current(v, context.JunctionShunt, out double g);
         context.Admittance(junction, cathode, new Complex(g, context.Omega * model.JunctionCapacitance));
     }
 
-    /// <summary>Junction current (Shockley law plus breakdown plus gmin) and its conductance.</summary>
-    internal double Current(double v, double gmin, out double conductance)
+    /// <summary>Junction current (Shockley law plus breakdown plus the junction shunt) and its conductance.</summary>
+    internal double Current(double v, double shunt, out double conductance)
     {
         double e = SmoothFunctions.LimitedExp(v / nvt, out double slope);
         double current = model.SaturationCurrent * (e - 1);
@@ -82,8 +82,8 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
             conductance += model.BreakdownCurrent * slopeB / nvt;
         }
 
-        current += gmin * v;
-        conductance += gmin;
+        current += shunt * v;
+        conductance += shunt;
         return current;
     }
 

@@ -10,7 +10,7 @@ internal abstract record ElementDefinition(string Id)
     /// <summary>Circuit nodes the element touches.</summary>
     public abstract IEnumerable<string> Nodes { get; }
 
-    /// <summary>Pairs of nodes joined by a DC path through the element ("0" stands for the reference).</summary>
+    /// <summary>Pairs of nodes joined by a DC path through the element (<see cref="Circuit.Ground"/> stands for the reference).</summary>
     public abstract IEnumerable<(string A, string B)> DcPaths { get; }
 
     /// <summary>True for elements whose branch current the results report (sources, inductors, controlled sources, amplifiers).</summary>

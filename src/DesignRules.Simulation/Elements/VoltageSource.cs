@@ -41,7 +41,7 @@ internal sealed class VoltageSourceDevice(string id, int plus, int minus, int br
         context.Add(minus, branch, -1);
         context.Add(branch, plus, 1);
         context.Add(branch, minus, -1);
-        context.AddRhs(branch, AcLoadContext.Phasor(Waveform));
+        context.AddRhs(branch, context.SourcePhasor(Id));
     }
 }
 

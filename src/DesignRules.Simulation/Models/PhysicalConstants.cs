@@ -14,10 +14,13 @@ public static class PhysicalConstants
     /// <summary>0 °C in kelvin.</summary>
     public const double ZeroCelsius = 273.15;
 
-    /// <summary>Default circuit temperature: 27 °C = 300.15 K, the customary "room temperature" of circuit analysis.</summary>
-    public const double DefaultTemperature = 300.15;
+    /// <summary>
+    /// Default circuit temperature: 25 °C = 298.15 K, the temperature at which parts files (the built-in one included)
+    /// state their typical figures, so an analysis at the default temperature uses the figures as written.
+    /// </summary>
+    public const double DefaultTemperature = ZeroCelsius + 25;
 
-    /// <summary>Thermal voltage V_T = k·T/e in volts at <paramref name="temperature"/> kelvin (≈ 25.865 mV at 300.15 K).</summary>
+    /// <summary>Thermal voltage V_T = k·T/e in volts at <paramref name="temperature"/> kelvin (≈ 25.693 mV at 298.15 K).</summary>
     /// <param name="temperature">Absolute temperature in K.</param>
     public static double ThermalVoltage(double temperature) => Boltzmann * temperature / ElementaryCharge;
 }

@@ -1,21 +1,16 @@
 namespace DesignRules.Simulation;
 
 /// <summary>
-/// Time function of an independent source. A waveform evaluates its value at a time, lists its corners
-/// (breakpoints) so the transient analysis can land on them, and carries the magnitude and phase it
-/// contributes to an AC small-signal sweep. The hierarchy is closed: use the derived records of this library.
+/// Time function of an independent source. A waveform evaluates its value at a time and lists its corners
+/// (breakpoints) so the transient analysis can land on them. The small-signal stimulus of an AC sweep is not part of a
+/// waveform: the <see cref="AcSweep"/> request names the source and its amplitude. The hierarchy is closed: use the
+/// derived records of this library.
 /// </summary>
 public abstract record Waveform
 {
     private protected Waveform()
     {
     }
-
-    /// <summary>Magnitude of this source in an AC sweep (V or A); 0 means the source is quiet in AC.</summary>
-    public double AcMagnitude { get; init; }
-
-    /// <summary>Phase of this source in an AC sweep, in radians.</summary>
-    public double AcPhase { get; init; }
 
     /// <summary>Value of the waveform at <paramref name="time"/> seconds.</summary>
     /// <param name="time">Time in s.</param>

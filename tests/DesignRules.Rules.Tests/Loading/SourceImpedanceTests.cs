@@ -14,7 +14,7 @@ public sealed class SourceImpedanceTests
     {
         var design = Assert.Single(DesignLoader.LoadFiles([RuleFixture.Path("loading/source-impedance-inverting.yaml")]).Designs);
         var chain = ChainElaborator.Elaborate(design);
-        var ac = Simulate.AcSweep(chain.Circuit, AcSweep.List(1e3));
+        var ac = Simulate.AcSweep(chain.Circuit, AcSweep.List(chain.SourceId, 1e3));
         var gain = ac.Voltage(chain.OutputNode)[0] / ac.Voltage(chain.SourceEmfNode)[0];
 
         // Textbook divider: G = -Rf / (Rin + Rs) = -20k / 10.6k.

@@ -45,7 +45,7 @@ internal sealed class SmallSignal
         var band = analyses.BandEnds.Select(e => analyses.Chain(e).TestFrequency).OfType<double>().Distinct().Order().ToList();
         var top = SourceSignal.TopFrequency(evaluation.Design.Source.Waveform);
         var frequencies = new[] { Dc, 1.0 }.Concat(band).Concat(top is { } t ? [t] : []).Distinct().Order().ToArray();
-        var result = Simulate.AcSweep(chain.Circuit, AcSweep.List(frequencies));
+        var result = Simulate.AcSweep(chain.Circuit, AcSweep.List(chain.SourceId, frequencies));
         if (!result.Succeeded)
         {
             evaluation.ReportFailure("AC", result.Failure!, chain);
@@ -87,15 +87,16 @@ internal sealed class SmallSignal
         var node = stage.OutputNode;
         var tested = ChainElaborator.Elaborate(evaluation.Design, Chain.Options);
         const string testId = "loading-test";
-        tested.Circuit.AddCurrentSource(testId, "0", node, new DcWaveform(0) { AcMagnitude = 1 });
-        var result = Simulate.AcSweep(tested.Circuit, AcSweep.List([.. Result.Frequencies]));
+        tested.Circuit.AddCurrentSource(testId, Circuit.Ground, node, 0);
+        var result = Simulate.AcSweep(tested.Circuit, AcSweep.List(testId, [.. Result.Frequencies]));
         if (!result.Succeeded)
         {
             evaluation.ReportFailure("AC", result.Failure!, Chain);
             return null;
         }
 
-        Complex Delta(string n, int i) => Circuit.IsReference(n) ? Complex.Zero : result.Voltage(n)[i] - Result.Voltage(n)[i];
+        // The test current is the only stimulus of this sweep, so every node voltage is the change it causes.
+        Complex Delta(string n, int i) => Circuit.IsReference(n) ? Complex.Zero : result.Voltage(n)[i];
         var points = new List<LoadingPoint>();
         for (int i = 0; i < Result.Frequencies.Count; i++)
         {

@@ -1,4 +1,5 @@
 using DesignRules.Elaboration;
+using DesignRules.Simulation;
 
 namespace DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -49,7 +50,7 @@ internal static class SingleSupply
                 double rail = stage.Amplifiers[0].Rails.Negative;
                 double limit = rail + stage.Amplifiers.Max(a => Math.Max(a.Part.InputRange.Negative.Value.Value, a.Part.OutputHeadroom.Negative.Value.Value));
                 double minimum = Minimum(band, stage.InputNode);
-                if (stage.ReferenceInputNode is not ("0" or "ground"))
+                if (!Circuit.IsReference(stage.ReferenceInputNode))
                 {
                     minimum = Math.Min(minimum, Minimum(band, stage.ReferenceInputNode));
                 }

@@ -50,7 +50,7 @@ internal static class ZeroCrossingGlitch
         var transient = band.Transient;
         var time = transient.Time;
         var input = transient.Voltage(stage.InputNode);
-        if (stage.ReferenceInputNode is not ("0" or "ground") && transient.HasNode(stage.ReferenceInputNode))
+        if (!Circuit.IsReference(stage.ReferenceInputNode) && transient.HasNode(stage.ReferenceInputNode))
         {
             var reference = transient.Voltage(stage.ReferenceInputNode);
             input = input.Select((v, i) => v - reference[i]).ToArray();

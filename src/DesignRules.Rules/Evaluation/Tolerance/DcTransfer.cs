@@ -81,13 +81,13 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
         if (!chain.Succeeded)
         {
             var problem = chain.Problems[0];
-            return Failed(chain, new SimulationFailure(FailureKind.InvalidRequest, problem.Message) { ElementId = problem.ElementId });
+            return Failed(chain, new SimulationFailure(FailureKind.UnusableRequest, problem.Message) { ElementId = problem.ElementId });
         }
 
         var stage = chain.Stage(plan.StageId);
         if (stage is null)
         {
-            return Failed(chain, new SimulationFailure(FailureKind.InvalidRequest, $"stage '{plan.StageId}' is not in the chain"));
+            return Failed(chain, new SimulationFailure(FailureKind.UnusableRequest, $"stage '{plan.StageId}' is not in the chain"));
         }
 
         var sweep = Simulate.DcSweep(chain.Circuit, chain.SourceId, plan.Levels);
