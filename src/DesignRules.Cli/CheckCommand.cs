@@ -8,7 +8,7 @@ using DesignRules.Rules;
 
 namespace DesignRules.Cli;
 
-/// <summary><c>designrules check [paths] [--sarif FILE] [--json FILE] [--rules FILE] …</c>: the main job.</summary>
+/// <summary><c>designrules check [paths] [--sarif FILE] [--json FILE] [--rule-set FILE] …</c>: the main job.</summary>
 internal static class CheckCommand
 {
     private static readonly Argument<string[]> Paths = new("paths")
@@ -26,9 +26,13 @@ internal static class CheckCommand
         Description = "Treat every warning as an error: it is printed and reported as an error and makes the exit code 1.",
     };
 
-    private static readonly Option<string?> RuleSet = new("--rules")
+    /// <summary>The note printed when the rule-set file is given under the option's earlier name.</summary>
+    public const string RenamedRulesNote = "note: '--rules' is renamed '--rule-set'; '--rules' will be removed in the next release.";
+
+    // '--rules' is the option's earlier name, accepted for one release with a note.
+    private static readonly Option<string?> RuleSet = new("--rule-set", "--rules")
     {
-        Description = $"The rule-set file (default: {RuleSetLoader.DefaultFileName} in the repository root, if present).",
+        Description = $"The rule-set file (default: {RuleSetLoader.DefaultFileName} in the repository root, if present); '--rules' is its earlier name, kept for one release.",
         HelpName = "FILE",
     };
 
@@ -98,6 +102,11 @@ internal static class CheckCommand
 
         var root = result.GetValue(Root) ?? (given.Length == 1 && Directory.Exists(given[0]) ? given[0] : ".");
         var ruleSet = result.GetValue(RuleSet);
+        if (result.GetResult(RuleSet)?.IdentifierToken?.Value == "--rules")
+        {
+            Console.Error.WriteLine(RenamedRulesNote);
+        }
+
         if (ruleSet is not null && !File.Exists(ruleSet))
         {
             Console.Error.WriteLine($"{ruleSet}: error: no such rule-set file");

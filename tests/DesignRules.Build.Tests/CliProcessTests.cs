@@ -52,6 +52,7 @@ public sealed class CliProcessTests : IDisposable
 
     [Theory]
     [InlineData("check", "no-such-folder")]
+    [InlineData("check", ".", "--rule-set", "no-such-rules.yaml")]
     [InlineData("check", ".", "--rules", "no-such-rules.yaml")]
     [InlineData("check", ".", "--levels", "DR906=loud")]
     [InlineData("check", ".", "--today", "30/06/2027")]
@@ -59,8 +60,9 @@ public sealed class CliProcessTests : IDisposable
     [InlineData("check", "--bogus")]
     [InlineData("check", ".", "--levels", "DR999=off")]
     [InlineData("check", ".", "--sarif", "-", "--json", "-")]
+    [InlineData("rule", "DR999")]
+    [InlineData("rule", "906")]
     [InlineData("explain", "DR999")]
-    [InlineData("explain", "906")]
     [InlineData("schema", "netlist")]
     [InlineData("no-such-command")]
     public void Unusable_input_or_options_exit_2(params string[] args)
@@ -153,12 +155,38 @@ public sealed class CliProcessTests : IDisposable
     }
 
     [Fact]
-    public void Explain_prints_the_rule_page()
+    public void Rule_prints_the_rule_page()
     {
-        var run = Cli("explain", "dr906");
+        var run = Cli("rule", "dr906");
         Assert.True(run.ExitCode == 0, run.ToString());
         Assert.StartsWith("# DR906: Unknown part", run.Output, StringComparison.Ordinal);
         Assert.Contains("## How to fix it", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Explain_still_prints_the_rule_page_for_one_release_with_a_note_that_it_is_renamed_rule()
+    {
+        var run = Cli("explain", "DR906");
+        Assert.True(run.ExitCode == 0, run.ToString());
+        Assert.Contains("# DR906: Unknown part", run.Output, StringComparison.Ordinal);
+        Assert.Contains("'designrules explain' is renamed 'designrules rule'", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void The_rule_set_file_is_given_with_rule_set_and_the_earlier_rules_still_works_with_a_note()
+    {
+        // A rule set that may not change a design-file problem: its finding shows that the file was read.
+        SampleRepository.Write(root, SampleRepository.Design());
+        var ruleSet = Path.Combine(root, "not-for-design-files.yaml");
+        File.WriteAllText(ruleSet, "rule-set: {}\nrules:\n  DR906: off\n");
+        var current = Cli("check", root, "--rule-set", ruleSet);
+        Assert.Contains("not-for-design-files.yaml(", current.Output, StringComparison.Ordinal);
+        Assert.DoesNotContain("is renamed", current.Output, StringComparison.Ordinal);
+
+        var earlier = Cli("check", root, "--rules", ruleSet);
+        Assert.Equal(current.ExitCode, earlier.ExitCode);
+        Assert.Contains("not-for-design-files.yaml(", earlier.Output, StringComparison.Ordinal);
+        Assert.Contains("'--rules' is renamed '--rule-set'", earlier.Output, StringComparison.Ordinal);
     }
 
     [Theory]
