@@ -84,11 +84,11 @@ public sealed class PartConversionTests
     public void A_diode_given_by_a_forward_voltage_point_passes_through_that_point()
     {
         var part = ((BlockStage)LoadDesign().Stages[0]).Diodes["d1"];
-        Assert.True(PartModels.TryDiode(part, 300.15, 1, out var model, out string problem), problem);
+        Assert.True(PartModels.TryDiode(part, 298.15, 1, out var model, out string problem), problem);
 
         // Shockley: Is = I/(exp(Vj/(n·V_T)) − 1) with Vj = Vf − I·Rs = 0.7 − 0.01·2 = 0.68 V and V_T = k·T/e from the exact
-        // SI 2019 constants (k = 1.380649e-23 J/K, e = 1.602176634e-19 C) at 300.15 K.
-        double vt = 1.380649e-23 * 300.15 / 1.602176634e-19;
+        // SI 2019 constants (k = 1.380649e-23 J/K, e = 1.602176634e-19 C) at 298.15 K.
+        double vt = 1.380649e-23 * 298.15 / 1.602176634e-19;
         double expected = 0.01 / (Math.Exp(0.68 / (1.9 * vt)) - 1);
         Assert.Equal(expected, model.SaturationCurrent, expected * 1e-12);
 
@@ -113,9 +113,9 @@ public sealed class PartConversionTests
             """);
         var chain = TestDesigns.Elaborate(design, new ElaborationOptions { DiodeSaturationScale = 2, DiodeSaturationScales = new Dictionary<string, double> { ["rect.d1"] = 1.5 } });
         var diode = Assert.Single(chain.Stage("rect")!.Diodes);
-        Assert.Equal(2.5e-9 * 3, diode.Model.SaturationCurrent, 1e-20);   // built-in silicon-small-signal: 2.5 nA
-        Assert.Equal(1.85, diode.Model.EmissionCoefficient, 12);
-        Assert.Equal(2e-12, diode.Model.JunctionCapacitance, 1e-24);
-        Assert.Equal(100, diode.Model.BreakdownVoltage!.Value, 12);
+        Assert.Equal(4e-9 * 3, diode.Model.SaturationCurrent, 1e-20);   // built-in silicon-small-signal: 4 nA
+        Assert.Equal(1.9, diode.Model.EmissionCoefficient, 12);
+        Assert.Equal(2.5e-12, diode.Model.JunctionCapacitance, 1e-24);
+        Assert.Equal(90, diode.Model.BreakdownVoltage!.Value, 12);
     }
 }
