@@ -2,7 +2,7 @@ namespace DesignRules.Simulation;
 
 /// <summary>
 /// Everything a device needs to load its linearised (companion) contribution into the real MNA system at one
-/// Newton iteration: the present guess, the mode, the time, the source scale of source stepping and the
+/// Newton iteration: the present guess, the mode, the time, the source scale of the source ramp and the
 /// integration coefficients. Rows are Kirchhoff current laws (sum of currents leaving the node = 0) or the
 /// element's own branch/state equation; the system reads A·x = b.
 /// </summary>
@@ -26,7 +26,7 @@ internal sealed class LoadContext(int size, int stateCount)
     /// <summary>Simulated time in s (0 in DC).</summary>
     public double Time { get; set; }
 
-    /// <summary>Scale applied to every independent source (source stepping); 1 normally.</summary>
+    /// <summary>Scale applied to every independent source (the source ramp); 1 normally.</summary>
     public double SourceScale { get; set; } = 1;
 
     /// <summary>Conductance across every diode junction in S (<see cref="SolverLimits.JunctionShunt"/>).</summary>

@@ -97,6 +97,16 @@ public sealed class OwnNamesTests
         }
     }
 
+    [Fact]
+    public void A_dangling_one_letter_node_is_reported_without_a_guess_at_what_was_meant()
+    {
+        // Before, 'a' was one edit from the old reference name 0, and the hint suggested it.
+        var result = Load(Design().Replace("between: [BUF, ground]", "between: [BUF, a]", StringComparison.Ordinal));
+        var dangling = result.Diagnostics.Where(d => d.Id == "DR908").ToList();
+        Assert.NotEmpty(dangling);
+        Assert.All(dangling, d => Assert.DoesNotContain("Did you mean", d.Message, StringComparison.Ordinal));
+    }
+
     [Theory]
     [InlineData("a")]
     [InlineData("x")]
