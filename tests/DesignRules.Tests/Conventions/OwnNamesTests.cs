@@ -66,6 +66,32 @@ public sealed class OwnNamesTests
     }
 
     [Fact]
+    public void No_builder_or_rule_spells_the_reference_node_as_a_string_literal()
+    {
+        // The reference node is one constant (Circuit.Ground, NetlistStage.Ground), never a literal in each builder.
+        var root = Loading.FixtureFiles.RepositoryRoot();
+        var offenders = new List<string>();
+        foreach (var project in new[] { "DesignRules.Simulation", "DesignRules.Elaboration", "DesignRules.Rules" })
+        {
+            foreach (var file in Directory.EnumerateFiles(Path.Combine(root, "src", project), "*.cs", SearchOption.AllDirectories))
+            {
+                var lines = File.ReadAllLines(file);
+                for (var i = 0; i < lines.Length; i++)
+                {
+                    var declaration = lines[i].Contains("const string", StringComparison.Ordinal);
+                    if (!declaration && !lines[i].TrimStart().StartsWith("//", StringComparison.Ordinal) &&
+                        (lines[i].Contains("\"0\"", StringComparison.Ordinal) || lines[i].Contains("\"ground\"", StringComparison.Ordinal)))
+                    {
+                        offenders.Add($"{Path.GetRelativePath(root, file)}({i + 1})");
+                    }
+                }
+            }
+        }
+
+        Assert.True(offenders.Count == 0, "reference node as a literal: " + string.Join(", ", offenders));
+    }
+
+    [Fact]
     public void Every_dimension_refuses_meg_as_a_prefix_with_the_hint_to_write_M()
     {
         foreach (var dimension in Enum.GetValues<Dimension>())
