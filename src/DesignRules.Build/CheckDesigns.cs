@@ -61,6 +61,19 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     /// </summary>
     public bool Replay { get; set; }
 
+    /// <summary>
+    /// Where to list every file the check loaded (design, parts — also those named under <c>libraries:</c> outside the
+    /// items — and the rule-set file), one full path a line, so that the next build takes them all as inputs. Rewritten
+    /// only when the list changes.
+    /// </summary>
+    public string? LoadedFilesFile { get; set; }
+
+    /// <summary>The project file that runs the check: where a "no design found" error (DR940) points.</summary>
+    public string? ProjectFile { get; set; }
+
+    /// <summary>In words, the folders and patterns the design files were searched with (for DR940 when none is found).</summary>
+    public string? Searched { get; set; }
+
     /// <summary>The date waiver expiry is judged against (yyyy-MM-dd); today when empty.</summary>
     public string? Today { get; set; }
 
@@ -171,7 +184,10 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
         var files = Files.Select(f => f.GetMetadata("FullPath")).Where(f => f.Length > 0).Distinct(StringComparer.Ordinal).ToList();
         var ruleSet = string.IsNullOrWhiteSpace(RuleSetFile) ? null : Path.GetFullPath(RuleSetFile);
-        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, ParseToday()), LogDesign));
+        var searched = string.IsNullOrWhiteSpace(Searched) ? "the DesignRulesDesign items (empty)" : Searched.Trim();
+        var search = new DesignSearch(string.IsNullOrWhiteSpace(ProjectFile) ? root : Path.GetFullPath(ProjectFile), searched);
+        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, ParseToday()) { Search = search }, LogDesign));
+        WriteLoadedFiles(report.LoadedFiles);
         var reportRoot = string.IsNullOrWhiteSpace(ReportRoot) ? RepositoryPaths.FindRepositoryRoot(root) : Path.GetFullPath(ReportRoot);
         var settings = new ReportSettings(reportRoot, string.IsNullOrWhiteSpace(HelpUriBase) ? null : HelpUriBase, ToolVersion);
         var asTheBuildShowsIt = BuildWarnings().Apply(report);
@@ -329,6 +345,24 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
                 File.Delete(file);
             }
         }
+    }
+
+    private void WriteLoadedFiles(IReadOnlyList<string> loaded)
+    {
+        if (string.IsNullOrWhiteSpace(LoadedFilesFile))
+        {
+            return;
+        }
+
+        var full = Path.GetFullPath(LoadedFilesFile);
+        var text = string.Concat(loaded.Select(f => f + "\n"));
+        if (File.Exists(full) && File.ReadAllText(full) == text)
+        {
+            return;
+        }
+
+        Directory.CreateDirectory(Path.GetDirectoryName(full)!);
+        File.WriteAllText(full, text);
     }
 
     private void WriteStamp(string summary, IEnumerable<Finding> findings)

@@ -165,7 +165,8 @@ internal static class CheckCommand
         // Progress on standard error, one line per design as it finishes, so a long check is never silent and standard
         // output stays the findings (or the report that '-' sends there).
         var displayRoot = Path.GetFullPath(root);
-        var check = DesignCheck.Run(files, new CheckOptions(ruleSet, today), progress => Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+        var search = new DesignSearch(Path.GetFullPath(given[0]), string.Join("; ", given.Select(RepositoryFiles.Searched)));
+        var check = DesignCheck.Run(files, new CheckOptions(ruleSet, today) { Search = search }, progress => Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
             $"checked {RepositoryPaths.Display(displayRoot, progress.File)} ({progress.DesignId}): {progress.Errors} error(s), {progress.Warnings} warning(s), {progress.Elapsed.TotalSeconds:0.00} s")));
         var warnings = result.GetValue(WarningsAsErrors) ? WarningLevels.None with { AllAsErrors = true } : WarningLevels.None;
         var report = warnings.Apply(levels.Apply(check));

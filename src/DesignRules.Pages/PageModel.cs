@@ -13,19 +13,6 @@ namespace DesignRules.Pages;
 /// </summary>
 internal static class PageModel
 {
-    /// <summary>Which rules judge each requirement, for the requirement verdicts of a design page.</summary>
-    private static readonly Dictionary<string, string[]> RequirementRules = new(StringComparer.Ordinal)
-    {
-        ["transfer"] = ["DR401", "DR404"],
-        ["gain"] = ["DR401", "DR402", "DR501"],
-        ["accuracy"] = ["DR302", "DR303", "DR304", "DR401", "DR402", "DR403", "DR404", "DR501", "DR502"],
-        ["glitch"] = ["DR102", "DR103"],
-        ["yield"] = ["DR402", "DR406"],
-        ["bandwidth"] = ["DR501"],
-        ["output-offset"] = ["DR405"],
-        ["min-signal"] = ["DR502"],
-    };
-
     public static ScriptObject Index(CheckReport report, IReadOnlyList<(DesignSummary Summary, string Page)> designs)
     {
         var items = new ScriptArray();
@@ -99,7 +86,7 @@ internal static class PageModel
                 ["returns_to"] = design.Load.ReturnsTo.Value.Value,
             },
             ["mermaid"] = new MarkdownText(Mermaid(design)),
-            ["requirements"] = Requirements(design, findings),
+            ["requirements"] = Requirements(design, summary.Requirements),
             ["stages"] = stages,
             ["findings"] = Findings(findings.Where(f => f.StageId is null), helpLink),
             ["errors"] = findings.Count(f => f.Severity == Severity.Error && !f.IsWaived),
@@ -232,7 +219,7 @@ internal static class PageModel
         return list;
     }
 
-    private static ScriptArray Requirements(Design design, List<Finding> findings)
+    private static ScriptArray Requirements(Design design, IReadOnlyList<RequirementVerdict> verdicts)
     {
         var list = new ScriptArray();
         foreach (var stage in design.Stages)
@@ -255,13 +242,12 @@ internal static class PageModel
                     continue;
                 }
 
-                var judged = findings.Where(f => f.StageId == stage.Id.Value && RequirementRules[name].Contains(f.RuleId)).ToList();
-                var open = judged.Where(f => !f.IsWaived && f.Severity != Severity.Note).Select(f => f.RuleId).Distinct().ToList();
-                var verdict = open.Count > 0 && open.All(id => id == "DR406") ? "not shown (DR406)"
-                    : open.Count > 0 ? "not met (" + string.Join(", ", open.Where(id => id != "DR406")) + ")"
-                    : judged.Any(f => f.IsWaived) ? "waived"
-                    : findings.Any(f => f.StageId == stage.Id.Value && f.RuleId == "DR702" && f.Message.Contains($"`{name}`", StringComparison.Ordinal)) ? "not checked"
-                    : "met";
+                // The verdict comes from the rules that judged the requirement (one table, in the check), never from here.
+                var found = verdicts.FirstOrDefault(v => v.StageId == stage.Id.Value && v.Name == name);
+                var verdict = found is null ? "not checked"
+                    : found.Verdict == "not met" && found.Reported.All(id => id == "DR406") ? "not shown (DR406)"
+                    : found.Verdict == "not met" ? "not met (" + string.Join(", ", found.Reported.Where(id => id != "DR406")) + ")"
+                    : found.Verdict;
                 list.Add(new ScriptObject { ["stage"] = stage.Id.Value, ["name"] = name, ["value"] = text, ["verdict"] = verdict });
             }
         }

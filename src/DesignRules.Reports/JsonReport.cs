@@ -55,6 +55,7 @@ public static class JsonReport
         }
 
         w.WriteEndArray();
+        WriteRequirements(w, report);
         w.WriteStartArray("designs");
         foreach (var design in report.Designs)
         {
@@ -63,6 +64,29 @@ public static class JsonReport
 
         w.WriteEndArray();
         w.WriteEndObject();
+    }
+
+    /// <summary>Every stated requirement's verdict, from the rules that judged it ("not checked" when none did).</summary>
+    private static void WriteRequirements(Utf8JsonWriter w, CheckReport report)
+    {
+        w.WriteStartArray("requirements");
+        foreach (var design in report.Designs)
+        {
+            foreach (var r in design.Requirements)
+            {
+                w.WriteStartObject();
+                w.WriteString("design", design.Design.Id.Value);
+                w.WriteString("stage", r.StageId);
+                w.WriteString("requirement", r.Name);
+                w.WriteString("verdict", r.Verdict);
+                w.WriteStartArray("judgedBy");
+                foreach (var id in r.JudgedBy) w.WriteStringValue(id);
+                w.WriteEndArray();
+                w.WriteEndObject();
+            }
+        }
+
+        w.WriteEndArray();
     }
 
     /// <summary>

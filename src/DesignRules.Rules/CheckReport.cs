@@ -12,6 +12,12 @@ public sealed record CheckReport(IReadOnlyList<Finding> Findings, IReadOnlyList<
     /// <summary>Per design: its model and the key figures the rules computed, for datasheet pages and JSON.</summary>
     public IReadOnlyList<DesignSummary> Designs { get; init; } = [];
 
+    /// <summary>
+    /// Every file the check read or looked for: design and parts files, the parts files they name under
+    /// <c>libraries:</c> (wherever they are) and the rule-set file. An incremental build reruns when any of them changes.
+    /// </summary>
+    public IReadOnlyList<string> LoadedFiles { get; init; } = [];
+
     /// <summary>Findings at error level that no waiver covers.</summary>
     public int ErrorCount => Findings.Count(f => f.Severity == Severity.Error && !f.IsWaived);
 
@@ -33,4 +39,14 @@ public sealed record DesignSummary(
 
     /// <summary>The Monte Carlo yield of every stage judged against a yield, with its interval and verdict, in stage order.</summary>
     public IReadOnlyList<YieldEstimate> Yields { get; init; } = [];
+    /// <summary>The verdict of every requirement of every stage, from the rules that judged it (see <see cref="Evaluation.RequirementTable"/>).</summary>
+    public IReadOnlyList<RequirementVerdict> Requirements { get; init; } = [];
 }
+
+/// <summary>The verdict of one requirement of one stage.</summary>
+/// <param name="StageId">The stage.</param>
+/// <param name="Name">The requirement key (<c>glitch</c>, <c>accuracy</c>, ...).</param>
+/// <param name="Verdict"><c>met</c>, <c>not met</c>, <c>waived</c> or <c>not checked</c>.</param>
+/// <param name="JudgedBy">The rules that judged it (empty when none did).</param>
+/// <param name="Reported">The rules among them that reported it unwaived (why it is not met).</param>
+public sealed record RequirementVerdict(string StageId, string Name, string Verdict, IReadOnlyList<string> JudgedBy, IReadOnlyList<string> Reported);

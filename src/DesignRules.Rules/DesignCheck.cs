@@ -35,6 +35,14 @@ public static class DesignCheck
         var loaded = DesignLoader.LoadFiles(ordered);
         findings.AddRange(loaded.Diagnostics.Select(FromDiagnostic));
         findings.AddRange(UnknownDesignsInRuleSet(ruleSet, loaded));
+        if (loaded.Designs.Count == 0 && !loaded.HasErrors && options.Search is { } search)
+        {
+            // Nothing to check is not a pass: name what was searched, so a wrong folder or pattern is found at once. (A
+            // design file that failed to load has its own errors already; it was found.)
+            var rule = RuleCatalogue.Default["DR940"];
+            findings.Add(new Finding("DR940", rule.Title, rule.DefaultSeverity, rule.Render([search.Description]),
+                SourceSpan.WholeFile(search.Location), rule.HelpPage, null, null, null, []));
+        }
 
         // Designs are independent: evaluate them side by side, then order the findings so output is deterministic.
         var perDesign = new (List<Finding> Findings, DesignSummary Summary)[loaded.Designs.Count];
@@ -63,6 +71,7 @@ public static class DesignCheck
         return new CheckReport(Sort(findings), RuleCatalogue.Default.Rules, loaded.Designs.Count, ordered.Count)
         {
             Designs = perDesign.Select(p => p.Summary).ToList(),
+            LoadedFiles = [.. loaded.Files.Concat(options.RuleSetFile is null ? [] : [Path.GetFullPath(options.RuleSetFile)]).Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal)],
         };
     }
 
@@ -83,8 +92,47 @@ public static class DesignCheck
         {
             Plots = PlotCollector.Collect(evaluation),
             Yields = design.Stages.Select(s => evaluation.Yields.FirstOrDefault(y => y.StageId == s.Id.Value)).OfType<YieldEstimate>().ToList(),
+            Requirements = Verdicts(design, evaluation, findings),
         };
         return (findings, summary);
+    }
+
+    /// <summary>
+    /// Each stated requirement's verdict, only from the rules that judged it: not met when one of them reported it
+    /// (unwaived, above note level), waived when its only reports are waived, met when one judged it without a report,
+    /// and not checked when none judged it.
+    /// </summary>
+    private static List<RequirementVerdict> Verdicts(Design design, DesignEvaluation evaluation, List<Finding> findings)
+    {
+        var list = new List<RequirementVerdict>();
+        foreach (var stage in design.Stages)
+        {
+            var r = stage.Requirements;
+            foreach (var (name, stated) in new (string, bool)[]
+                     {
+                         ("transfer", r.Transfer is not null && r.Gain is null), ("gain", r.Gain is not null), ("accuracy", r.Accuracy is not null),
+                         ("glitch", r.Glitch is not null), ("yield", r.Yield is not null), ("bandwidth", r.Bandwidth is not null),
+                         ("output-offset", r.OutputOffset is not null), ("min-signal", r.MinSignal is not null),
+                         ("cmrr", r.CommonModeRejection is not null),
+                     })
+            {
+                if (!stated)
+                {
+                    continue;
+                }
+
+                string id = stage.Id.Value;
+                var rules = RequirementTable.Rules[name];
+                var reports = findings.Where(f => f.StageId == id && rules.Contains(f.RuleId)).ToList();
+                var judgedBy = evaluation.Judgments.Where(j => j.Stage == id && j.Requirement == name).Select(j => j.Rule)
+                    .Concat(reports.Select(f => f.RuleId)).Distinct().Order(StringComparer.Ordinal).ToList();
+                var open = reports.Where(f => !f.IsWaived && f.Severity != Severity.Note).Select(f => f.RuleId).Distinct().Order(StringComparer.Ordinal).ToList();
+                var verdict = open.Count > 0 ? "not met" : reports.Any(f => f.IsWaived) ? "waived" : judgedBy.Count > 0 ? "met" : "not checked";
+                list.Add(new RequirementVerdict(id, name, verdict, judgedBy, open));
+            }
+        }
+
+        return list;
     }
 
     private static IEnumerable<Finding> UnknownDesignsInRuleSet(RuleSet ruleSet, LoadResult loaded)

@@ -23,6 +23,27 @@ public sealed class CliProcessTests : IDisposable
     }
 
     [Fact]
+    public void A_folder_with_no_design_exits_1_naming_what_was_searched_and_yml_designs_are_found()
+    {
+        // Designs kept in the wrong folder: nothing is checked, which must not pass.
+        var elsewhere = Path.Combine(root, "schematics", "line-driver.yaml");
+        Directory.CreateDirectory(Path.GetDirectoryName(elsewhere)!);
+        File.WriteAllText(elsewhere, SampleRepository.Design());
+        Directory.CreateDirectory(Path.Combine(root, "designs"));
+        var empty = Cli("check", root);
+        Assert.True(empty.ExitCode == 1, empty.ToString());
+        Assert.Contains("error DR940: ", empty.Output, StringComparison.Ordinal);
+        Assert.Contains("designs/**/*.yaml, designs/**/*.yml", empty.Output, StringComparison.Ordinal);
+        Assert.Contains(root, empty.Output, StringComparison.Ordinal);
+
+        // The same design spelt .yml in designs/ is found and checked.
+        File.Move(elsewhere, Path.Combine(root, "designs", "line-driver.yml"));
+        var found = Cli("check", root);
+        Assert.True(found.ExitCode == 0, found.ToString());
+        Assert.Contains("1 design(s) checked in 1 file(s): 0 error(s)", found.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Error_finding_exits_1_with_the_compiler_style_line_and_no_colour_when_redirected()
     {
         var text = SampleRepository.Design(SampleRepository.UnknownAmplifier);

@@ -127,6 +127,75 @@ public sealed class EndToEndTests(PackedFeed feed)
         Assert.Equal("# Our boards\n", File.ReadAllText(Path.Combine(repo.Root, "design-pages", "index.md")));
     }
 
+    [Fact]
+    public void A_parts_file_named_under_libraries_outside_the_parts_glob_is_an_input_of_the_next_build()
+    {
+        Assert.True(feed.PackOutput.ExitCode == 0, feed.PackOutput.ToString());
+        using var repo = new ConsumerRepository(feed, asProjectSdk: true);
+
+        // The design takes its amplifier from vendor/shared-parts.yaml, outside the default parts/**/*.yaml glob.
+        var vendor = Path.Combine(repo.Root, "vendor", "shared-parts.yaml");
+        Directory.CreateDirectory(Path.GetDirectoryName(vendor)!);
+        File.WriteAllText(vendor, SharedParts("shared-amplifier"));
+        SampleRepository.Write(repo.Root, SampleRepository.Design("shared-amplifier").Replace(
+            "stages:", "libraries: [../vendor/shared-parts.yaml]\nstages:", StringComparison.Ordinal));
+        AssertPassed(repo.Build());
+        Assert.Contains(Skipped, repo.Build().Output, StringComparison.Ordinal);
+
+        // The library changes so that the part the design names is gone: the check must run again and fail, never
+        // replay the last green.
+        File.WriteAllText(vendor, SharedParts("renamed-amplifier"));
+        var changed = repo.Build();
+        Assert.DoesNotContain(Skipped, changed.Output, StringComparison.Ordinal);
+        AssertFailsWithErrorDr906(changed);
+
+        // Put back, it passes; and with nothing changed since, the replay is allowed again.
+        File.WriteAllText(vendor, SharedParts("shared-amplifier"));
+        AssertPassed(repo.Build());
+        Assert.Contains(Skipped, repo.Build().Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_build_that_finds_no_design_fails_naming_the_patterns_and_yml_designs_are_checked()
+    {
+        Assert.True(feed.PackOutput.ExitCode == 0, feed.PackOutput.ToString());
+        using var repo = new ConsumerRepository(feed, asProjectSdk: true);
+
+        // Designs in a folder the default pattern does not search: a located error at the project, never a green build.
+        var elsewhere = Path.Combine(repo.Root, "boards", "line-driver.yaml");
+        Directory.CreateDirectory(Path.GetDirectoryName(elsewhere)!);
+        File.WriteAllText(elsewhere, SampleRepository.Design());
+        var empty = repo.Build();
+        Assert.True(empty.ExitCode != 0, empty.ToString());
+        Assert.True(Regex.IsMatch(empty.Output, @"hardware\.csproj(\(\d+,\d+(,\d+,\d+)?\))?: error DR940: No design was found to check: designs/\*\*/\*\.yaml and designs/\*\*/\*\.yml below "), empty.ToString());
+
+        // The design spelt .yml under designs/ is found by the default items.
+        Directory.CreateDirectory(Path.Combine(repo.Root, "designs"));
+        File.Move(elsewhere, Path.Combine(repo.Root, "designs", "line-driver.yml"));
+        var found = repo.Build();
+        AssertPassed(found);
+        Assert.Contains(Checked, found.Output, StringComparison.Ordinal);
+    }
+
+    /// <summary>A parts file with one amplifier of the JFET-input class (figures of our own, marked typical).</summary>
+    private static string SharedParts(string amplifierId) => $$"""
+        library:
+          id: shared-parts
+        amplifiers:
+          - id: {{amplifierId}}
+            description: General-purpose JFET-input amplifier class (typical values of our own)
+            typical: true
+            gbw: 3 MHz
+            slew-rate: 13 V/us
+            open-loop-gain: 106 dB
+            output-headroom: { positive: 1.5 V, negative: 1.5 V, at-load: 2k }
+            output-current: 20 mA
+            input-range: { positive: 3 V, negative: 3 V }
+            offset-voltage: { typical: 3 mV, maximum: 10 mV }
+            bias-current: { typical: 30 pA, maximum: 200 pA }
+            supply-span: { minimum: 7 V, maximum: 36 V }
+        """.Replace("\r\n", "\n", StringComparison.Ordinal) + "\n";
+
     private static void AssertPassed(ProcessRun run) => Assert.True(run.ExitCode == 0, run.ToString());
 
     private static void AssertFailsWithErrorDr906(ProcessRun run)

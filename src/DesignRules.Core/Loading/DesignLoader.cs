@@ -31,6 +31,8 @@ public sealed class DesignLoader
     {
     }
 
+    private readonly HashSet<string> readPaths = new(StringComparer.Ordinal);
+
     /// <summary>A loader reading files through <paramref name="readFile"/>, which returns null for a missing file.</summary>
     internal DesignLoader(LoaderLimits? limits, Func<string, string?>? readFile)
     {
@@ -75,7 +77,7 @@ public sealed class DesignLoader
     {
         // The same library problem can be reached from several designs; report it once.
         var distinct = diagnostics.Distinct().ToList();
-        return new LoadResult(designs, libraryOrder.ToList(), distinct);
+        return new LoadResult(designs, libraryOrder.ToList(), distinct) { Files = [.. readPaths.Order(StringComparer.Ordinal)] };
     }
 
     private void LoadOne(string file, string text, List<Design> designs)
@@ -308,6 +310,13 @@ public sealed class DesignLoader
 
     private string? SafeRead(string path, Located<string>? reference)
     {
+        // Every file the check depends on, read or merely looked for (a missing library that appears later must rerun
+        // an incremental build too).
+        if (path != BuiltinLibraryFile)
+        {
+            readPaths.Add(FullPath(path));
+        }
+
         if (++filesRead > limits.MaxFiles)
         {
             // Said once, at the first file over the bound; the run fails, so the files not read cannot pass unnoticed.

@@ -11,7 +11,8 @@ namespace DesignRules.Rules.Evaluation;
 internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo)
 {
     private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
-    private readonly Dictionary<BandEnd, TransientResult> transients = [];
+    private readonly Dictionary<BandEnd, ElaboratedChain> settledChains = [];
+    private readonly Dictionary<BandEnd, SettledTransient> transients = [];
     private readonly Dictionary<string, object> shared = new(StringComparer.Ordinal);
     private OperatingPointResult? operatingPoint;
     private AcResult? ac;
@@ -42,9 +43,40 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
         Design.Source.Waveform.Band is not null ? [BandEnd.Top, BandEnd.Bottom] : [BandEnd.Top];
 
     /// <summary>True when the source is periodic, so transient rules apply.</summary>
-    public bool IsPeriodic => Chain(BandEnd.Top).Period is not null;
+    public bool IsPeriodic => RawChain(BandEnd.Top).Period is not null;
 
+    /// <summary>
+    /// The chain at a band end. For a periodic source its <see cref="ElaboratedChain.Window"/> is the window of settled
+    /// periods of <see cref="Transient"/> (the transient runs first), so every rule measures the steady state.
+    /// </summary>
     public ElaboratedChain Chain(BandEnd end)
+    {
+        var raw = RawChain(end);
+        if (raw.Period is null || !raw.Succeeded)
+        {
+            return raw;
+        }
+
+        var steady = Steady(end);
+        return raw.Window == steady.Window ? raw : settledChains.TryGetValue(end, out var c) ? c : settledChains[end] = raw with { Window = steady.Window };
+    }
+
+    /// <summary>The transient at a band end, run until its periodic steady state (see <see cref="Steady"/>).</summary>
+    public TransientResult Transient(BandEnd end) => Steady(end).Result;
+
+    /// <summary>The transient at a band end with its settling verdict: run until successive periods agree, or a limit is hit.</summary>
+    public SettledTransient Steady(BandEnd end)
+    {
+        if (!transients.TryGetValue(end, out var result))
+        {
+            result = PeriodicSteadyState.Run(RawChain(end), SteadyStateLimits.Default);
+            transients[end] = result;
+        }
+
+        return result;
+    }
+
+    private ElaboratedChain RawChain(BandEnd end)
     {
         if (!chains.TryGetValue(end, out var chain))
         {
@@ -55,27 +87,15 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
         return chain;
     }
 
-    public TransientResult Transient(BandEnd end)
-    {
-        if (!transients.TryGetValue(end, out var result))
-        {
-            var chain = Chain(end);
-            result = Simulate.Transient(chain.Circuit, chain.Window.ToOptions());
-            transients[end] = result;
-        }
-
-        return result;
-    }
-
     public OperatingPointResult OperatingPoint()
     {
-        var chain = Chain(BandEnd.Top);
+        var chain = RawChain(BandEnd.Top);
         return operatingPoint ??= Simulate.OperatingPoint(chain.Circuit);
     }
 
     public AcResult Ac()
     {
-        var chain = Chain(BandEnd.Top);
+        var chain = RawChain(BandEnd.Top);
         return ac ??= Simulate.AcSweep(chain.Circuit, AcSweepPlan(chain));
     }
 

@@ -14,6 +14,7 @@ namespace DesignRules.Rules.Evaluation;
 internal sealed class DesignEvaluation
 {
     private readonly List<Finding> findings = [];
+    private readonly HashSet<(string, string, string)> judged = [];
     private readonly Dictionary<string, List<Figure>> figures = new(StringComparer.Ordinal);
     private readonly Dictionary<string, SampleDistribution> distributions = new(StringComparer.Ordinal);
     private readonly List<YieldEstimate> yields = [];
@@ -58,6 +59,21 @@ internal sealed class DesignEvaluation
             }
         }
     }
+
+    /// <summary>
+    /// Records that <paramref name="ruleId"/> judged a stage's <paramref name="requirement"/> (compared a figure with it),
+    /// whether or not it reported a finding. A requirement no rule judged is "not checked".
+    /// </summary>
+    public void Judged(string stageId, string requirement, string ruleId)
+    {
+        lock (judged)
+        {
+            judged.Add((stageId, requirement, ruleId));
+        }
+    }
+
+    /// <summary>Every (stage, requirement, rule) judgment recorded.</summary>
+    public IReadOnlyCollection<(string Stage, string Requirement, string Rule)> Judgments => judged;
 
     /// <summary>
     /// Records the Monte Carlo samples of a stage's main figure with the requirement's limits, for the histogram of
@@ -157,6 +173,33 @@ internal sealed class DesignEvaluation
     /// <summary>The DR920 message of a failed analysis: the failure in its own words (never the kind's code name) and where to look.</summary>
     public static string FailureMessage(string analysis, string designId, SimulationFailure failure) =>
         RuleCatalogue.Default["DR920"].Render([analysis, designId, failure.ToString(), FailureWording.Advice(failure.Kind)]);
+
+    /// <summary>
+    /// True when the transient at <paramref name="end"/> reached its periodic steady state. Otherwise reports DR925 once
+    /// (at the design: what did not settle is the whole chain's state) and returns false, so that no rule judges an
+    /// unsettled signal.
+    /// </summary>
+    public bool IsSettled(BandEnd end)
+    {
+        var steady = Analyses.Steady(end);
+        if (steady.Settled)
+        {
+            return true;
+        }
+
+        var rule = RuleCatalogue.Default["DR925"];
+        var message = rule.Render([Design.Id.Value, end == BandEnd.Top ? "the top of the band" : "the bottom of the band",
+            steady.Periods.ToString(CultureInfo.InvariantCulture), steady.Node ?? "?", Say.Volts(steady.Drift)]);
+        lock (findings)
+        {
+            if (!findings.Any(f => f.RuleId == "DR925" && f.Message == message))
+            {
+                findings.Add(new Finding("DR925", rule.Title, Severity.Error, message, Design.Id.Span, rule.HelpPage, Design.Id.Value, null, null, []));
+            }
+        }
+
+        return false;
+    }
 
     private static RuleLevel ToLevel(Severity severity) => severity switch
     {

@@ -22,7 +22,8 @@ internal static class PlotCollector
             return [];
         }
 
-        var transient = chain.Period is null ? null : analyses.Transient(BandEnd.Top);
+        // Only settled periods are plotted: an unsettled transient is reported (DR925), not drawn as if it were the signal.
+        var transient = chain.Period is null || !analyses.Steady(BandEnd.Top).Settled ? null : analyses.Transient(BandEnd.Top);
         var ac = analyses.Ac();
         var plots = new List<StagePlots>();
         foreach (var stage in chain.Stages)

@@ -54,24 +54,34 @@ internal sealed class TransientAnalysis
         TransientResult Finish(SimulationFailure? failure) =>
             new(map, table, [.. time], Traces(flags), new TransientStatistics(accepted, rejected, failedSteps, iterations), failure);
 
-        // Initial operating point with the sources at their t = 0 values.
-        context.Time = 0;
+        // Initial state: the operating point with the sources at their start-time values, or the state a caller
+        // carried over from an earlier run of the same circuit (a continuation towards the periodic steady state).
+        double start = options.StartTime;
+        context.Time = start;
         context.UseTimeValues = true;
-        var opFailure = OperatingPointSolver.Solve(solver, "the initial operating point of the transient");
-        if (opFailure is not null) return Finish(opFailure with { Time = 0 });
+        if (options.InitialState is { } initial && initial.Count == size)
+        {
+            for (int i = 0; i < size; i++) context.X[i] = initial[i];
+        }
+        else
+        {
+            var opFailure = OperatingPointSolver.Solve(solver, "the initial operating point of the transient");
+            if (opFailure is not null) return Finish(opFailure with { Time = start });
+        }
+
         EvaluateCharges();
         Array.Copy(context.Charge, q0, states);
         Array.Clear(dq0);
         Array.Copy(context.X, x0, size);
-        Record(table, flags, time, 0);
+        Record(table, flags, time, start);
 
         double stop = options.StopTime;
         double maxStep = options.EffectiveMaxStep;
         double firstStep = options.EffectiveInitialStep;
         double minStep = limits.MinTimeStep;
-        var breakpoints = CollectBreakpoints(stop, Math.Max(minStep * 10, stop * 1e-12));
+        var breakpoints = CollectBreakpoints(start, stop, Math.Max(minStep * 10, stop * 1e-12));
         int nextBreak = 0;
-        double t = 0, t1 = 0, t2 = 0, h = firstStep, hPrevious = firstStep;
+        double t = start, t1 = start, t2 = start, h = firstStep, hPrevious = firstStep;
         int segmentPoints = 1;
         bool secondOrder = false;
         int steps = 0;
@@ -265,7 +275,7 @@ internal sealed class TransientAnalysis
         foreach (var device in circuit.Devices) device.Load(context);
     }
 
-    private List<double> CollectBreakpoints(double stop, double separation)
+    private List<double> CollectBreakpoints(double start, double stop, double separation)
     {
         var all = new List<double>();
         foreach (var device in circuit.Devices)
@@ -276,14 +286,14 @@ internal sealed class TransientAnalysis
                 CurrentSourceDevice c => c.Waveform,
                 _ => null,
             };
-            waveform?.CollectBreakpoints(0, stop, all, limits.MaxBreakpoints);
+            waveform?.CollectBreakpoints(start, stop, all, limits.MaxBreakpoints);
         }
 
         all.Sort();
         var merged = new List<double>(all.Count + 1);
         foreach (double b in all)
         {
-            if (b <= separation || b >= stop - separation) continue;
+            if (b <= start + separation || b >= stop - separation) continue;
             if (merged.Count == 0 || b - merged[^1] > separation) merged.Add(b);
         }
 

@@ -21,7 +21,7 @@ public sealed class TransientResult
         Failure = failure;
     }
 
-    /// <summary>Accepted time points, s (first is 0).</summary>
+    /// <summary>Accepted time points, s (the first is the start time, 0 unless the run continued an earlier one).</summary>
     public IReadOnlyList<double> Time { get; }
 
     /// <summary>The problem that ended the run, or null when it reached the stop time.</summary>
@@ -50,6 +50,20 @@ public sealed class TransientResult
     /// <summary>Reported current of an element at every time point, A.</summary>
     /// <param name="id">Element id.</param>
     public double[] Current(string id) => table is null || map is null ? [] : table.Column(map.CurrentColumn(id));
+
+    /// <summary>
+    /// The full solution vector at a recorded point, to continue the run from there (<see cref="TransientOptions.InitialState"/>);
+    /// empty when nothing was recorded.
+    /// </summary>
+    /// <param name="point">Index into <see cref="Time"/>.</param>
+    public double[] StateAt(int point)
+    {
+        if (table is null || map is null || point < 0 || point >= Time.Count) return [];
+        int size = map.Width - map.AmplifierIds.Count;
+        var state = new double[size];
+        for (int i = 0; i < size; i++) state[i] = table[point, i];
+        return state;
+    }
 
     /// <summary>Flags and values recorded for an amplifier.</summary>
     /// <param name="id">Amplifier id.</param>

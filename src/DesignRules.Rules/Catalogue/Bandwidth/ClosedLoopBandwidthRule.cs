@@ -76,6 +76,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
         {
             var figure = new Figure("closed-loop bandwidth", bw, "Hz");
             evaluation.Record(stageId, required is { } atLeast ? figure.AtLeast(atLeast) : figure);
+            evaluation.Judged(stageId, "bandwidth", Id);
         }
 
         double reference = Reference(sweep, response, top);

@@ -57,6 +57,7 @@ internal sealed class RectifierLoopGainRule : Rule
         double signal = (minSignal ?? inputLevel) * gain;
         double relative = signal > 0 ? outputError / signal : double.PositiveInfinity;
         evaluation.Record(stageId, $"loop gain at the band top {amp.Slot}", loopGain, "1");
+        evaluation.Judged(stageId, "min-signal", Id);
         double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
         evaluation.Record(stageId, new Figure("rectifier error at the band top", relative, "%").AtMost(accuracy));
         if (relative <= accuracy)

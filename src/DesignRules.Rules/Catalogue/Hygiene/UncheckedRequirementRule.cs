@@ -7,11 +7,6 @@ namespace DesignRules.Rules.Catalogue.Hygiene;
 /// <summary>DR702: a requirement that no rule can check, so that nobody relies on a check that never runs.</summary>
 internal sealed class UncheckedRequirementRule : Rule
 {
-    private static readonly HashSet<string> Rectifiers = new(StringComparer.Ordinal)
-    {
-        "half-wave-inverting", "half-wave-follower", "absolute-value",
-    };
-
     public override string Id => "DR702";
 
     public override void Evaluate(DesignEvaluation evaluation)
@@ -21,7 +16,8 @@ internal sealed class UncheckedRequirementRule : Rule
         {
             var r = stage.Requirements;
             var target = $"stage `{stage.Id.Value}`";
-            var rectifying = stage is BlockStage b ? Rectifiers.Contains(b.Block.Name) : stage is NetlistStage n && n.Elements.Any(e => e.Kind == ElementKind.Diode);
+            var probe = evaluation.Analyses.Chain(Elaboration.BandEnd.Top) is { Succeeded: true } built ? built.Stage(stage.Id.Value) : null;
+            var rectifying = probe is not null && StageProperties.IsRectifying(probe);
             if (r.Glitch is not null && !rectifying)
             {
                 Report(evaluation, stage.Id.Value, r.Glitch.Span, "glitch", target, "only rectifying stages have zero-crossing glitches");
@@ -45,10 +41,6 @@ internal sealed class UncheckedRequirementRule : Rule
                     "common-mode rejection is measured on a difference stage that is the first stage, fed from a source with a `common-mode` level");
             }
 
-            if (r.Transfer is { Value: TransferKind.Average } && r.Accuracy is not null)
-            {
-                Report(evaluation, stage.Id.Value, r.Accuracy.Span, "accuracy", target, "the accuracy of an average transfer is not yet computed");
-            }
         }
 
         // DR501 checks a chain-level bandwidth when every stage is a linear gain stage; nothing else checks the chain.

@@ -54,6 +54,7 @@ internal sealed class ZeroCrossingGlitchRule : Rule
         {
             var g = worst[stageId];
             evaluation.Record(stageId, new Figure("zero-crossing glitch", g.Measured.Width, "s").AtMost(g.Limit));
+            evaluation.Judged(stageId, "glitch", Id);
             if (g.Ratio <= 1)
             {
                 continue;

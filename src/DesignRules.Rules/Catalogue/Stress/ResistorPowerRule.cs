@@ -15,41 +15,10 @@ internal sealed class ResistorPowerRule : Rule
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var analyses = evaluation.Analyses;
-        var chain = analyses.Chain(Elaboration.BandEnd.Top);
-        if (!chain.Succeeded)
+        var chain = evaluation.Analyses.Chain(Elaboration.BandEnd.Top);
+        if (!chain.Succeeded || Powers(evaluation) is not { } power)
         {
             return;
-        }
-
-        var power = new Dictionary<string, double>(StringComparer.Ordinal);
-        void Keep(string id, double p) => power[id] = Math.Max(power.GetValueOrDefault(id), p);
-        if (analyses.IsPeriodic)
-        {
-            foreach (var (_, run, result) in TransientRuns.Of(evaluation))
-            {
-                var (start, end) = TransientRuns.Window(run, result);
-                foreach (var r in run.Stages.SelectMany(s => s.Components).Where(c => c.Kind == ElementKind.Resistor))
-                {
-                    var a = Voltages(result, r.NodeA);
-                    var b = Voltages(result, r.NodeB);
-                    Keep(r.ElementId, TransientRuns.Average(result.Time, i => Square(a[i] - b[i]) / r.Value, start, end));
-                }
-            }
-        }
-        else
-        {
-            var op = analyses.OperatingPoint();
-            if (!op.Succeeded)
-            {
-                evaluation.ReportFailure("operating point", op.Failure!, chain);
-                return;
-            }
-
-            foreach (var r in chain.Stages.SelectMany(s => s.Components).Where(c => c.Kind == ElementKind.Resistor))
-            {
-                Keep(r.ElementId, Square(op.Voltage(r.NodeA) - op.Voltage(r.NodeB)) / r.Value);
-            }
         }
 
         foreach (var stage in chain.Stages)
@@ -85,6 +54,57 @@ internal sealed class ResistorPowerRule : Rule
             }
         }
     }
+
+    /// <summary>
+    /// The power of every resistor by element id, the larger of the band ends (or at the DC operating point for a DC
+    /// source), computed once per design and shared with DR605; null when the chain cannot be analysed.
+    /// </summary>
+    public static IReadOnlyDictionary<string, double>? Powers(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("stress:resistor-power", () => new PowerTable(Compute(evaluation))).Power;
+
+    private static Dictionary<string, double>? Compute(DesignEvaluation evaluation)
+    {
+        var analyses = evaluation.Analyses;
+        var chain = analyses.Chain(Elaboration.BandEnd.Top);
+        if (!chain.Succeeded)
+        {
+            return null;
+        }
+
+        var power = new Dictionary<string, double>(StringComparer.Ordinal);
+        void Keep(string id, double p) => power[id] = Math.Max(power.GetValueOrDefault(id), p);
+        if (analyses.IsPeriodic)
+        {
+            foreach (var (_, run, result) in TransientRuns.Of(evaluation))
+            {
+                var (start, end) = TransientRuns.Window(run, result);
+                foreach (var r in run.Stages.SelectMany(s => s.Components).Where(c => c.Kind == ElementKind.Resistor))
+                {
+                    var a = Voltages(result, r.NodeA);
+                    var b = Voltages(result, r.NodeB);
+                    Keep(r.ElementId, TransientRuns.Average(result.Time, i => Square(a[i] - b[i]) / r.Value, start, end));
+                }
+            }
+        }
+        else
+        {
+            var op = analyses.OperatingPoint();
+            if (!op.Succeeded)
+            {
+                evaluation.ReportFailure("operating point", op.Failure!, chain);
+                return null;
+            }
+
+            foreach (var r in chain.Stages.SelectMany(s => s.Components).Where(c => c.Kind == ElementKind.Resistor))
+            {
+                Keep(r.ElementId, Square(op.Voltage(r.NodeA) - op.Voltage(r.NodeB)) / r.Value);
+            }
+        }
+
+        return power;
+    }
+
+    private sealed record PowerTable(Dictionary<string, double>? Power);
 
     private static double Square(double v) => v * v;
 

@@ -36,6 +36,7 @@ internal sealed class CommonModeRejectionRule : Rule
             }
 
             evaluation.Record(id, new Figure("common-mode output error", error, "V").AtMost(limit));
+            evaluation.Judged(id, "cmrr", Id);
             bool rejectsTooLittle = required is { } r && cmrr < r.Value.Value;
             if (!(error > limit) && !rejectsTooLittle)
             {

@@ -23,6 +23,7 @@ internal sealed class MonteCarloYieldRule : Rule
             }
 
             var estimate = judgement.Estimate;
+            evaluation.Judged(id, "yield", Id);
             if (estimate.Verdict != YieldVerdict.Failed)
             {
                 continue;

@@ -19,6 +19,7 @@ internal sealed class OutputOffsetRule : Rule
             if (double.IsNaN(offset)) continue;
             var figure = new Figure("worst-case output offset", offset, "V");
             evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
+            evaluation.Judged(id, "output-offset", Id);
             if (stage.Stage.Requirements.OutputOffset is not { } required || offset <= required.Value.Value)
             {
                 continue;

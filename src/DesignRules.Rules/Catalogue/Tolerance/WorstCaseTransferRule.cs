@@ -24,6 +24,13 @@ internal sealed class WorstCaseTransferRule : Rule
             // An average is judged over time (ripple, settling), which this DC analysis does not see: no limit for it here.
             var transferError = new Figure("worst-case transfer error", error, "%");
             evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed && analysis.Target.Kind != TransferKind.Average ? transferError.AtMost(allowed) : transferError);
+            if (analysis.Target.Kind != TransferKind.Average)
+            {
+                evaluation.Judged(id, "accuracy", Id);
+                evaluation.Judged(id, "transfer", Id);
+                evaluation.Judged(id, "gain", Id);
+            }
+
             if (analysis.Target.IsLinear && double.IsFinite(analysis.Gain.Low))
             {
                 evaluation.Record(id, "nominal gain", analysis.Nominal.Gain, "1");

@@ -21,8 +21,7 @@ internal static class StageFacts
         stage.Requirements.Accuracy?.Value.Value ?? evaluation.Threshold(ruleId, "default-accuracy", stage.Id.Value);
 
     /// <summary>True for stages that rectify (a precision rectifier: its transfer passes one or both half-cycles).</summary>
-    public static bool IsRectifier(StageProbe probe) =>
-        probe.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
+    public static bool IsRectifier(StageProbe probe) => StageProperties.IsRectifying(probe);
 }
 
 /// <summary>Frequencies and amplitude of the design's source, read from the model.</summary>
@@ -62,6 +61,11 @@ internal static class TransientRuns
             if (!result.Succeeded)
             {
                 evaluation.ReportFailure("transient", result.Failure!, chain);
+                continue;
+            }
+
+            if (!evaluation.IsSettled(end))
+            {
                 continue;
             }
 

@@ -49,6 +49,11 @@ internal static class AmplifierWaveforms
             return null;
         }
 
+        if (!evaluation.IsSettled(end))
+        {
+            return null;
+        }
+
         if (transient.Time.Count < 2)
         {
             return null;

@@ -33,8 +33,7 @@ internal static class ZeroCrossingGlitch
     private const int FewestLinearPoints = 20;
 
     /// <summary>True for a stage that rectifies: diodes, and an absolute-value or half-wave transfer.</summary>
-    public static bool IsRectifying(StageProbe stage) =>
-        stage.Diodes.Count > 0 && stage.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
+    public static bool IsRectifying(StageProbe stage) => StageProperties.IsRectifying(stage);
 
     /// <summary>The glitch, or null when the stage does not rectify or the signal is too small to measure.</summary>
     /// <param name="band">The band end's waveforms.</param>

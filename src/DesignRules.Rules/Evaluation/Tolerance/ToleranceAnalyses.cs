@@ -63,6 +63,11 @@ internal static class ToleranceAnalyses
                 continue;
             }
 
+            if (!evaluation.IsSettled(end))
+            {
+                continue;
+            }
+
             var time = result.Time;
             var input = result.Voltage(probe.InputNode);
             var output = result.Voltage(probe.OutputNode);
