@@ -48,14 +48,14 @@ internal static class NoiseGain
         var grounded = new HashSet<string>(StringComparer.Ordinal) { stage.InputNode, stage.ReferenceInputNode, "vpos", "vneg" };
         foreach (var other in stage.Amplifiers.Where(a => a.ElementId != amplifier.ElementId)) grounded.Add(other.OutputNode);
         grounded.Remove(amplifier.OutputNode);
-        string Map(string node) => Circuit.IsReference(node) || grounded.Contains(node) ? "0" : node;
+        string Map(string node) => Circuit.IsReference(node) || grounded.Contains(node) ? Circuit.Ground : node;
 
         var circuit = new Circuit();
         var nodes = new HashSet<string>(StringComparer.Ordinal);
         void Track(string a, string b)
         {
-            if (a != "0") nodes.Add(a);
-            if (b != "0") nodes.Add(b);
+            if (a != Circuit.Ground) nodes.Add(a);
+            if (b != Circuit.Ground) nodes.Add(b);
         }
 
         foreach (var c in stage.Components)
@@ -81,32 +81,32 @@ internal static class NoiseGain
         }
 
         string output = Map(amplifier.OutputNode), minus = Map(amplifier.InvertingNode), plus = Map(amplifier.NonInvertingNode);
-        if (output == "0")
+        if (output == Circuit.Ground)
         {
             return null;
         }
 
         Track(output, minus);
-        Track(plus, "0");
-        circuit.AddVoltageSource("noise-gain.drive", output, "0", new DcWaveform(0) { AcMagnitude = 1 });
+        Track(plus, Circuit.Ground);
+        circuit.AddVoltageSource("noise-gain.drive", output, Circuit.Ground, new DcWaveform(0));
 
         // A very large resistance from every node to ground gives nodes reached only through capacitors a DC operating
         // point without changing β measurably.
         foreach (var node in nodes.Where(n => n != output).Order(StringComparer.Ordinal))
         {
-            circuit.AddResistor($"noise-gain.leak.{node}", node, "0", 1e12);
+            circuit.AddResistor($"noise-gain.leak.{node}", node, Circuit.Ground, 1e12);
         }
 
         var model = amplifier.Model;
-        var sweep = Simulation.AcSweep.Decades(1, Math.Max(10, model.GainBandwidth * 10), 20);
+        var sweep = Simulation.AcSweep.Decades("noise-gain.drive", 1, Math.Max(10, model.GainBandwidth * 10), 20);
         var ac = Simulate.AcSweep(circuit, sweep);
         if (!ac.Succeeded)
         {
             return null;
         }
 
-        var vMinus = minus == "0" ? null : ac.Voltage(minus);
-        var vPlus = plus == "0" ? null : ac.Voltage(plus);
+        var vMinus = minus == Circuit.Ground ? null : ac.Voltage(minus);
+        var vPlus = plus == Circuit.Ground ? null : ac.Voltage(plus);
         double beta = 0;
         for (int i = 0; i < ac.Frequencies.Count; i++)
         {
