@@ -78,27 +78,14 @@ internal static class CheckCommand
         {
             Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today, WarningsAsErrors,
         };
-        // An option the command does not know is an error, not a path: System.CommandLine gives every token that is not
-        // an option to the paths argument. A path that starts with '-' can be written ./-name.
-        Paths.Validators.Add(result =>
-        {
-            foreach (var token in result.Tokens.Where(t => t.Value.Length > 1 && t.Value.StartsWith('-')))
-            {
-                result.AddError($"Unknown option '{token.Value}' for check. Run 'designrules check --help' for the options.");
-            }
-        });
+        PathArgument.RefuseUnknownOptions(Paths, "check");
         command.SetAction(Run);
         return command;
     }
 
     private static int Run(ParseResult result)
     {
-        var given = result.GetValue(Paths) is { Length: > 0 } paths ? paths : ["."];
-        var files = RepositoryFiles.Find(given, out var missing);
-        foreach (var path in missing)
-        {
-            Console.Error.WriteLine($"{path}: error: no such file or folder");
-        }
+        var files = PathArgument.Find(result, Paths, out var given, out var missing);
 
         var root = result.GetValue(Root) ?? (given.Length == 1 && Directory.Exists(given[0]) ? given[0] : ".");
         var ruleSet = result.GetValue(RuleSet);

@@ -19,25 +19,14 @@ internal static class PartsCommand
     public static Command Create()
     {
         var command = new Command("parts", "List the built-in parts and the repository's parts files with their key figures.") { Paths };
-        Paths.Validators.Add(result =>
-        {
-            foreach (var token in result.Tokens.Where(t => t.Value.Length > 1 && t.Value.StartsWith('-')))
-            {
-                result.AddError($"Unknown option '{token.Value}' for parts. Run 'designrules parts --help' for the options.");
-            }
-        });
+        PathArgument.RefuseUnknownOptions(Paths, "parts");
         command.SetAction(Run);
         return command;
     }
 
     private static int Run(ParseResult result)
     {
-        var given = result.GetValue(Paths) is { Length: > 0 } paths ? paths : ["."];
-        var files = RepositoryFiles.Find(given, out var missing);
-        foreach (var path in missing)
-        {
-            Console.Error.WriteLine($"{path}: error: no such file or folder");
-        }
+        var files = PathArgument.Find(result, Paths, out var given, out var missing);
 
         if (missing.Count > 0)
         {
