@@ -1,16 +1,16 @@
 using System.Globalization;
-using System.Reflection;
 using DesignRules.Diagnostics;
 using DesignRules.Pages;
 using DesignRules.Reports;
 using DesignRules.Rules;
+using DesignRules.Run;
 using Microsoft.Build.Framework;
 using Microsoft.Build.Utilities;
 
 namespace DesignRules.Build;
 
 /// <summary>
-/// The MSBuild task: checks the design and parts files of a hardware repository through <see cref="DesignCheck"/>
+/// The MSBuild task: checks the design and parts files of a hardware repository through the run layer (<see cref="DesignRun"/>)
 /// and logs every finding as an error, warning or message with its code, file, line, column, end position and help link.
 /// MSBuild applies <c>-warnaserror</c>, <c>WarningsAsErrors</c> and <c>NoWarn</c> to the DR codes itself; this task
 /// applies <c>TreatWarningsAsErrors</c> (which MSBuild leaves to compilers), honouring <c>WarningsNotAsErrors</c> and
@@ -19,7 +19,7 @@ namespace DesignRules.Build;
 public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 {
     /// <summary>The code of the one error an internal failure of the tool becomes.</summary>
-    public const string InternalErrorCode = "DR990";
+    public const string InternalErrorCode = RunText.FaultId;
 
     /// <summary>Design and parts files (any order; duplicates are dropped).</summary>
     public ITaskItem[] Files { get; set; } = [];
@@ -110,9 +110,11 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     [Output]
     public int WarningCount { get; private set; }
 
-    /// <summary>The tool's version as reports and the stamp file state it.</summary>
-    internal static string ToolVersion { get; } =
-        typeof(CheckDesigns).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion ?? "0.0.0";
+    /// <summary>
+    /// The per-design results cache (<c>obj/…/designrules/cache</c>): only designs whose files, parts, rule-set sections or
+    /// tool changed are evaluated again, and only their pages rendered again. Empty for none.
+    /// </summary>
+    public string? CacheFolder { get; set; }
 
     /// <inheritdoc />
     public override bool Execute()
@@ -148,7 +150,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         }
         catch (Exception ex) when (ex is not (OutOfMemoryException or StackOverflowException or AccessViolationException))
         {
-            LogInternalError(ex);
+            LogFault(RunText.Fault(ex), ex.ToString());
             DeleteStamp();
             return false;
         }
@@ -156,86 +158,88 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
     private bool Check()
     {
-        var root = Path.GetFullPath(string.IsNullOrWhiteSpace(RepositoryRoot) ? Directory.GetCurrentDirectory() : RepositoryRoot);
-        var levels = LevelOverrides.Parse(Levels, out var problem);
-        if (levels is null)
+        var parse = RunRequest.FromBuild(new BuildInputs(Files.Select(f => f.GetMetadata("FullPath")).ToList())
         {
-            Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0,
-                $"DesignRulesLevels: {problem}.");
+            RepositoryRoot = RepositoryRoot,
+            RuleSetFile = RuleSetFile,
+            SarifFile = SarifFile,
+            JsonFile = JsonFile,
+            PagesFolder = PagesFolder,
+            TemplateFolder = TemplateFolder,
+            HelpUriBase = HelpUriBase,
+            Searched = Searched,
+            ProjectFile = ProjectFile,
+            Today = Today,
+            Levels = Levels,
+            ReportRoot = ReportRoot,
+            Warnings = BuildWarnings(),
+            CacheFolder = CacheFolder,
+        });
+
+        // Properties that cannot be used are the user's mistake: plain errors at the project, before the check runs.
+        foreach (var problem in parse.Problems)
+        {
+            Log.LogError(null, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, problem.ForBuild);
+        }
+
+        if (parse.Request is not { } request)
+        {
             return false;
         }
 
-        // Report and pages paths that cannot be written are the user's mistake: say so plainly, before the check runs.
-        var outputProblems = new[]
+        var outcome = DesignRun.Execute(request, new BuildProgress(Log, request.Root));
+        if (outcome.Fault is not null)
         {
-            string.IsNullOrWhiteSpace(SarifFile) ? null : OutputPaths.FileProblem("DesignRulesSarifFile", SarifFile),
-            string.IsNullOrWhiteSpace(JsonFile) ? null : OutputPaths.FileProblem("DesignRulesJsonFile", JsonFile),
-            string.IsNullOrWhiteSpace(PagesFolder) ? null : OutputPaths.FolderProblem("DesignRulesPagesFolder", PagesFolder),
-        }.OfType<string>().ToList();
-        foreach (var outputProblem in outputProblems)
-        {
-            Log.LogError(null, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, outputProblem);
-        }
-
-        if (outputProblems.Count > 0)
-        {
+            LogFault(outcome.Fault, outcome.FaultDetail);
             return false;
         }
 
-        var files = Files.Select(f => f.GetMetadata("FullPath")).Where(f => f.Length > 0).Distinct(StringComparer.Ordinal).ToList();
-        var ruleSet = string.IsNullOrWhiteSpace(RuleSetFile) ? null : Path.GetFullPath(RuleSetFile);
-        var searched = string.IsNullOrWhiteSpace(Searched) ? "the DesignRulesDesign items (empty)" : Searched.Trim();
-        var search = new DesignSearch(string.IsNullOrWhiteSpace(ProjectFile) ? root : Path.GetFullPath(ProjectFile), searched);
-        var report = levels.Apply(DesignCheck.Run(files, new CheckOptions(ruleSet, ParseToday()) { Search = search }, LogDesign));
-        WriteLoadedFiles(report.LoadedFiles);
-        var reportRoot = string.IsNullOrWhiteSpace(ReportRoot) ? RepositoryPaths.FindRepositoryRoot(root) : Path.GetFullPath(ReportRoot);
-        var settings = new ReportSettings(reportRoot, string.IsNullOrWhiteSpace(HelpUriBase) ? null : HelpUriBase, ToolVersion);
-        var asTheBuildShowsIt = BuildWarnings().Apply(report);
-        if (!string.IsNullOrWhiteSpace(SarifFile))
+        WriteLoadedFiles(outcome.Report.LoadedFiles);
+        foreach (var problem in outcome.Problems)
         {
-            SarifReport.WriteFile(asTheBuildShowsIt, settings, SarifFile);
+            Log.LogError(null, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, problem.ForBuild);
         }
 
-        if (!string.IsNullOrWhiteSpace(JsonFile))
+        if (outcome.Pages is { } pages)
         {
-            JsonReport.WriteFile(asTheBuildShowsIt, settings, JsonFile);
-        }
-
-        if (!string.IsNullOrWhiteSpace(PagesFolder))
-        {
-            var pages = DatasheetPages.Write(report, new PageOptions(Path.GetFullPath(PagesFolder),
-                string.IsNullOrWhiteSpace(TemplateFolder) ? null : Path.GetFullPath(TemplateFolder), root)
-            {
-                HelpUriBase = string.IsNullOrWhiteSpace(HelpUriBase) ? null : HelpUriBase,
-            });
             foreach (var template in pages.Diagnostics)
             {
                 var span = template.Span;
                 Log.LogError(null, template.Id, null, HelpFor(template.Id), span.File, span.Line, span.Column, EndLine(span), EndColumn(span), template.Message);
             }
+        }
 
-            Log.LogMessage(MessageImportance.Normal, string.Create(CultureInfo.InvariantCulture,
-                $"DesignRules: {pages.Written.Count} page and plot file(s) written to {PagesFolder}, {pages.Removed.Count} stale file(s) removed."));
+        if (outcome.PagesLine is { } pagesLine)
+        {
+            Log.LogMessage(MessageImportance.Normal, "DesignRules: " + pagesLine);
         }
 
         var noWarn = new CodeList(NoWarn);
         var notAsErrors = new CodeList(WarningsNotAsErrors);
-        foreach (var finding in report.Findings)
+        foreach (var finding in outcome.Report.Findings)
         {
             LogFinding(finding, noWarn, notAsErrors);
         }
 
-        var summary = string.Create(CultureInfo.InvariantCulture,
-            $"{report.DesignCount} design(s) in {report.FileCount} file(s) checked: {ErrorCount} error(s), {WarningCount} warning(s), {report.Findings.Count(f => f.IsWaived)} waived.");
-        Log.LogMessage(MessageImportance.High, "DesignRules: " + summary);
+        Log.LogMessage(MessageImportance.High, "DesignRules: " + outcome.Summary);
         if (Log.HasLoggedErrors)
         {
             return false;
         }
 
         // A check without errors is stamped together with what it showed, so that a skipped build replays its warnings.
-        WriteStamp(summary, report.Findings);
+        WriteStamp(outcome.Summary, outcome.Report.Findings);
         return true;
+    }
+
+    /// <summary>Progress as build messages: one per design at normal verbosity, and a long run's "still checking" at every verbosity.</summary>
+    private sealed class BuildProgress(TaskLoggingHelper log, string root) : IRunProgress
+    {
+        public void DesignChecked(DesignProgress progress) =>
+            log.LogMessage(MessageImportance.Normal, "DesignRules: " + RunText.Progress(progress, root));
+
+        public void StillRunning(int completed, int total, TimeSpan elapsed) =>
+            log.LogMessage(MessageImportance.High, "DesignRules: " + RunText.StillRunning(completed, total, elapsed));
     }
 
     private bool ReplayLastCheck()
@@ -297,12 +301,13 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         }
     }
 
-    private void LogInternalError(Exception ex)
+    private void LogFault(string sentence, string? detail)
     {
-        var detail = ex is AggregateException { InnerExceptions.Count: 1 } single ? single.InnerExceptions[0] : ex;
-        Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0,
-            $"DesignRules could not finish the check ({detail.GetType().Name}: {detail.Message}). This is a fault of the tool, not of the designs; please report it with the files that cause it.");
-        Log.LogMessage(MessageImportance.Low, detail.ToString());
+        Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, sentence);
+        if (detail is not null)
+        {
+            Log.LogMessage(MessageImportance.Low, detail);
+        }
     }
 
     /// <summary>
@@ -326,15 +331,6 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     private int EndLine(DesignRules.Diagnostics.SourceSpan span) => EndPositions ? span.EndLine : 0;
 
     private int EndColumn(DesignRules.Diagnostics.SourceSpan span) => EndPositions ? span.EndColumn : 0;
-
-    /// <summary>One line per design as it finishes, at normal verbosity: a long check shows its progress.</summary>
-    private void LogDesign(DesignProgress progress) =>
-        Log.LogMessage(MessageImportance.Normal, string.Create(CultureInfo.InvariantCulture,
-            $"DesignRules: {progress.File}: design '{progress.DesignId}' checked: {progress.Errors} error(s), {progress.Warnings} warning(s) in {progress.Elapsed.TotalSeconds:0.00} s."));
-
-    private DateOnly ParseToday() =>
-        string.IsNullOrWhiteSpace(Today) ? DateOnly.FromDateTime(DateTime.Today)
-        : DateOnly.ParseExact(Today.Trim(), "yyyy-MM-dd", CultureInfo.InvariantCulture);
 
     private void DeleteStamp()
     {

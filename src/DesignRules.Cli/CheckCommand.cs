@@ -1,10 +1,6 @@
 using System.CommandLine;
-using System.Globalization;
-using System.Reflection;
-using DesignRules.Loading;
-using DesignRules.Pages;
-using DesignRules.Reports;
 using DesignRules.Rules;
+using DesignRules.Run;
 
 namespace DesignRules.Cli;
 
@@ -32,7 +28,7 @@ internal static class CheckCommand
     // '--rules' is the option's earlier name, accepted for one release with a note.
     private static readonly Option<string?> RuleSet = new("--rule-set", "--rules")
     {
-        Description = $"The rule-set file (default: {RuleSetLoader.DefaultFileName} in the repository root, if present); '--rules' is its earlier name, kept for one release.",
+        Description = $"The rule-set file (default: {RepositoryConventions.RuleSetFileName} in the repository root, if present); '--rules' is its earlier name, kept for one release.",
         HelpName = "FILE",
     };
 
@@ -72,11 +68,17 @@ internal static class CheckCommand
         HelpName = "DATE",
     };
 
+    private static readonly Option<string?> Cache = new("--cache")
+    {
+        Description = "Keep each design's result in DIR and re-evaluate only designs whose files, parts, rule-set sections or tool changed (opt-in).",
+        HelpName = "DIR",
+    };
+
     public static Command Create()
     {
         var command = new Command("check", "Check every design and report problems as file(line,col): severity DRnnn: message.")
         {
-            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today, WarningsAsErrors,
+            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today, WarningsAsErrors, Cache,
         };
         PathArgument.RefuseUnknownOptions(Paths, "check");
         command.SetAction(Run);
@@ -85,147 +87,92 @@ internal static class CheckCommand
 
     private static int Run(ParseResult result)
     {
-        var files = PathArgument.Find(result, Paths, out var given, out var missing);
-
-        var root = result.GetValue(Root) ?? (given.Length == 1 && Directory.Exists(given[0]) ? given[0] : ".");
-        var ruleSet = result.GetValue(RuleSet);
         if (result.GetResult(RuleSet)?.IdentifierToken?.Value == "--rules")
         {
             Console.Error.WriteLine(RenamedRulesNote);
         }
 
-        if (ruleSet is not null && !File.Exists(ruleSet))
+        var parse = RunRequest.FromCommandLine(new CommandLineInputs(result.GetValue(Paths) ?? [])
         {
-            Console.Error.WriteLine($"{ruleSet}: error: no such rule-set file");
-            return ExitCodes.Unusable;
+            Sarif = result.GetValue(Sarif),
+            Json = result.GetValue(Json),
+            Pages = result.GetValue(PagesFolder),
+            Templates = result.GetValue(Templates),
+            RuleSet = result.GetValue(RuleSet),
+            Root = result.GetValue(Root),
+            HelpUriBase = result.GetValue(HelpBase),
+            Levels = result.GetValue(Levels),
+            Today = result.GetValue(Today),
+            WarningsAsErrors = result.GetValue(WarningsAsErrors),
+            Cache = result.GetValue(Cache),
+        });
+        foreach (var problem in parse.Problems)
+        {
+            Console.Error.WriteLine(problem.ToString());
         }
 
-        ruleSet ??= File.Exists(Path.Combine(root, RuleSetLoader.DefaultFileName)) ? Path.Combine(root, RuleSetLoader.DefaultFileName) : null;
-        var levels = LevelOverrides.Parse(result.GetValue(Levels), out var problem);
-        if (levels is null)
-        {
-            Console.Error.WriteLine($"--levels: error: {problem}");
-            return ExitCodes.Unusable;
-        }
-
-        if (!TryToday(result.GetValue(Today), out var today))
-        {
-            Console.Error.WriteLine("--today: error: write the date as yyyy-MM-dd, e.g. 2027-06-30");
-            return ExitCodes.Unusable;
-        }
-
-        if (missing.Count > 0 || !Directory.Exists(root))
-        {
-            if (!Directory.Exists(root))
-            {
-                Console.Error.WriteLine($"{root}: error: no such folder");
-            }
-
-            return ExitCodes.Unusable;
-        }
-
-        // Report and pages paths that cannot be written are the user's mistake: say so now, before the check runs.
-        var outputProblems = new[]
-        {
-            result.GetValue(Sarif) is { } s && s != "-" ? OutputPaths.FileProblem("--sarif", s) : null,
-            result.GetValue(Json) is { } j && j != "-" ? OutputPaths.FileProblem("--json", j) : null,
-            result.GetValue(PagesFolder) is { } p ? OutputPaths.FolderProblem("--pages", p) : null,
-        }.OfType<string>().ToList();
-        foreach (var outputProblem in outputProblems)
-        {
-            Console.Error.WriteLine("error: " + outputProblem);
-        }
-
-        if (outputProblems.Count > 0)
+        if (parse.Request is not { } request)
         {
             return ExitCodes.Unusable;
         }
 
-        var sarif = result.GetValue(Sarif);
-        var json = result.GetValue(Json);
-        if (sarif == StandardOutput && json == StandardOutput)
+        // Progress on standard error, one line per design as it finishes (and a line now and then while a long run goes
+        // on), so a long check is never silent and standard output stays the findings (or the report '-' sends there).
+        var outcome = DesignRun.Execute(request, new ConsoleProgress(request.Root));
+        if (outcome.Fault is not null)
         {
-            Console.Error.WriteLine("--sarif, --json: error: only one report can go to standard output ('-'); give the other a file name");
+            Console.Error.WriteLine($"error {RunText.FaultId}: {outcome.Fault}");
             return ExitCodes.Unusable;
         }
 
-        // Progress on standard error, one line per design as it finishes, so a long check is never silent and standard
-        // output stays the findings (or the report that '-' sends there).
-        var displayRoot = Path.GetFullPath(root);
-        var search = new DesignSearch(Path.GetFullPath(given[0]), string.Join("; ", given.Select(RepositoryFiles.Searched)));
-        var check = DesignCheck.Run(files, new CheckOptions(ruleSet, today) { Search = search }, progress => Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
-            $"checked {RepositoryPaths.Display(displayRoot, progress.File)} ({progress.DesignId}): {progress.Errors} error(s), {progress.Warnings} warning(s), {progress.Elapsed.TotalSeconds:0.00} s")));
-        var warnings = result.GetValue(WarningsAsErrors) ? WarningLevels.None with { AllAsErrors = true } : WarningLevels.None;
-        var report = warnings.Apply(levels.Apply(check));
-        var helpBase = result.GetValue(HelpBase);
-        var reportRoot = result.GetValue(Root) is { } explicitRoot ? Path.GetFullPath(explicitRoot) : RepositoryPaths.FindRepositoryRoot(root);
-        var settings = new ReportSettings(reportRoot, helpBase, ToolVersion);
-        try
+        foreach (var problem in outcome.Problems)
         {
-            if (sarif is not null)
-            {
-                if (sarif == StandardOutput)
-                {
-                    WriteToStandardOutput(SarifReport.ToBytes(report, settings));
-                }
-                else
-                {
-                    SarifReport.WriteFile(report, settings, sarif);
-                }
-            }
-
-            if (json is not null)
-            {
-                if (json == StandardOutput)
-                {
-                    WriteToStandardOutput(JsonReport.ToBytes(report, settings));
-                }
-                else
-                {
-                    JsonReport.WriteFile(report, settings, json);
-                }
-            }
+            Console.Error.WriteLine(problem.ToString());
         }
-        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+
+        if (outcome.Problems.Count > 0)
         {
-            Console.Error.WriteLine($"error: a report file cannot be written ({DesignRules.Diagnostics.DiagnosticText.Escape(ex.Message.TrimEnd('.'))}).");
             return ExitCodes.Unusable;
         }
 
-        var toStandardOutput = sarif == StandardOutput || json == StandardOutput;
-        HumanReport.Write(report, toStandardOutput ? new Terminal(Console.Error, colour: false) : Terminal.ForStandardOutput());
+        if (outcome.StandardOutput is { } bytes)
+        {
+            WriteToStandardOutput(bytes);
+        }
+
+        var toStandardOutput = outcome.StandardOutput is not null;
+        HumanReport.Write(outcome.Shown, outcome.Summary, toStandardOutput ? new Terminal(Console.Error, colour: false) : Terminal.ForStandardOutput());
         var templateErrors = 0;
-        if (result.GetValue(PagesFolder) is { } pagesFolder)
+        if (outcome.Pages is { } pages)
         {
-            var templates = result.GetValue(Templates);
-            if (templates is not null && !Directory.Exists(templates))
-            {
-                Console.Error.WriteLine($"{templates}: error: no such template folder");
-                return ExitCodes.Unusable;
-            }
-
-            var pages = DatasheetPages.Write(report, new PageOptions(pagesFolder, templates, root) { HelpUriBase = helpBase });
             foreach (var diagnostic in pages.Diagnostics)
             {
                 Console.Error.WriteLine(diagnostic.ToString());
             }
 
             templateErrors = pages.Diagnostics.Count;
-            if (pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
+            if (outcome.PagesRefused)
             {
                 // A pages folder the tool will not write into is an unusable option, like a missing path.
                 return ExitCodes.Unusable;
             }
 
-            (toStandardOutput ? Console.Error : Console.Out).WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{pages.Written.Count} page and plot file(s) written to {pagesFolder}, {pages.Removed.Count} stale file(s) removed."));
+            if (outcome.PagesLine is { } line)
+            {
+                (toStandardOutput ? Console.Error : Console.Out).WriteLine(line);
+            }
         }
 
-        return report.ErrorCount > 0 || templateErrors > 0 ? ExitCodes.Errors : ExitCodes.Clean;
+        return outcome.ErrorCount > 0 || templateErrors > 0 ? ExitCodes.Errors : ExitCodes.Clean;
     }
 
-    /// <summary>The file name that means standard output.</summary>
-    private const string StandardOutput = "-";
+    /// <summary>Progress lines on standard error.</summary>
+    private sealed class ConsoleProgress(string root) : IRunProgress
+    {
+        public void DesignChecked(DesignProgress progress) => Console.Error.WriteLine(RunText.Progress(progress, root));
+
+        public void StillRunning(int completed, int total, TimeSpan elapsed) => Console.Error.WriteLine(RunText.StillRunning(completed, total, elapsed));
+    }
 
     private static void WriteToStandardOutput(byte[] bytes)
     {
@@ -233,18 +180,4 @@ internal static class CheckCommand
         stdout.Write(bytes);
         stdout.Flush();
     }
-
-    private static bool TryToday(string? text, out DateOnly today)
-    {
-        if (text is null)
-        {
-            today = DateOnly.FromDateTime(DateTime.Today);
-            return true;
-        }
-
-        return DateOnly.TryParseExact(text, "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out today);
-    }
-
-    private static string ToolVersion =>
-        typeof(CheckCommand).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion ?? "0.0.0";
 }

@@ -1,4 +1,3 @@
-using System.Globalization;
 using DesignRules.Diagnostics;
 using DesignRules.Rules;
 
@@ -7,7 +6,7 @@ namespace DesignRules.Cli;
 /// <summary>Findings for people: one compiler-style line each, then a summary.</summary>
 internal static class HumanReport
 {
-    public static void Write(CheckReport report, Terminal terminal)
+    public static void Write(CheckReport report, string summary, Terminal terminal)
     {
         foreach (var f in report.Findings)
         {
@@ -23,8 +22,6 @@ internal static class HumanReport
             terminal.Output.WriteLine(f.IsWaived ? $"{line} {terminal.Dim($"(reason: {f.Waiver})")}" : line);
         }
 
-        var waived = report.Findings.Count(f => f.IsWaived);
-        terminal.Output.WriteLine(string.Create(CultureInfo.InvariantCulture,
-            $"{report.DesignCount} design(s) checked in {report.FileCount} file(s): {report.ErrorCount} error(s), {report.WarningCount} warning(s), {waived} waived."));
+        terminal.Output.WriteLine(summary);
     }
 }

@@ -31,6 +31,6 @@ try
 }
 catch (Exception ex) when (ex is not OutOfMemoryException)
 {
-    Console.Error.WriteLine($"error DR990: DesignRules could not finish ({ex.GetType().Name}: {ex.Message}). This is a fault of the tool, not of the designs; please report it.");
+    Console.Error.WriteLine($"error {DesignRules.Run.RunText.FaultId}: {DesignRules.Run.RunText.Fault(ex)}");
     return ExitCodes.Unusable;
 }

@@ -43,6 +43,26 @@ public static class DatasheetPages
             var name = OutputFolder.SafeName(summary.Design.Id.Value);
             var page = $"{name}.md";
             string? PlotPath(string stage, string kind) => $"plots/{name}/{OutputFolder.SafeName(stage)}-{kind}.svg";
+            var files = new List<string> { page };
+            foreach (var plots in summary.Plots)
+            {
+                var stage = OutputFolder.SafeName(plots.StageId);
+                files.AddRange(new (object? Data, string Kind)[] { (plots.Transient, "transient"), (plots.Bode, "response"), (plots.Distribution, "monte-carlo") }
+                    .Where(p => p.Data is not null).Select(p => $"plots/{name}/{stage}-{p.Kind}.svg"));
+            }
+
+            // A design whose page depends on nothing that changed keeps its page and plots as they are: no rendering.
+            if (options.Reuse?.CanKeep(summary.Design.Id.Value, files, output) == true)
+            {
+                foreach (var file in files)
+                {
+                    output.Keep(file);
+                }
+
+                pages.Add((summary, page));
+                continue;
+            }
+
             var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath, id => HelpLink(id, options));
             var text = Render(templates, "design", "design", model, diagnostics);
             if (text is null)
@@ -50,26 +70,32 @@ public static class DatasheetPages
                 continue;
             }
 
+            var contents = new Dictionary<string, string>(StringComparer.Ordinal) { [page] = text };
             foreach (var plots in summary.Plots)
             {
                 var stage = OutputFolder.SafeName(plots.StageId);
                 if (plots.Transient is not null)
                 {
-                    output.Write($"plots/{name}/{stage}-transient.svg", PlotRenderer.Transient(plots.StageId, plots.Transient));
+                    contents[$"plots/{name}/{stage}-transient.svg"] = PlotRenderer.Transient(plots.StageId, plots.Transient);
                 }
 
                 if (plots.Bode is not null)
                 {
-                    output.Write($"plots/{name}/{stage}-response.svg", PlotRenderer.Response(plots.StageId, plots.Bode));
+                    contents[$"plots/{name}/{stage}-response.svg"] = PlotRenderer.Response(plots.StageId, plots.Bode);
                 }
 
                 if (plots.Distribution is not null)
                 {
-                    output.Write($"plots/{name}/{stage}-monte-carlo.svg", PlotRenderer.Histogram(plots.StageId, plots.Distribution));
+                    contents[$"plots/{name}/{stage}-monte-carlo.svg"] = PlotRenderer.Histogram(plots.StageId, plots.Distribution);
                 }
             }
 
-            output.Write(page, text);
+            foreach (var (file, content) in contents)
+            {
+                output.Write(file, content);
+            }
+
+            options.Reuse?.Record(summary.Design.Id.Value, contents);
             pages.Add((summary, page));
         }
 
@@ -96,10 +122,12 @@ public static class DatasheetPages
         try
         {
             var removed = output.Commit(diagnostics);
-            return new PageResult(output.Written.ToList(), removed, diagnostics);
+            options.Reuse?.Save();
+            return new PageResult(output.Written.ToList(), removed, diagnostics) { Kept = output.Kept.ToList() };
         }
         catch (PagesFolderException ex)
         {
+            options.Reuse?.Discard();
             diagnostics.Add(FolderProblem.At(SourceSpan.WholeFile(ex.Path), ex.Message));
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)

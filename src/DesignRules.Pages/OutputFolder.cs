@@ -23,6 +23,8 @@ internal sealed class OutputFolder
     private readonly string root;
     private readonly TimeSpan lockWait;
     private readonly SortedDictionary<string, string> pending = new(StringComparer.Ordinal);
+    private readonly SortedSet<string> kept = new(StringComparer.Ordinal);
+    private HashSet<string>? listedBefore;
 
     public OutputFolder(string folder, TimeSpan? lockWait = null)
     {
@@ -31,7 +33,39 @@ internal sealed class OutputFolder
     }
 
     /// <summary>The files written, relative to the folder, once <see cref="Commit"/> has run.</summary>
-    public IReadOnlyCollection<string> Written => pending.Keys;
+    public IReadOnlyCollection<string> Written => pending.Keys.Concat(kept).Order(StringComparer.Ordinal).ToList();
+
+    /// <summary>The files kept as an earlier run wrote them (see <see cref="Keep"/>).</summary>
+    public IReadOnlyCollection<string> Kept => kept;
+
+    /// <summary>
+    /// Keeps a file an earlier run wrote, unchanged: it stays listed in the manifest and is neither written nor removed.
+    /// Only for a file <see cref="ContentHashOfListedFile"/> has just vouched for.
+    /// </summary>
+    public void Keep(string relative) => kept.Add(relative.Replace('\\', '/'));
+
+    /// <summary>
+    /// The SHA-256 of a file an earlier run wrote (listed in the manifest, a plain file reached through no link); null when
+    /// it is missing, unlisted, a link, or cannot be read.
+    /// </summary>
+    public string? ContentHashOfListedFile(string relative)
+    {
+        try
+        {
+            listedBefore ??= Directory.Exists(root) ? ReadManifest() : [];
+            var full = Inside(relative);
+            if (full is null || !listedBefore.Contains(relative) || LinkOnTheWay(relative) is not null || !File.Exists(full))
+            {
+                return null;
+            }
+
+            return Convert.ToHexString(System.Security.Cryptography.SHA256.HashData(File.ReadAllBytes(full)));
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            return null;
+        }
+    }
 
     /// <summary>Turns an id into a file-name part: lower-case letters, digits and hyphens only.</summary>
     public static string SafeName(string id)
@@ -102,7 +136,9 @@ internal sealed class OutputFolder
         }
 
         var removed = new List<string>();
-        foreach (var relative in listed.Where(l => !pending.ContainsKey(l)))
+        // A kept file that vanished since it was vouched for is not listed again (the next run renders it).
+        kept.RemoveWhere(k => !listed.Contains(k) || LinkOnTheWay(k) is not null || !File.Exists(Inside(k)));
+        foreach (var relative in listed.Where(l => !pending.ContainsKey(l) && !kept.Contains(l)))
         {
             var full = Inside(relative);
             if (full is null || LinkOnTheWay(relative) is not null || !File.Exists(full))
@@ -123,7 +159,7 @@ internal sealed class OutputFolder
 
         Refuse(ManifestName, "write");
         WriteWhole(Path.Combine(root, ManifestName),
-            "# Files written by DesignRules; only these are ever written over or removed by it.\n" + string.Concat(pending.Keys.Select(w => w + "\n")));
+            "# Files written by DesignRules; only these are ever written over or removed by it.\n" + string.Concat(Written.Select(w => w + "\n")));
         return removed;
     }
 

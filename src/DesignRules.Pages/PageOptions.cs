@@ -11,10 +11,17 @@ public sealed record PageOptions(string OutputFolder, string? TemplateFolder = n
     /// that the run writes into the pages folder's <c>rules/</c>, so every link resolves beside the pages.
     /// </summary>
     public string? HelpUriBase { get; init; }
+
+    /// <summary>Keys that let unchanged designs keep their pages and plots instead of rendering them again; null renders every page.</summary>
+    public PageReuse? Reuse { get; init; }
 }
 
 /// <summary>What a page run did.</summary>
-/// <param name="Written">Files written, relative to the output folder, sorted.</param>
+/// <param name="Written">Files written (or kept unchanged, see <see cref="PageResult.Kept"/>), relative to the output folder, sorted.</param>
 /// <param name="Removed">Stale files of an earlier run removed, relative to the output folder.</param>
 /// <param name="Diagnostics">Template and output problems, located.</param>
-public sealed record PageResult(IReadOnlyList<string> Written, IReadOnlyList<string> Removed, IReadOnlyList<DesignRules.Diagnostics.Diagnostic> Diagnostics);
+public sealed record PageResult(IReadOnlyList<string> Written, IReadOnlyList<string> Removed, IReadOnlyList<DesignRules.Diagnostics.Diagnostic> Diagnostics)
+{
+    /// <summary>The files among <see cref="Written"/> that were kept as they were (their design did not change), not written again.</summary>
+    public IReadOnlyList<string> Kept { get; init; } = [];
+}

@@ -1,3 +1,5 @@
+using DesignRules.Model;
+
 namespace DesignRules.Rules;
 
 /// <summary>What a check run needs besides the design files.</summary>
@@ -10,7 +12,38 @@ public sealed record CheckOptions(string? RuleSetFile, DateOnly Today)
     /// project file, or the folder given). When set and no design loads, the check reports DR940 there.
     /// </summary>
     public DesignSearch? Search { get; init; }
+
+    /// <summary>
+    /// Results of earlier checks (the run layer's cache): asked for each design before it is evaluated, and told each
+    /// result once its check has completed. Null evaluates every design.
+    /// </summary>
+    public IDesignResultStore? Results { get; init; }
+
+    /// <summary>Told how many designs loaded, before any is evaluated (for hosts that show how far a long run has come).</summary>
+    public Action<int>? DesignsLoaded { get; init; }
+
+    /// <summary>How many designs are evaluated at once; null for one per core (benchmarks compare 1 and 2 cores).</summary>
+    public int? MaxParallelDesigns { get; init; }
 }
+
+/// <summary>
+/// Where a check finds the results of earlier checks. An implementation must return a result only when it was computed
+/// from exactly this design (its file and every parts file it uses), rule set and date, by this very tool: a result
+/// replayed from stale inputs would pass a design that fails. Called from several threads at once.
+/// </summary>
+public interface IDesignResultStore
+{
+    /// <summary>The result of an earlier completed check of exactly this design under these settings, or null.</summary>
+    DesignResult? Find(Design design, RuleSet ruleSet, DateOnly today);
+
+    /// <summary>Keeps the result of a check of <paramref name="design"/> that has just completed.</summary>
+    void Keep(Design design, RuleSet ruleSet, DateOnly today, DesignResult result);
+}
+
+/// <summary>What the check of one design yields: its findings (after waivers) and its summary (figures, plots, verdicts).</summary>
+/// <param name="Findings">The design's findings, before any host-level change of levels.</param>
+/// <param name="Summary">Its figures, plots, yields and requirement verdicts.</param>
+public sealed record DesignResult(IReadOnlyList<Finding> Findings, DesignSummary Summary);
 
 /// <summary>Where a host looked for design files.</summary>
 /// <param name="Location">The file or folder a "no design found" finding points at.</param>
@@ -23,4 +56,14 @@ public sealed record DesignSearch(string Location, string Description);
 /// <param name="Errors">Findings at error level (before build-level changes) that no waiver covers.</param>
 /// <param name="Warnings">Findings at warning level that no waiver covers.</param>
 /// <param name="Elapsed">Time spent on this design.</param>
-public sealed record DesignProgress(string File, string DesignId, int Errors, int Warnings, TimeSpan Elapsed);
+public sealed record DesignProgress(string File, string DesignId, int Errors, int Warnings, TimeSpan Elapsed)
+{
+    /// <summary>True when the result came from an earlier check (nothing it depends on changed), not from evaluation.</summary>
+    public bool FromStore { get; init; }
+
+    /// <summary>How many designs of the run have finished, this one included.</summary>
+    public int Completed { get; init; }
+
+    /// <summary>How many designs the run checks.</summary>
+    public int Total { get; init; }
+}

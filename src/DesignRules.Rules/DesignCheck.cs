@@ -44,22 +44,41 @@ public static class DesignCheck
                 SourceSpan.WholeFile(search.Location), rule.HelpPage, null, null, null, []));
         }
 
-        // Designs are independent: evaluate them side by side, then order the findings so output is deterministic.
+        // Designs are independent: evaluate them side by side, then order the findings so output is deterministic. A
+        // result store (the run layer's cache) may hand back the result of an earlier check of exactly the same design.
+        options.DesignsLoaded?.Invoke(loaded.Designs.Count);
         var perDesign = new (List<Finding> Findings, DesignSummary Summary)[loaded.Designs.Count];
         var gate = new object();
-        Parallel.For(0, loaded.Designs.Count, i =>
+        var completed = 0;
+        Parallel.For(0, loaded.Designs.Count, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
         {
             var started = System.Diagnostics.Stopwatch.GetTimestamp();
-            perDesign[i] = Evaluate(loaded.Designs[i], ruleSet, options.Today);
+            var design = loaded.Designs[i];
+            var kept = options.Results?.Find(design, ruleSet, options.Today);
+            if (kept is not null)
+            {
+                perDesign[i] = ([.. kept.Findings], kept.Summary);
+            }
+            else
+            {
+                perDesign[i] = Evaluate(design, ruleSet, options.Today);
+                options.Results?.Keep(design, ruleSet, options.Today, new DesignResult(perDesign[i].Findings, perDesign[i].Summary));
+            }
+
             if (designChecked is not null)
             {
                 var open = perDesign[i].Findings.Where(f => !f.IsWaived).ToList();
-                var progress = new DesignProgress(loaded.Designs[i].File, loaded.Designs[i].Id.Value,
-                    open.Count(f => f.Severity == Severity.Error), open.Count(f => f.Severity == Severity.Warning),
-                    System.Diagnostics.Stopwatch.GetElapsedTime(started));
                 lock (gate)
                 {
-                    designChecked(progress);
+                    completed++;
+                    designChecked(new DesignProgress(design.File, design.Id.Value,
+                        open.Count(f => f.Severity == Severity.Error), open.Count(f => f.Severity == Severity.Warning),
+                        System.Diagnostics.Stopwatch.GetElapsedTime(started))
+                    {
+                        FromStore = kept is not null,
+                        Completed = completed,
+                        Total = loaded.Designs.Count,
+                    });
                 }
             }
         });

@@ -1,0 +1,114 @@
+using System.Globalization;
+using DesignRules.Pages;
+using DesignRules.Reports;
+using DesignRules.Rules;
+
+namespace DesignRules.Run;
+
+/// <summary>
+/// The one run both hosts make: check (reusing the cached results of designs whose inputs did not change), apply the
+/// level changes, write SARIF, JSON and pages, and return the outcome. Never throws: a failure of the tool itself is the
+/// outcome's <see cref="RunOutcome.Fault"/>.
+/// </summary>
+public static class DesignRun
+{
+    /// <summary>Runs <paramref name="request"/>; <paramref name="progress"/> hears of each design as it finishes and of a long run still going.</summary>
+    public static RunOutcome Execute(RunRequest request, IRunProgress? progress = null)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        try
+        {
+            return ExecuteOrThrow(request, progress);
+        }
+        catch (Exception ex) when (ex is not (OutOfMemoryException or StackOverflowException or AccessViolationException))
+        {
+            return new RunOutcome { Fault = RunText.Fault(ex), FaultDetail = ex.ToString() };
+        }
+    }
+
+    private static RunOutcome ExecuteOrThrow(RunRequest request, IRunProgress? progress)
+    {
+        var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files);
+        var options = new CheckOptions(request.RuleSetFile, request.Today)
+        {
+            Search = request.Search,
+            Results = cache,
+            MaxParallelDesigns = request.MaxParallelDesigns,
+        };
+
+        CheckReport check;
+        using (var watch = progress is null ? null : new LongRunWatch(progress))
+        {
+            check = DesignCheck.Run(request.Files, options with { DesignsLoaded = watch is null ? null : watch.DesignsLoaded },
+                watch is null ? null : watch.DesignChecked);
+        }
+
+        cache?.RemoveEntriesOfMissingDesigns();
+        var report = request.Levels.Apply(check);
+        var shown = request.Warnings.Apply(report);
+        var settings = new ReportSettings(request.ReportRoot, request.HelpUriBase, RepositoryConventions.ToolVersion);
+        byte[]? standardOutput = null;
+        try
+        {
+            var sarif = WriteReport(request.SarifFile, () => SarifReport.ToBytes(shown, settings), () => SarifReport.WriteFile(shown, settings, request.SarifFile!));
+            var json = WriteReport(request.JsonFile, () => JsonReport.ToBytes(shown, settings), () => JsonReport.WriteFile(shown, settings, request.JsonFile!));
+            standardOutput = sarif ?? json;
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            return new RunOutcome
+            {
+                Report = report,
+                Shown = shown,
+                FromCache = cache?.Hits ?? 0,
+                Problems = [new RequestProblem(null, $"a report file cannot be written ({Diagnostics.DiagnosticText.Escape(ex.Message.TrimEnd('.'))}).")],
+            };
+        }
+
+        PageResult? pages = null;
+        string? pagesLine = null;
+        if (request.PagesFolder is not null)
+        {
+            // Pages show the levels the rule set and the level changes gave, not a build's warning promotion: the
+            // committed datasheets do not change with -warnaserror.
+            pages = DatasheetPages.Write(report, new PageOptions(request.PagesFolder, request.TemplateFolder, request.Root)
+            {
+                HelpUriBase = request.HelpUriBase,
+                Reuse = cache?.PageReuse(report, request),
+            });
+            if (!pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
+            {
+                var kept = pages.Kept.Count > 0 ? string.Create(CultureInfo.InvariantCulture, $" ({pages.Kept.Count} unchanged, kept)") : string.Empty;
+                pagesLine = string.Create(CultureInfo.InvariantCulture,
+                    $"{pages.Written.Count - pages.Kept.Count} page and plot file(s) written to {request.PagesFolder}{kept}, {pages.Removed.Count} stale file(s) removed.");
+            }
+        }
+
+        return new RunOutcome
+        {
+            Report = report,
+            Shown = shown,
+            StandardOutput = standardOutput,
+            Pages = pages,
+            PagesLine = pagesLine,
+            FromCache = cache?.Hits ?? 0,
+        };
+    }
+
+    /// <summary>Writes one report to its file, or returns its bytes when it goes to standard output.</summary>
+    private static byte[]? WriteReport(string? target, Func<byte[]> bytes, Action toFile)
+    {
+        if (target is null)
+        {
+            return null;
+        }
+
+        if (target == RunRequest.StandardOutput)
+        {
+            return bytes();
+        }
+
+        toFile();
+        return null;
+    }
+}

@@ -1,0 +1,285 @@
+using System.Collections.Concurrent;
+using System.Globalization;
+using System.Security.Cryptography;
+using System.Text;
+using DesignRules.Loading;
+using DesignRules.Model;
+using DesignRules.Pages;
+using DesignRules.Rules;
+
+namespace DesignRules.Run;
+
+/// <summary>
+/// The per-design results cache. An entry holds one design's result under a key made from the content of everything
+/// the result depends on: the design file, every parts file the design uses, the rule-set sections that apply to it
+/// (Monte Carlo settings, the rules for every design, its own section), the date when it has waivers, the tool's
+/// identity and the codec's format. A green replayed from a stale entry is the worst defect this tool could have, so the
+/// key errs on the side of re-evaluating: any doubt is a miss. An entry is written only after a check of its design
+/// completed and only when no file it depends on changed during the check; a damaged or foreign entry is ignored and
+/// written again.
+/// </summary>
+internal sealed class ResultCache : IDesignResultStore
+{
+    private const string Magic = "designrules-results";
+    private readonly string folder;
+    private readonly string tool;
+    private readonly ConcurrentDictionary<string, string?> contentHashes = new(StringComparer.Ordinal);
+    private readonly ConcurrentDictionary<string, string> keys = new(StringComparer.Ordinal);
+    private readonly ConcurrentBag<string> designFiles = [];
+    private int hits;
+
+    /// <summary>A cache in <paramref name="folder"/>; <paramref name="files"/> are hashed now, before they are loaded.</summary>
+    public ResultCache(string folder, IEnumerable<string> files, string? toolIdentity = null)
+    {
+        this.folder = folder;
+        tool = toolIdentity ?? ToolIdentity.Text;
+        // Hashing the given files before the loader reads them means that a file saved during the check makes the key
+        // (taken before) disagree with the content after the check, and the entry is not written.
+        foreach (var file in files)
+        {
+            contentHashes[Path.GetFullPath(file)] = HashFile(file);
+        }
+    }
+
+    /// <summary>How many designs came from the cache.</summary>
+    public int Hits => hits;
+
+    /// <inheritdoc />
+    public DesignResult? Find(Design design, RuleSet ruleSet, DateOnly today)
+    {
+        designFiles.Add(Path.GetFullPath(design.File));
+        var key = Key(design, ruleSet, today, fresh: false);
+        if (key is null)
+        {
+            return null;
+        }
+
+        keys[design.Id.Value] = key;
+        var entry = EntryPath(design.File);
+        try
+        {
+            if (!File.Exists(entry))
+            {
+                return null;
+            }
+
+            var bytes = File.ReadAllBytes(entry);
+            var payload = Payload(bytes, key);
+            if (payload < 0)
+            {
+                return null;
+            }
+
+            var result = ResultCodec.Decode(bytes.AsSpan(payload), design);
+            Interlocked.Increment(ref hits);
+            return result;
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or System.Text.Json.JsonException
+            or NotSupportedException or InvalidOperationException or ArgumentException or FormatException or OverflowException)
+        {
+            // Damaged, foreign or unreadable: never trusted; the design is evaluated and its entry written again.
+            return null;
+        }
+    }
+
+    /// <inheritdoc />
+    public void Keep(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
+    {
+        if (!keys.TryGetValue(design.Id.Value, out var before) || Key(design, ruleSet, today, fresh: true) != before)
+        {
+            // A file the design depends on changed while it was checked: the result is of neither version; keep nothing.
+            keys.TryRemove(design.Id.Value, out _);
+            return;
+        }
+
+        try
+        {
+            var payload = ResultCodec.Encode(result);
+            var header = Encoding.UTF8.GetBytes($"{Magic} {ResultCodec.FormatVersion.ToString(CultureInfo.InvariantCulture)}\n{before}\n{Convert.ToHexString(SHA256.HashData(payload))}\n" +
+                $"design {Convert.ToBase64String(Encoding.UTF8.GetBytes(Path.GetFullPath(design.File)))}\n");
+            Directory.CreateDirectory(folder);
+            var entry = EntryPath(design.File);
+            var temporary = Path.Combine(folder, $".{Path.GetFileName(entry)}.{Environment.ProcessId}-{Guid.NewGuid():N}.partial");
+            using (var stream = new FileStream(temporary, FileMode.CreateNew, FileAccess.Write, FileShare.None))
+            {
+                stream.Write(header);
+                stream.Write(payload);
+            }
+
+            File.Move(temporary, entry, overwrite: true);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            // A cache that cannot be written costs time next run, never a result.
+        }
+    }
+
+    /// <summary>Removes the entries of design files that no longer exist, so that a deleted design leaves nothing behind.</summary>
+    public void RemoveEntriesOfMissingDesigns()
+    {
+        if (!Directory.Exists(folder))
+        {
+            return;
+        }
+
+        var current = designFiles.Select(EntryPath).ToHashSet(StringComparer.Ordinal);
+        foreach (var entry in Directory.EnumerateFiles(folder, "*.result"))
+        {
+            if (current.Contains(entry))
+            {
+                continue;
+            }
+
+            try
+            {
+                using var reader = new StreamReader(entry, Encoding.UTF8);
+                reader.ReadLine();
+                reader.ReadLine();
+                reader.ReadLine();
+                var design = reader.ReadLine();
+                if (design is not null && design.StartsWith("design ", StringComparison.Ordinal))
+                {
+                    // Only an entry whose design file is gone: another repository sharing the folder keeps its own.
+                    var file = Encoding.UTF8.GetString(Convert.FromBase64String(design["design ".Length..]));
+                    if (!File.Exists(file))
+                    {
+                        reader.Dispose();
+                        File.Delete(entry);
+                    }
+                }
+            }
+            catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or FormatException)
+            {
+                // Left for the next run.
+            }
+        }
+    }
+
+    /// <summary>The page keys of the designs whose results have keys: a page is kept only while its key is unchanged.</summary>
+    public PageReuse PageReuse(CheckReport report, RunRequest request)
+    {
+        var templates = new StringBuilder();
+        if (request.TemplateFolder is { } templateFolder && Directory.Exists(templateFolder))
+        {
+            foreach (var template in Directory.EnumerateFiles(templateFolder).Order(StringComparer.Ordinal))
+            {
+                templates.Append(template).Append(' ').Append(HashFile(template)).Append('\n');
+            }
+        }
+
+        var pageKeys = new Dictionary<string, string>(StringComparer.Ordinal);
+        foreach (var summary in report.Designs)
+        {
+            var id = summary.Design.Id.Value;
+            if (!keys.TryGetValue(id, out var key))
+            {
+                continue;
+            }
+
+            var text = new StringBuilder("result ").Append(key).Append('\n')
+                .Append("root ").Append(request.Root).Append('\n')
+                .Append("help ").Append(request.HelpUriBase).Append('\n')
+                .Append("templates\n").Append(templates)
+                .Append("findings ").Append(Convert.ToHexString(SHA256.HashData(ResultCodec.EncodeFindings(report.Findings.Where(f => f.DesignId == id))))).Append('\n');
+            pageKeys[id] = Hash(text.ToString());
+        }
+
+        return new PageReuse(Path.Combine(folder, "pages.state"), pageKeys);
+    }
+
+    /// <summary>The key of a design's result; null when a file it depends on cannot be read.</summary>
+    internal string? Key(Design design, RuleSet ruleSet, DateOnly today, bool fresh)
+    {
+        var text = new StringBuilder();
+        text.Append(Magic).Append(' ').Append(ResultCodec.FormatVersion.ToString(CultureInfo.InvariantCulture)).Append('\n');
+        // The design file's path leads the key text: findings name it, and a stale entry is found by it.
+        var designFile = Path.GetFullPath(design.File);
+        var designHash = fresh ? HashFile(designFile) : contentHashes.GetOrAdd(designFile, HashFile);
+        if (designHash is null)
+        {
+            return null;
+        }
+
+        text.Append("design ").Append(designFile).Append(' ').Append(designHash).Append('\n');
+        foreach (var library in design.Libraries.Where(l => l.File != DesignLoader.BuiltinLibraryFile))
+        {
+            var file = Path.GetFullPath(library.File);
+            var hash = fresh ? HashFile(file) : contentHashes.GetOrAdd(file, HashFile);
+            if (hash is null)
+            {
+                return null;
+            }
+
+            text.Append("parts ").Append(file).Append(' ').Append(hash).Append('\n');
+        }
+
+        if (design.Waivers.Count > 0)
+        {
+            text.Append("today ").Append(today.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture)).Append('\n');
+        }
+
+        RuleSetSections.Append(text, ruleSet, design.Id.Value);
+        text.Append("tool\n").Append(tool);
+        return Hash(text.ToString());
+    }
+
+    /// <summary>Where the entry of a design file is kept: one entry per design file, named by a hash of its full path.</summary>
+    private string EntryPath(string designFile) =>
+        Path.Combine(folder, Hash(Path.GetFullPath(designFile))[..32] + ".result");
+
+    /// <summary>The offset of the payload when the header is this format, this key and the payload's checksum holds; else -1.</summary>
+    private static int Payload(byte[] bytes, string key)
+    {
+        var lines = new int[4];
+        var at = 0;
+        for (var i = 0; i < 4; i++)
+        {
+            var end = Array.IndexOf(bytes, (byte)'\n', at);
+            if (end < 0)
+            {
+                return -1;
+            }
+
+            lines[i] = end;
+            at = end + 1;
+        }
+
+        var magic = Encoding.UTF8.GetString(bytes, 0, lines[0]);
+        var storedKey = Encoding.UTF8.GetString(bytes, lines[0] + 1, lines[1] - lines[0] - 1);
+        var checksum = Encoding.UTF8.GetString(bytes, lines[1] + 1, lines[2] - lines[1] - 1);
+        if (magic != $"{Magic} {ResultCodec.FormatVersion.ToString(CultureInfo.InvariantCulture)}" || storedKey != key
+            || checksum != Convert.ToHexString(SHA256.HashData(bytes.AsSpan(at))))
+        {
+            return -1;
+        }
+
+        return at;
+    }
+
+    private static string? HashFile(string file)
+    {
+        try
+        {
+            // Only regular files are cached by content; anything else (a pipe, a device) is never a key.
+            var info = new FileInfo(file);
+            if (!info.Exists || info.LinkTarget is not null && info.ResolveLinkTarget(true) is not FileInfo)
+            {
+                return null;
+            }
+
+            if (info.Length == 0)
+            {
+                // Never opened, as the loader never opens a file that reports no size (a pipe would block the run).
+                return "empty";
+            }
+
+            return Convert.ToHexString(SHA256.HashData(File.ReadAllBytes(file)));
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
+        {
+            return null;
+        }
+    }
+
+    private static string Hash(string text) => Convert.ToHexString(SHA256.HashData(Encoding.UTF8.GetBytes(text)));
+}

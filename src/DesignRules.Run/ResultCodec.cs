@@ -1,0 +1,93 @@
+using System.Text.Json;
+using System.Text.Json.Serialization;
+using DesignRules.Diagnostics;
+using DesignRules.Model;
+using DesignRules.Rules;
+
+namespace DesignRules.Run;
+
+/// <summary>
+/// The results cache's own encoding of one design's result, independent of the JSON report's format. Every change to
+/// what it writes must raise <see cref="FormatVersion"/>: an entry of another version is foreign and re-evaluated.
+/// </summary>
+internal static class ResultCodec
+{
+    /// <summary>The version of this encoding, part of every entry's key.</summary>
+    public const int FormatVersion = 1;
+
+    private static readonly JsonSerializerOptions Options = new()
+    {
+        NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
+        IncludeFields = false,
+        WriteIndented = false,
+    };
+
+    public static byte[] Encode(DesignResult result)
+    {
+        var s = result.Summary;
+        var stored = new StoredResult(
+            result.Findings.Select(FindingCodec.ToStored).ToList(),
+            s.DesignFigures.Select(FigureCodec.ToStored).ToList(),
+            s.StageFigures.Select(p => new StoredStageFigures(p.Key, p.Value.Select(FigureCodec.ToStored).ToList())).ToList(),
+            s.Plots.ToList(),
+            s.Yields.ToList(),
+            s.Requirements.ToList());
+        return JsonSerializer.SerializeToUtf8Bytes(stored, Options);
+    }
+
+    /// <summary>The result stored in <paramref name="bytes"/>, for <paramref name="design"/> as loaded now.</summary>
+    public static DesignResult Decode(ReadOnlySpan<byte> bytes, Design design)
+    {
+        var stored = JsonSerializer.Deserialize<StoredResult>(bytes, Options) ?? throw new JsonException("empty entry");
+        var summary = new DesignSummary(
+            design,
+            stored.DesignFigures.Select(FigureCodec.FromStored).ToList(),
+            stored.StageFigures.Select(p => new KeyValuePair<string, IReadOnlyList<Figure>>(p.Stage, p.Figures.Select(FigureCodec.FromStored).ToList())).ToList())
+        {
+            Plots = stored.Plots,
+            Yields = stored.Yields,
+            Requirements = stored.Requirements,
+        };
+        return new DesignResult(stored.Findings.Select(FindingCodec.FromStored).ToList(), summary);
+    }
+
+    /// <summary>The findings in the codec's form, for keys that depend on them (a design's page).</summary>
+    public static byte[] EncodeFindings(IEnumerable<Finding> findings) =>
+        JsonSerializer.SerializeToUtf8Bytes(findings.Select(FindingCodec.ToStored).ToList(), Options);
+
+    internal sealed record StoredResult(
+        List<StoredFinding> Findings,
+        List<StoredFigure> DesignFigures,
+        List<StoredStageFigures> StageFigures,
+        List<StagePlots> Plots,
+        List<YieldEstimate> Yields,
+        List<RequirementVerdict> Requirements);
+
+    internal sealed record StoredStageFigures(string Stage, List<StoredFigure> Figures);
+
+    internal sealed record StoredFinding(
+        string RuleId, string Title, int Severity, string Message, string File, int Line, int Column, int EndLine, int EndColumn,
+        string HelpPage, string? DesignId, string? StageId, string? Waiver, List<StoredFigure> Figures);
+
+    internal sealed record StoredFigure(string Name, double Value, string Unit, double? Limit, double? Margin);
+
+    private static class FindingCodec
+    {
+        public static StoredFinding ToStored(Finding f) => new(
+            f.RuleId, f.Title, (int)f.Severity, f.Message, f.Span.File, f.Span.Line, f.Span.Column, f.Span.EndLine, f.Span.EndColumn,
+            f.HelpPage, f.DesignId, f.StageId, f.Waiver, f.Figures.Select(FigureCodec.ToStored).ToList());
+
+        public static Finding FromStored(StoredFinding s) => new(
+            s.RuleId, s.Title, Enum.IsDefined((Severity)s.Severity) ? (Severity)s.Severity : throw new JsonException("unknown severity"),
+            s.Message, new SourceSpan(s.File, s.Line, s.Column, s.EndLine, s.EndColumn), s.HelpPage, s.DesignId, s.StageId, s.Waiver,
+            s.Figures.Select(FigureCodec.FromStored).ToList());
+    }
+
+    /// <summary>The one place the cache knows the shape of a figure (the typed figure keys will change it here only).</summary>
+    private static class FigureCodec
+    {
+        public static StoredFigure ToStored(Figure f) => new(f.Name, f.Value, f.Unit, f.Limit, f.Margin);
+
+        public static Figure FromStored(StoredFigure s) => new(s.Name, s.Value, s.Unit) { Limit = s.Limit, Margin = s.Margin };
+    }
+}
