@@ -28,7 +28,7 @@ public static class DesignRun
 
     private static RunOutcome ExecuteOrThrow(RunRequest request, IRunProgress? progress)
     {
-        var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files);
+        var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride);
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
             Search = request.Search,

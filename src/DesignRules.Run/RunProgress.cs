@@ -31,16 +31,22 @@ public sealed class LongRunWatch : IDisposable
 
     /// <summary>Starts watching a run that reports to <paramref name="progress"/>.</summary>
     public LongRunWatch(IRunProgress progress)
+        : this(progress, FirstNotice, Interval)
     {
-        this.progress = progress ?? throw new ArgumentNullException(nameof(progress));
-        timer = new Timer(_ => Tick(), null, FirstNotice, Interval);
     }
 
-    /// <summary>How long a run goes before its first "still checking" line.</summary>
-    public static TimeSpan FirstNotice { get; set; } = TimeSpan.FromSeconds(10);
+    /// <summary>Starts watching with other times (tests).</summary>
+    internal LongRunWatch(IRunProgress progress, TimeSpan firstNotice, TimeSpan interval)
+    {
+        this.progress = progress ?? throw new ArgumentNullException(nameof(progress));
+        timer = new Timer(_ => Tick(), null, firstNotice, interval);
+    }
 
-    /// <summary>How often a long run says it is still going.</summary>
-    public static TimeSpan Interval { get; set; } = TimeSpan.FromSeconds(15);
+    /// <summary>How long a run goes before its first "still checking" line: a check of a few designs never reaches it.</summary>
+    public static readonly TimeSpan FirstNotice = TimeSpan.FromSeconds(10);
+
+    /// <summary>How often a long run says it is still going after that.</summary>
+    public static readonly TimeSpan Interval = TimeSpan.FromSeconds(15);
 
     /// <summary>Remembers how many designs the run checks.</summary>
     public void DesignsLoaded(int count)

@@ -55,6 +55,9 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
     /// <summary>How many designs are evaluated at once; null for one per core.</summary>
     public int? MaxParallelDesigns { get; init; }
 
+    /// <summary>Stands in for the tool's identity in cache keys (tests: "another tool version"); null for the real one.</summary>
+    internal string? ToolIdentityOverride { get; init; }
+
     /// <summary>Reads the command line's options; every unusable option or path is a problem, never an exception.</summary>
     public static RequestParse FromCommandLine(CommandLineInputs inputs)
     {

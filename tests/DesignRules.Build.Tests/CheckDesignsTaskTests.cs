@@ -95,15 +95,25 @@ public sealed class CheckDesignsTaskTests : IDisposable
     }
 
     [Fact]
-    public void Internal_failure_is_one_DR990_error_not_an_exception()
+    public void Internal_failure_is_one_DR990_error_from_the_catalogue_not_an_exception()
     {
-        // The targets always pass today's date as yyyy-MM-dd; anything else reaching the task is a fault of the tool's own
-        // wiring. (A report path that is a folder, once the trigger here, is now the user's mistake: see below.)
-        var (task, engine) = Task(SampleRepository.Design(), t => t.Today = "not-a-date");
+        // MSBuild never passes a path holding a NUL character; one reaching the task is a fault of the tool's own wiring.
+        var (task, engine) = Task(SampleRepository.Design(), t => t.RepositoryRoot = "root\0with a NUL");
         Assert.False(task.Execute());
         var error = Assert.Single(engine.Errors);
         Assert.Equal(CheckDesigns.InternalErrorCode, error.Code);
+        Assert.StartsWith("DesignRules failed inside the tool: ", error.Message, StringComparison.Ordinal);
         Assert.Contains("fault of the tool", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_mistyped_date_is_a_plain_error_naming_the_property_not_a_fault_of_the_tool()
+    {
+        var (task, engine) = Task(SampleRepository.Design(), t => t.Today = "30/06/2027");
+        Assert.False(task.Execute());
+        var error = Assert.Single(engine.Errors);
+        Assert.Null(error.Code);
+        Assert.Contains("DesignRulesToday: '30/06/2027' is not a date; write the date as yyyy-MM-dd", error.Message, StringComparison.Ordinal);
     }
 
     [Fact]

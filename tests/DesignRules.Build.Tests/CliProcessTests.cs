@@ -19,7 +19,7 @@ public sealed class CliProcessTests : IDisposable
         SampleRepository.Write(root, SampleRepository.Design());
         var run = Cli("check", root);
         Assert.True(run.ExitCode == 0, run.ToString());
-        Assert.Contains("1 design(s) checked in 1 file(s): 0 error(s)", run.Output, StringComparison.Ordinal);
+        Assert.Contains("1 design(s) in 1 file(s) checked: 0 error(s)", run.Output, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -40,7 +40,7 @@ public sealed class CliProcessTests : IDisposable
         File.Move(elsewhere, Path.Combine(root, "designs", "line-driver.yml"));
         var found = Cli("check", root);
         Assert.True(found.ExitCode == 0, found.ToString());
-        Assert.Contains("1 design(s) checked in 1 file(s): 0 error(s)", found.Output, StringComparison.Ordinal);
+        Assert.Contains("1 design(s) in 1 file(s) checked: 0 error(s)", found.Output, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -182,7 +182,7 @@ public sealed class HostileInputTests : IDisposable
         WriteDesign(Design(source: source));
         var run = Check(".");
         Assert.True(run.ExitCode is 0 or 1, run.ToString());
-        Assert.Contains("1 design(s) checked in 1 file(s)", run.Output, StringComparison.Ordinal);
+        Assert.Contains("1 design(s) in 1 file(s) checked", run.Output, StringComparison.Ordinal);
     }
 
     [Fact]

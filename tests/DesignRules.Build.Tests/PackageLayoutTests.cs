@@ -14,7 +14,7 @@ public sealed class PackageLayoutTests(PackedFeed feed)
         var names = zip.Entries.Select(e => e.FullName).ToList();
         string[] expected =
         [
-            "tasks/net10.0/DesignRules.Build.dll", "tasks/net10.0/DesignRules.Build.deps.json", "tasks/net10.0/DesignRules.Rules.dll",
+            "tasks/net10.0/DesignRules.Build.dll", "tasks/net10.0/DesignRules.Build.deps.json", "tasks/net10.0/DesignRules.Rules.dll", "tasks/net10.0/DesignRules.Run.dll",
             "tasks/net10.0/DesignRules.Core.dll", "tasks/net10.0/YamlDotNet.dll", "tasks/net10.0/MathNet.Numerics.dll",
             "build/DesignRules.Build.props", "build/DesignRules.Build.targets",
             "buildTransitive/DesignRules.Build.props", "buildTransitive/DesignRules.Build.targets",

@@ -1,0 +1,143 @@
+namespace DesignRules.Run.Tests;
+
+/// <summary>
+/// The per-design results cache re-evaluates exactly the designs whose inputs changed, and never trusts an entry it
+/// cannot vouch for. (Which example design uses which file: only door-impact-peak-hold names the parts file.)
+/// </summary>
+public sealed class ResultCacheTests : IDisposable
+{
+    private static readonly string[] All =
+        ["compressor-vibration-envelope", "door-impact-peak-hold", "motor-current-monitor", "suction-pressure-bridge"];
+
+    private readonly ExampleCopy repo = new();
+
+    public void Dispose() => repo.Dispose();
+
+    [Fact]
+    public void A_second_run_with_nothing_changed_evaluates_nothing_and_writes_the_same_report_and_pages()
+    {
+        var (first, evaluated) = repo.Run();
+        Assert.Equal(All, evaluated);
+        Assert.Equal(0, first.FromCache);
+        var json = File.ReadAllBytes(repo.Json);
+        var pages = Snapshot(repo.Pages);
+
+        var (second, again) = repo.Run();
+        Assert.Empty(again);
+        Assert.Equal(4, second.FromCache);
+        Assert.Equal(json, File.ReadAllBytes(repo.Json));
+        Assert.Equal(pages, Snapshot(repo.Pages));
+        Assert.Equal(first.Summary, second.Summary);
+        Assert.NotEmpty(second.Pages!.Kept);
+    }
+
+    [Fact]
+    public void A_changed_parts_file_re_evaluates_exactly_the_design_that_uses_it()
+    {
+        repo.Run();
+        var parts = Directory.GetFiles(Path.Combine(repo.Root, "parts"), "*.yaml").Single();
+        File.AppendAllText(parts, "# a comment is a change of content too\n");
+        var (_, evaluated) = repo.Run();
+        Assert.Equal(["door-impact-peak-hold"], evaluated);
+    }
+
+    [Fact]
+    public void A_changed_rule_set_section_re_evaluates_exactly_the_design_it_names_and_a_global_change_every_design()
+    {
+        repo.Run();
+        File.WriteAllText(repo.RuleSet, ExampleCopy.RuleSetText("warning"));
+        Assert.Equal(["motor-current-monitor"], repo.Run().Evaluated);
+
+        File.WriteAllText(repo.RuleSet, ExampleCopy.RuleSetText("warning").Replace("derating: 70%", "derating: 60%", StringComparison.Ordinal));
+        Assert.Equal(All, repo.Run().Evaluated);
+    }
+
+    [Fact]
+    public void Another_tool_re_evaluates_every_design()
+    {
+        repo.Run();
+        Assert.Equal(All, repo.Run(toolIdentity: "a later build of the tool").Evaluated);
+        Assert.Empty(repo.Run(toolIdentity: "a later build of the tool").Evaluated);
+    }
+
+    [Fact]
+    public void A_changed_design_file_re_evaluates_that_design_only_and_its_page_only_is_rendered_again()
+    {
+        repo.Run();
+        var motor = repo.Design("motor-current-monitor");
+        File.AppendAllText(motor, "\n# reviewed\n");
+        var (outcome, evaluated) = repo.Run();
+        Assert.Equal(["motor-current-monitor"], evaluated);
+        var written = outcome.Pages!.Written.Except(outcome.Pages.Kept).ToList();
+        Assert.Contains("motor-current-monitor.md", written);
+        Assert.Contains("index.md", written);
+        Assert.DoesNotContain(written, w => w.Contains("door-impact", StringComparison.Ordinal) || w.Contains("suction", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void A_deleted_design_disappears_from_the_report_the_pages_and_the_cache()
+    {
+        repo.Run();
+        var entries = Directory.GetFiles(repo.Cache, "*.result").Length;
+        File.Delete(repo.Design("suction-pressure-bridge"));
+        var (outcome, evaluated) = repo.Run();
+        Assert.Empty(evaluated);
+        Assert.DoesNotContain("suction-pressure-bridge", File.ReadAllText(repo.Json), StringComparison.Ordinal);
+        Assert.False(File.Exists(Path.Combine(repo.Pages, "suction-pressure-bridge.md")));
+        Assert.Empty(Directory.GetFiles(repo.Pages, "*suction*", SearchOption.AllDirectories));
+        Assert.DoesNotContain("suction-pressure-bridge", File.ReadAllText(Path.Combine(repo.Pages, "index.md")), StringComparison.Ordinal);
+        Assert.Equal(entries - 1, Directory.GetFiles(repo.Cache, "*.result").Length);
+        Assert.Equal(3, outcome.Report.DesignCount);
+    }
+
+    [Theory]
+    [InlineData("flip a byte of the payload")]
+    [InlineData("cut the entry short")]
+    [InlineData("another format version")]
+    [InlineData("not an entry at all")]
+    public void A_damaged_or_foreign_entry_is_re_evaluated_and_written_again(string damage)
+    {
+        var (first, _) = repo.Run();
+        var json = File.ReadAllBytes(repo.Json);
+        foreach (var entry in Directory.GetFiles(repo.Cache, "*.result"))
+        {
+            var bytes = File.ReadAllBytes(entry);
+            File.WriteAllBytes(entry, damage switch
+            {
+                "flip a byte of the payload" => Flip(bytes, bytes.Length - 10),
+                "cut the entry short" => bytes[..(bytes.Length / 2)],
+                "another format version" => System.Text.Encoding.UTF8.GetBytes(System.Text.Encoding.UTF8.GetString(bytes).Replace("designrules-results 1\n", "designrules-results 0\n", StringComparison.Ordinal)),
+                _ => "{}"u8.ToArray(),
+            });
+        }
+
+        var (second, evaluated) = repo.Run();
+        Assert.Equal(All, evaluated);
+        Assert.Equal(first.Summary, second.Summary);
+        Assert.Equal(json, File.ReadAllBytes(repo.Json));
+        Assert.Empty(repo.Run().Evaluated);
+    }
+
+    [Fact]
+    public void A_damaged_page_is_rendered_again_although_its_design_did_not_change()
+    {
+        repo.Run();
+        var page = Path.Combine(repo.Pages, "door-impact-peak-hold.md");
+        var text = File.ReadAllText(page);
+        File.WriteAllText(page, text + "an edit by hand\n");
+        var (outcome, _) = repo.Run();
+        Assert.DoesNotContain("door-impact-peak-hold.md", outcome.Pages!.Kept);
+        Assert.Equal(text, File.ReadAllText(page));
+    }
+
+    private static byte[] Flip(byte[] bytes, int at)
+    {
+        bytes[at] ^= 0x20;
+        return bytes;
+    }
+
+    private static SortedDictionary<string, string> Snapshot(string folder) =>
+        new(Directory.GetFiles(folder, "*", SearchOption.AllDirectories)
+            .Where(f => !Path.GetFileName(f).StartsWith(".designrules-pages.lock", StringComparison.Ordinal))
+            .ToDictionary(f => Path.GetRelativePath(folder, f), File.ReadAllText), StringComparer.Ordinal);
+}
