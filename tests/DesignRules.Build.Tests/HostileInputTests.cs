@@ -135,7 +135,19 @@ public sealed class HostileInputTests : IDisposable
         MakeFifo(Path.Combine(Repo, "fifo-rules.yaml"));
         var run = Check(".", "--rules", "fifo-rules.yaml");
         Assert.Equal(1, run.ExitCode);
-        Assert.Contains("fifo.yaml(1,1): error DR915: ", run.Output, StringComparison.Ordinal);
+        // Refused as what they are, not read as empty files.
+        Assert.Matches(@"fifo\.yaml\(1,1\): error DR915: '[^']*designs/fifo\.yaml' is a named pipe \(FIFO\), not a regular file", run.Output);
+        Assert.Matches(@"fifo-rules\.yaml\(1,1\): error DR915: '[^']*fifo-rules\.yaml' is a named pipe \(FIFO\), not a regular file", run.Output);
+    }
+
+    [Fact]
+    public void A_pipe_named_as_a_parts_library_is_refused_at_the_reference_as_not_a_regular_file()
+    {
+        MakeFifo(Path.Combine(Repo, "fifo-parts.yaml"));
+        WriteDesign(Design(extra: "libraries: [../fifo-parts.yaml]\n"));
+        var run = Check(".");
+        Assert.Equal(1, run.ExitCode);
+        Assert.Matches(@"line-driver\.yaml\(4,\d+\): error DR915: '[^']*fifo-parts\.yaml' is a named pipe \(FIFO\), not a regular file", run.Output);
     }
 
     [Fact]

@@ -36,9 +36,16 @@ internal static class SourceFile
                 $"{shown} is a device or system file, not a regular file; only regular files are read");
         }
 
-        // Devices, pipes and sockets report no size; a file that reports none is never opened, so a pipe cannot block the run.
+        // Devices, pipes and sockets report no size; a file that reports none is never opened, so a pipe cannot block the
+        // run. Where the system can tell, such a file is refused by its kind rather than read as empty.
         if (target.Length == 0)
         {
+            if (FileKind.NotRegular(target.FullName) is { } kind)
+            {
+                throw new RefusedFileException(DesignFileDiagnostics.NotADesignFile, null,
+                    $"{shown} is {kind}, not a regular file; only regular files are read");
+            }
+
             return string.Empty;
         }
 
