@@ -48,8 +48,10 @@ internal sealed class ResultCache : IDesignResultStore
     public DesignResult? Find(Design design, RuleSet ruleSet, DateOnly today)
     {
         designFiles.Add(Path.GetFullPath(design.File));
+        // The key from the content hashed before loading must be the key of the content now: a file saved in between may
+        // have been loaded in either version, and a result of the other version must never stand for it.
         var key = Key(design, ruleSet, today, fresh: false);
-        if (key is null)
+        if (key is null || Key(design, ruleSet, today, fresh: true) != key)
         {
             return null;
         }
