@@ -17,8 +17,14 @@ public class ScaleBenchmark
     private IReadOnlyList<string> files = null!;
     private int edit;
 
-    [Params(10, 100, 500)]
+    /// <summary>10, 100 and 500 designs; <c>DESIGNRULES_SCALE_SIZES=500</c> runs one size alone (a 500-design full check takes minutes).</summary>
+    [ParamsSource(nameof(Sizes))]
     public int Designs { get; set; }
+
+    public static IEnumerable<int> Sizes() =>
+        (Environment.GetEnvironmentVariable("DESIGNRULES_SCALE_SIZES") ?? "10,100,500")
+            .Split(',', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries)
+            .Select(s => int.Parse(s, System.Globalization.CultureInfo.InvariantCulture));
 
     [GlobalSetup]
     public void Setup()
