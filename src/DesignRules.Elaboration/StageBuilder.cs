@@ -110,10 +110,18 @@ internal sealed class StageBuilder : IBlockCircuit
     /// <summary>Adds a capacitor named by a block value between two nodes.</summary>
     public void Capacitor(string name, string a, string b) => Passive(name, ElementKind.Capacitor, a, b);
 
-    private void Passive(string name, ElementKind kind, string a, string b)
+    /// <summary>Adds one of several resistors sharing a block value, as its own element (its own override key and tolerance).</summary>
+    public void Resistor(string value, string element, string a, string b) => Passive(value, element, ElementKind.Resistor, a, b);
+
+    /// <summary>Adds one of several capacitors sharing a block value, as its own element.</summary>
+    public void Capacitor(string value, string element, string a, string b) => Passive(value, element, ElementKind.Capacitor, a, b);
+
+    private void Passive(string name, ElementKind kind, string a, string b) => Passive(name, name, kind, a, b);
+
+    private void Passive(string valueName, string element, ElementKind kind, string a, string b)
     {
-        var value = Block?.Values.GetValueOrDefault(name);
-        Passive(name, kind, a, b, value?.Value.Value.Value ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
+        var value = Block?.Values.GetValueOrDefault(valueName);
+        Passive(element, kind, a, b, value?.Value.Value.Value ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
     }
 
     /// <summary>Adds a resistor, capacitor or inductor with an explicit nominal value (overrides still apply).</summary>

@@ -76,6 +76,10 @@ public abstract class BlockDescriptor
     /// <param name="values">The stage's component values.</param>
     public virtual double? NoiseGain(string slot, BlockValues values) => 1;
 
+    /// <summary>The ideal second-order response of a filter block for the component values; null for a block that is no filter.</summary>
+    /// <param name="values">The stage's component values.</param>
+    public virtual FilterResponse? Filter(BlockValues values) => null;
+
     /// <summary>True when the loop of the amplifier in <paramref name="slot"/> opens by design for part of each cycle (a diode in the loop turns off).</summary>
     /// <param name="slot">The amplifier slot.</param>
     public virtual bool OpensLoopByDesign(string slot) => false;
@@ -146,6 +150,12 @@ public interface IBlockCircuit
     /// <summary>Adds the capacitor named by a block value.</summary>
     void Capacitor(string name, string a, string b);
 
+    /// <summary>Adds one of several resistors that share a block value (an equal-component form), as its own part <paramref name="element"/>.</summary>
+    void Resistor(string value, string element, string a, string b);
+
+    /// <summary>Adds one of several capacitors that share a block value, as its own part <paramref name="element"/>.</summary>
+    void Capacitor(string value, string element, string a, string b);
+
     /// <summary>Adds the amplifier of a slot.</summary>
     void Amplifier(string slot, string plus, string minus, string output);
 
@@ -167,5 +177,7 @@ public static class BlockCatalog
     {
         new InvertingBlock(), new NonInvertingBlock(), new FollowerBlock(), new DifferenceBlock(), new SummingBlock(),
         new HalfWaveInvertingBlock(), new HalfWaveFollowerBlock(), new AbsoluteValueBlock(), new PeakDetectorBlock(), new AveragingFilterBlock(),
+        new SallenKeyLowPassBlock(), new SallenKeyLowPassEqualBlock(), new SallenKeyHighPassBlock(), new SallenKeyHighPassEqualBlock(),
+        new MultipleFeedbackBandPassBlock(), new MultipleFeedbackLowPassBlock(),
     }.ToDictionary(b => b.Name, StringComparer.Ordinal);
 }

@@ -1,4 +1,5 @@
 using System.Globalization;
+using DesignRules.Blocks;
 using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
@@ -74,7 +75,32 @@ public static class RequirementTable
                 && stage is BlockStage { Block.TakesDifferentialInput: true },
             NotApplicableReason = "common-mode rejection is measured on a difference stage that is the first stage, fed from a source with a `common-mode` level",
         },
+        Filter("cutoff", r => r.Cutoff, s => s is FilterShape.LowPass or FilterShape.HighPass, "a cutoff belongs to a low- or high-pass filter block (a band-pass states its `centre`)"),
+        Filter("centre", r => r.Centre, s => s is FilterShape.BandPass, "a centre frequency belongs to a band-pass filter block (a low- or high-pass states its `cutoff`)"),
+        Filter("q", r => r.Q, _ => true, "Q is measured on the filter blocks"),
+        Filter("passband-gain", r => r.PassbandGain, _ => true, "the pass-band gain is measured on the filter blocks"),
+        new("stopband", ["DR531"], r => r.Stopband?.Span,
+            r => $"at least {r.Stopband!.Attenuation.Value.Format()} at {r.Stopband.Frequency.Value.Format()}")
+        {
+            AppliesTo = (_, stage, _) => FilterOf(stage) is not null,
+            NotApplicableReason = "stop-band attenuation is measured on the filter blocks",
+        },
     ];
+
+    /// <summary>The ideal response of a filter block stage; null for any other stage.</summary>
+    internal static FilterResponse? FilterOf(Stage stage) => stage is BlockStage block ? block.Block.Filter(BlockValues.Of(block)) : null;
+
+    private static RequirementKind Filter(string key, Func<Requirements, FilterTarget?> target, Func<FilterShape, bool> shapes, string reason) =>
+        new(key, ["DR530", "DR410"], r => target(r)?.Span,
+            r => $"{Format(target(r)!.Value.Value)} ± {target(r)!.Within.Value.FormatPercent()}")
+        {
+            AppliesTo = (_, stage, _) => FilterOf(stage) is { } f && shapes(f.Shape),
+            NotApplicableReason = reason,
+        };
+
+    // A Q or a gain is a plain number on the page, a frequency carries its unit.
+    private static string Format(Quantities.Quantity q) =>
+        q.Dimension == Quantities.Dimension.Ratio ? q.Value.ToString("0.###", CultureInfo.InvariantCulture) : q.Format();
 
     /// <summary>Rule ids that may judge each requirement key.</summary>
     public static IReadOnlyDictionary<string, IReadOnlyList<string>> Rules { get; } =
