@@ -24,9 +24,8 @@ internal sealed class FilterResponseRule : Rule
                 continue;
             }
 
-            var minus3 = measured.MinusThreeDb(stage.Ideal.Shape);
-            if (double.IsFinite(minus3.Low)) evaluation.Record(stage.Id, new Figure("lower −3 dB frequency", minus3.Low, "Hz"));
-            if (double.IsFinite(minus3.High)) evaluation.Record(stage.Id, new Figure("upper −3 dB frequency", minus3.High, "Hz"));
+            if (double.IsFinite(measured.LowerMinus3Db)) evaluation.Record(stage.Id, new Figure("lower −3 dB frequency", measured.LowerMinus3Db, "Hz"));
+            if (double.IsFinite(measured.UpperMinus3Db)) evaluation.Record(stage.Id, new Figure("upper −3 dB frequency", measured.UpperMinus3Db, "Hz"));
             var judged = stage.Targets().ToDictionary(t => t.Name, StringComparer.Ordinal);
             foreach (var (name, value, unit) in new[] { ("f0", measured.F0, "Hz"), ("Q", measured.Q, "1"), ("pass-band gain", measured.PassbandGain, "1") })
             {
@@ -52,7 +51,7 @@ internal sealed class FilterResponseRule : Rule
                     ["stage"] = stage.Id,
                     ["figure"] = key,
                     ["measured"] = t.Say(value),
-                    ["ideal"] = t.Say(t.Of(new MeasuredFilter(stage.Ideal.F0, stage.Ideal.Q, Math.Abs(stage.Ideal.PassbandGain), [], []))),
+                    ["ideal"] = t.Say(t.Of(new MeasuredFilter(stage.Ideal.F0, stage.Ideal.Q, Math.Abs(stage.Ideal.PassbandGain), double.NaN, double.NaN))),
                     ["target"] = t.Say(target),
                     ["within"] = Say.Percent(within),
                     ["error"] = Say.Percent(error),

@@ -11,42 +11,58 @@ namespace DesignRules.Rules.Evaluation.Filters;
 /// <param name="F0">Natural (centre) frequency, Hz.</param>
 /// <param name="Q">Quality factor.</param>
 /// <param name="PassbandGain">Gain magnitude in the pass band (at the centre for a band-pass).</param>
-/// <param name="Frequencies">The swept frequencies, Hz.</param>
-/// <param name="Response">The stage's response v(out)/v(in) at each frequency.</param>
-internal sealed record MeasuredFilter(double F0, double Q, double PassbandGain, IReadOnlyList<double> Frequencies, Complex[] Response)
-{
-    /// <summary>
-    /// The −3 dB frequencies (|H| = K/√2) that bound the pass band, Hz: the upper one of a low-pass, the lower one of a
-    /// high-pass, both of a band-pass; NaN where the sweep does not reach one.
-    /// </summary>
-    public (double Low, double High) MinusThreeDb(FilterShape shape)
-    {
-        var level = Response.Select(h => h.Magnitude - (PassbandGain / Math.Sqrt(2))).ToArray();
-        int peak = Array.IndexOf(level, level.Max());
-        return shape switch
-        {
-            FilterShape.LowPass => (double.NaN, FilterFigures.ZeroCrossing(Frequencies, level, 0)),
-            FilterShape.HighPass => (FilterFigures.ZeroCrossingBelow(Frequencies, level, level.Length - 1), double.NaN),
-            _ => (FilterFigures.ZeroCrossingBelow(Frequencies, level, peak), FilterFigures.ZeroCrossing(Frequencies, level, peak)),
-        };
-    }
-}
+/// <param name="LowerMinus3Db">The −3 dB frequency below the pass band (high-pass, band-pass), Hz; NaN otherwise.</param>
+/// <param name="UpperMinus3Db">The −3 dB frequency above the pass band (low-pass, band-pass), Hz; NaN otherwise.</param>
+internal sealed record MeasuredFilter(double F0, double Q, double PassbandGain, double LowerMinus3Db, double UpperMinus3Db);
 
 /// <summary>
 /// Measures a filter stage from the engine: an AC sweep of the whole chain around the ideal f0 (40 points per decade,
 /// f0/10 … 10·f0), the stage's response H = v(out)/v(in), and from it f0 where the second-order denominator is purely
 /// imaginary — Re(H·sign K) changes sign for a low- and high-pass, Im(H·sign K) for a band-pass — Q as |H(f0)|/K for a
-/// low- and high-pass (K at f0/10 or 10·f0, within 0.01 % of the pass-band gain for Q near 0.7) and as f0 over the −3 dB
-/// width for a band-pass (standard second-order relations), each crossing interpolated linearly in log-frequency.
+/// low- and high-pass (K at f0/1000 or 30·f0) and as f0 over the −3 dB
+/// width for a band-pass (standard second-order relations). Each crossing found on the coarse sweep is refined on a
+/// second sweep of 32 points inside its interval, then interpolated linearly in log-frequency.
 /// </summary>
 internal static class FilterFigures
 {
     public const int PointsPerDecade = 40;
 
+    private const int RefinePoints = 32;
+
     public static MeasuredFilter? Measure(ElaboratedChain chain, StageProbe stage, FilterResponse ideal)
     {
-        var sweep = AcSweep.Decades(chain.SourceId, ideal.F0 / 10, ideal.F0 * 10, PointsPerDecade);
-        var ac = Simulate.AcSweep(chain.Circuit, sweep);
+        var f = Decades(ideal.F0 / 10, ideal.F0 * 10);
+        var h = Response(chain, stage, f);
+        if (h is null)
+        {
+            return null;
+        }
+
+        double sign = ideal.PassbandGain < 0 ? -1 : 1;
+        Func<Complex, double> quadrature = ideal.Shape == FilterShape.BandPass ? x => (x * sign).Imaginary : x => (x * sign).Real;
+        double f0 = Refine(chain, stage, f, h.Select(quadrature).ToArray(), 0, up: true, quadrature);
+        double atF0 = double.IsFinite(f0) ? Response(chain, stage, [f0])?[0].Magnitude ?? double.NaN : double.NaN;
+        // K far into the pass band: at f0/1000 a low-pass is within 1e-6 of its DC gain; at 30·f0 a high-pass within
+        // (2 − 1/Q²)/1800 of its high-frequency gain (0.06 % for Q = 1), where the amplifier still has loop gain to spare.
+        double k = ideal.Shape switch
+        {
+            FilterShape.LowPass => Response(chain, stage, [ideal.F0 / 1000])?[0].Magnitude ?? double.NaN,
+            FilterShape.HighPass => Response(chain, stage, [ideal.F0 * 30])?[0].Magnitude ?? double.NaN,
+            _ => atF0,
+        };
+        Func<Complex, double> level = x => x.Magnitude - (k / Math.Sqrt(2));
+        var levels = h.Select(level).ToArray();
+        int peak = Array.IndexOf(levels, levels.Max());
+        double lower = ideal.Shape == FilterShape.LowPass ? double.NaN : Refine(chain, stage, f, levels, ideal.Shape == FilterShape.HighPass ? levels.Length - 1 : peak, up: false, level);
+        double upper = ideal.Shape == FilterShape.HighPass ? double.NaN : Refine(chain, stage, f, levels, ideal.Shape == FilterShape.LowPass ? 0 : peak, up: true, level);
+        double q = ideal.Shape == FilterShape.BandPass ? f0 / (upper - lower) : atF0 / k;
+        return double.IsFinite(f0) && double.IsFinite(q) && k > 0 ? new MeasuredFilter(f0, q, k, lower, upper) : null;
+    }
+
+    /// <summary>The stage's response v(out)/v(in) at the given frequencies; null when the AC analysis failed.</summary>
+    private static Complex[]? Response(ElaboratedChain chain, StageProbe stage, double[] frequencies)
+    {
+        var ac = Simulate.AcSweep(chain.Circuit, AcSweep.List(chain.SourceId, frequencies));
         if (!ac.Succeeded)
         {
             return null;
@@ -54,31 +70,40 @@ internal static class FilterFigures
 
         var vin = ac.Voltage(stage.InputNode);
         var vout = ac.Voltage(stage.OutputNode);
-        var f = ac.Frequencies;
-        var h = new Complex[f.Count];
-        for (int i = 0; i < h.Length; i++) h[i] = vin[i] == Complex.Zero ? Complex.Zero : vout[i] / vin[i];
-        double sign = ideal.PassbandGain < 0 ? -1 : 1;
-        var signed = h.Select(x => x * sign).ToArray();
-        double f0, q, k;
-        if (ideal.Shape == FilterShape.BandPass)
+        return vin.Select((v, i) => v == Complex.Zero ? Complex.Zero : vout[i] / v).ToArray();
+    }
+
+    /// <summary>The sign change of <paramref name="y"/> nearest <paramref name="start"/> in one direction, refined on a fine sweep of its interval; NaN if none.</summary>
+    private static double Refine(ElaboratedChain chain, StageProbe stage, double[] f, double[] y, int start, bool up, Func<Complex, double> of)
+    {
+        int i = up ? Next(y, start) : Previous(y, start);
+        if (i < 0)
         {
-            f0 = ZeroCrossing(f, signed.Select(x => x.Imaginary).ToArray(), 0);
-            k = Interpolate(f, h.Select(x => x.Magnitude).ToArray(), f0);
-            var level = h.Select(x => x.Magnitude - (k / Math.Sqrt(2))).ToArray();
-            int peak = Array.IndexOf(level, level.Max());
-            double low = ZeroCrossingBelow(f, level, peak);
-            double high = ZeroCrossing(f, level, peak);
-            q = f0 / (high - low);
-        }
-        else
-        {
-            f0 = ZeroCrossing(f, signed.Select(x => x.Real).ToArray(), 0);
-            k = ideal.Shape == FilterShape.LowPass ? h[0].Magnitude : h[^1].Magnitude;
-            q = Interpolate(f, h.Select(x => x.Magnitude).ToArray(), f0) / k;
+            return double.NaN;
         }
 
-        return double.IsFinite(f0) && double.IsFinite(q) && k > 0 ? new MeasuredFilter(f0, q, k, f, h) : null;
+        var fine = Geometric(f[i - 1], f[i], RefinePoints);
+        var h = Response(chain, stage, fine);
+        return h is null ? Between(f[i - 1], f[i], y[i - 1], y[i]) : ZeroCrossing(fine, h.Select(of).ToArray(), 0);
     }
+
+    private static int Next(double[] y, int start)
+    {
+        for (int i = start + 1; i < y.Length; i++) if (Math.Sign(y[i - 1]) != Math.Sign(y[i]) || y[i] == 0) return i;
+        return -1;
+    }
+
+    private static int Previous(double[] y, int start)
+    {
+        for (int i = start; i > 0; i--) if (Math.Sign(y[i - 1]) != Math.Sign(y[i]) || y[i - 1] == 0) return i;
+        return -1;
+    }
+
+    private static double[] Decades(double start, double stop) =>
+        Geometric(start, stop, (int)Math.Round(Math.Log10(stop / start) * PointsPerDecade) + 1);
+
+    private static double[] Geometric(double start, double stop, int count) =>
+        Enumerable.Range(0, count).Select(i => start * Math.Pow(stop / start, i / (double)(count - 1))).ToArray();
 
     /// <summary>The attenuation |K| / |H(f)| of the stage at one frequency, from its own AC point.</summary>
     public static double? Attenuation(ElaboratedChain chain, StageProbe stage, double frequency, double passbandGain)
@@ -105,36 +130,11 @@ internal static class FilterFigures
         return double.NaN;
     }
 
-    /// <summary>The last frequency before index <paramref name="start"/> where <paramref name="y"/> changes sign, searching downwards; NaN if none.</summary>
-    internal static double ZeroCrossingBelow(IReadOnlyList<double> f, double[] y, int start)
-    {
-        for (int i = start; i > 0; i--)
-        {
-            if (Math.Sign(y[i - 1]) != Math.Sign(y[i]) || y[i - 1] == 0) return Between(f[i - 1], f[i], y[i - 1], y[i]);
-        }
-
-        return double.NaN;
-    }
-
     private static double Between(double fa, double fb, double ya, double yb)
     {
         double t = ya == yb ? 0 : ya / (ya - yb);
         double la = Math.Log10(fa), lb = Math.Log10(fb);
         return Math.Pow(10, la + ((lb - la) * t));
-    }
-
-    private static double Interpolate(IReadOnlyList<double> f, double[] y, double at)
-    {
-        for (int i = 1; i < f.Count; i++)
-        {
-            if (f[i] >= at)
-            {
-                double t = (Math.Log10(at) - Math.Log10(f[i - 1])) / (Math.Log10(f[i]) - Math.Log10(f[i - 1]));
-                return y[i - 1] + ((y[i] - y[i - 1]) * t);
-            }
-        }
-
-        return double.NaN;
     }
 }
 
