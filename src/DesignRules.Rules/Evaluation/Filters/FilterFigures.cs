@@ -16,7 +16,7 @@ namespace DesignRules.Rules.Evaluation.Filters;
 internal sealed record MeasuredFilter(double F0, double Q, double PassbandGain, double LowerMinus3Db, double UpperMinus3Db);
 
 /// <summary>
-/// Measures a filter stage from the engine: an AC sweep of the whole chain around the ideal f0 (40 points per decade,
+/// Measures a filter stage from the engine: an AC sweep of the whole chain around the ideal f0 (20 points per decade,
 /// f0/10 … 10·f0), the stage's response H = v(out)/v(in), and from it f0 where the second-order denominator is purely
 /// imaginary — Re(H·sign K) changes sign for a low- and high-pass, Im(H·sign K) for a band-pass — Q as |H(f0)|/K for a
 /// low- and high-pass (K at f0/1000 or 30·f0) and as f0 over the −3 dB
@@ -25,36 +25,39 @@ internal sealed record MeasuredFilter(double F0, double Q, double PassbandGain, 
 /// </summary>
 internal static class FilterFigures
 {
-    public const int PointsPerDecade = 40;
+    public const int PointsPerDecade = 20;
 
     private const int RefinePoints = 32;
 
-    public static MeasuredFilter? Measure(ElaboratedChain chain, StageProbe stage, FilterResponse ideal)
+    /// <summary>Measures f0, Q and K; with <paramref name="edges"/> also the −3 dB frequencies (a band-pass always needs them for Q).</summary>
+    public static MeasuredFilter? Measure(ElaboratedChain chain, StageProbe stage, FilterResponse ideal, bool edges = true)
     {
+        // One sweep holds the coarse grid and the point far into the pass band where K is read: at f0/1000 a low-pass is
+        // within 1e-6 of its DC gain; at 30·f0 a high-pass within (2 − 1/Q²)/1800 of its high-frequency gain (0.06 % for
+        // Q = 1), where the amplifier still has loop gain to spare.
         var f = Decades(ideal.F0 / 10, ideal.F0 * 10);
-        var h = Response(chain, stage, f);
-        if (h is null)
+        double kAt = ideal.Shape == FilterShape.HighPass ? ideal.F0 * 30 : ideal.F0 / 1000;
+        var all = Response(chain, stage, [.. f, kAt]);
+        if (all is null)
         {
             return null;
         }
 
+        var h = all[..^1];
         double sign = ideal.PassbandGain < 0 ? -1 : 1;
         Func<Complex, double> quadrature = ideal.Shape == FilterShape.BandPass ? x => (x * sign).Imaginary : x => (x * sign).Real;
-        double f0 = Refine(chain, stage, f, h.Select(quadrature).ToArray(), 0, up: true, quadrature);
-        double atF0 = double.IsFinite(f0) ? Response(chain, stage, [f0])?[0].Magnitude ?? double.NaN : double.NaN;
-        // K far into the pass band: at f0/1000 a low-pass is within 1e-6 of its DC gain; at 30·f0 a high-pass within
-        // (2 − 1/Q²)/1800 of its high-frequency gain (0.06 % for Q = 1), where the amplifier still has loop gain to spare.
-        double k = ideal.Shape switch
+        var (f0, atF0) = Refine(chain, stage, f, h.Select(quadrature).ToArray(), 0, up: true, quadrature);
+        double k = ideal.Shape == FilterShape.BandPass ? atF0 : all[^1].Magnitude;
+        double lower = double.NaN, upper = double.NaN;
+        if (edges || ideal.Shape == FilterShape.BandPass)
         {
-            FilterShape.LowPass => Response(chain, stage, [ideal.F0 / 1000])?[0].Magnitude ?? double.NaN,
-            FilterShape.HighPass => Response(chain, stage, [ideal.F0 * 30])?[0].Magnitude ?? double.NaN,
-            _ => atF0,
-        };
-        Func<Complex, double> level = x => x.Magnitude - (k / Math.Sqrt(2));
-        var levels = h.Select(level).ToArray();
-        int peak = Array.IndexOf(levels, levels.Max());
-        double lower = ideal.Shape == FilterShape.LowPass ? double.NaN : Refine(chain, stage, f, levels, ideal.Shape == FilterShape.HighPass ? levels.Length - 1 : peak, up: false, level);
-        double upper = ideal.Shape == FilterShape.HighPass ? double.NaN : Refine(chain, stage, f, levels, ideal.Shape == FilterShape.LowPass ? 0 : peak, up: true, level);
+            Func<Complex, double> level = x => x.Magnitude - (k / Math.Sqrt(2));
+            var levels = h.Select(level).ToArray();
+            int peak = Array.IndexOf(levels, levels.Max());
+            if (ideal.Shape != FilterShape.LowPass) lower = Refine(chain, stage, f, levels, ideal.Shape == FilterShape.HighPass ? levels.Length - 1 : peak, up: false, level).At;
+            if (ideal.Shape != FilterShape.HighPass) upper = Refine(chain, stage, f, levels, ideal.Shape == FilterShape.LowPass ? 0 : peak, up: true, level).At;
+        }
+
         double q = ideal.Shape == FilterShape.BandPass ? f0 / (upper - lower) : atF0 / k;
         return double.IsFinite(f0) && double.IsFinite(q) && k > 0 ? new MeasuredFilter(f0, q, k, lower, upper) : null;
     }
@@ -73,18 +76,37 @@ internal static class FilterFigures
         return vin.Select((v, i) => v == Complex.Zero ? Complex.Zero : vout[i] / v).ToArray();
     }
 
-    /// <summary>The sign change of <paramref name="y"/> nearest <paramref name="start"/> in one direction, refined on a fine sweep of its interval; NaN if none.</summary>
-    private static double Refine(ElaboratedChain chain, StageProbe stage, double[] f, double[] y, int start, bool up, Func<Complex, double> of)
+    /// <summary>
+    /// The sign change of <paramref name="y"/> nearest <paramref name="start"/> in one direction, refined on a fine sweep of
+    /// its interval (steps of 0.2 % at 20 points per decade), with |H| there; NaN if none.
+    /// </summary>
+    private static (double At, double Magnitude) Refine(ElaboratedChain chain, StageProbe stage, double[] f, double[] y, int start, bool up, Func<Complex, double> of)
     {
         int i = up ? Next(y, start) : Previous(y, start);
         if (i < 0)
         {
-            return double.NaN;
+            return (double.NaN, double.NaN);
         }
 
         var fine = Geometric(f[i - 1], f[i], RefinePoints);
         var h = Response(chain, stage, fine);
-        return h is null ? Between(f[i - 1], f[i], y[i - 1], y[i]) : ZeroCrossing(fine, h.Select(of).ToArray(), 0);
+        if (h is null)
+        {
+            return (Between(f[i - 1], f[i], y[i - 1], y[i]), double.NaN);
+        }
+
+        var fy = h.Select(of).ToArray();
+        for (int n = 1; n < fine.Length; n++)
+        {
+            if (Math.Sign(fy[n - 1]) != Math.Sign(fy[n]) || fy[n] == 0)
+            {
+                double at = Between(fine[n - 1], fine[n], fy[n - 1], fy[n]);
+                double t = (Math.Log(at) - Math.Log(fine[n - 1])) / (Math.Log(fine[n]) - Math.Log(fine[n - 1]));
+                return (at, h[n - 1].Magnitude + ((h[n].Magnitude - h[n - 1].Magnitude) * t));
+            }
+        }
+
+        return (double.NaN, double.NaN);
     }
 
     private static int Next(double[] y, int start)
@@ -179,7 +201,7 @@ internal sealed record FilterTolerance(MeasuredFilter Nominal, Interval F0, Inte
             for (int i = 0; i < parts.Length; i++) values[parts[i].ElementId] = parts[i].NominalValue * (1 + (u[i] * parts[i].Tolerance));
             var built = ChainElaborator.Elaborate(evaluation.Design, chain.Options with { Values = values });
             var probe = built.Succeeded ? built.Stage(stage.StageId) : null;
-            return probe is null ? null : FilterFigures.Measure(built, probe, ideal);
+            return probe is null ? null : FilterFigures.Measure(built, probe, ideal, edges: false);
         }
 
         var corners = new List<double[]>();
