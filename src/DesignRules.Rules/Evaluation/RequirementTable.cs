@@ -80,7 +80,7 @@ public static class RequirementTable
         Filter("q", r => r.Q, _ => true, "Q is measured on the filter blocks"),
         Filter("passband-gain", r => r.PassbandGain, _ => true, "the pass-band gain is measured on the filter blocks"),
         new("stopband", ["DR531"], r => r.Stopband?.Span,
-            r => $"at least {r.Stopband!.Attenuation.Value.Format()} at {r.Stopband.Frequency.Value.Format()}")
+            r => $"at least {(20 * Math.Log10(r.Stopband!.Attenuation.Value.Value)).ToString("0.#", CultureInfo.InvariantCulture)} dB at {r.Stopband.Frequency.Value.Format()}")
         {
             AppliesTo = (_, stage, _) => FilterOf(stage) is not null,
             NotApplicableReason = "stop-band attenuation is measured on the filter blocks",
