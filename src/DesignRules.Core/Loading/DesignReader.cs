@@ -62,6 +62,7 @@ internal static class DesignReader
         var (id, title, summary, _) = header;
 
         var series = root.Choice("e-series", SeriesNames, required: false);
+        var capacitorSeries = root.Choice("capacitor-e-series", SeriesNames, required: false);
         var supplies = ReadSupplies(root);
         var source = ReadSource(root);
         var load = ReadLoad(root);
@@ -77,7 +78,11 @@ internal static class DesignReader
         }
 
         return new Design(id, title, summary, file, series is null ? null : new Located<string>(series.Value, series.Span),
-            supplies, source, load, stages, requirements, waivers, libraries) { Hazards = hazards };
+            supplies, source, load, stages, requirements, waivers, libraries)
+        {
+            Hazards = hazards,
+            CapacitorESeries = capacitorSeries is null ? null : new Located<string>(capacitorSeries.Value, capacitorSeries.Span),
+        };
     }
 
     /// <summary>

@@ -32,6 +32,9 @@ public sealed record Design(
 {
     /// <summary>The hazardous energy the chain connects to beyond its own supplies, as declared (null when not declared).</summary>
     public Hazards? Hazards { get; init; }
+
+    /// <summary>The preferred-value series capacitors must come from, if declared (e.g. "E12"); capacitors have their own, coarser series.</summary>
+    public Located<string>? CapacitorESeries { get; init; }
 }
 
 /// <summary>The supply rails. A single-supply design has a negative rail of 0 V.</summary>
