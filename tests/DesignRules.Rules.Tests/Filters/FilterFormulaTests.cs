@@ -14,6 +14,9 @@ public sealed class FilterFormulaTests
     [InlineData("filters/butterworth-sallen-key.yaml")]
     [InlineData("filters/unequal-sallen-key.yaml")]
     [InlineData("filters/mfb-band-pass-equal-c.yaml")]
+    [InlineData("filters/sallen-key-high-pass.yaml")]
+    [InlineData("filters/sallen-key-low-pass-equal.yaml")]
+    [InlineData("filters/mfb-low-pass.yaml")]
     public void Each_fixture_yields_exactly_its_stated_filter_findings(string fixture) => RuleFixture.Verify(fixture);
 
     [Theory]
@@ -53,6 +56,45 @@ public sealed class FilterFormulaTests
         Assert.Equal(f0, figures["measured centre frequency"], f0 * 2e-3);
         Assert.Equal(gain, figures["measured pass-band gain"], gain * 2e-3);
         Assert.Equal(q, figures["measured Q"], q * 5e-3);
+    }
+
+    [Fact]
+    public void A_unity_gain_Sallen_Key_high_pass_has_the_textbook_f0_and_Q()
+    {
+        // High-pass dual of the unity-gain form: f0 = 1/(2π·√(R1R2C1C2)), Q = √(R1R2C1C2)/(R1·(C1 + C2)) (Schaumann & Van Valkenburg).
+        double c1 = 10e-9, c2 = 10e-9, r1 = 10e3, r2 = 22e3;
+        double f0 = 1 / (2 * Math.PI * Math.Sqrt(r1 * r2 * c1 * c2));
+        double q = Math.Sqrt(r1 * r2 * c1 * c2) / (r1 * (c1 + c2));
+        var figures = Figures("filters/sallen-key-high-pass.yaml");
+        Assert.Equal(f0, figures["measured f0"], f0 * 2e-3);
+        Assert.Equal(q, figures["measured Q"], q * 3e-3);
+        Assert.Equal(1, figures["measured pass-band gain"], 2e-3);
+    }
+
+    [Fact]
+    public void An_equal_component_Sallen_Key_low_pass_has_Q_of_one_over_three_minus_K()
+    {
+        // Equal components: f0 = 1/(2πRC), K = 1 + Rf/Rg, Q = 1/(3 − K); K = 1.586 gives the Butterworth Q ≈ 0.707.
+        double r = 10e3, c = 10e-9, k = 1 + (5.86e3 / 10e3);
+        double f0 = 1 / (2 * Math.PI * r * c);
+        var figures = Figures("filters/sallen-key-low-pass-equal.yaml");
+        Assert.Equal(f0, figures["measured f0"], f0 * 2e-3);
+        Assert.Equal(1 / (3 - k), figures["measured Q"], 3e-3);
+        Assert.Equal(k, figures["measured pass-band gain"], k * 1e-3);
+    }
+
+    [Fact]
+    public void A_multiple_feedback_low_pass_has_the_gain_f0_and_Q_of_its_nodal_analysis()
+    {
+        // Nodal analysis of the multiple-feedback low-pass (r1 in, c1 to ground, r2 to the output, r3 to the − input, c2 across
+        // the amplifier): H = −(R2/R1)/(s²R2R3C1C2 + sC2(R2 + R3 + R2R3/R1) + 1), the form the textbook gives.
+        double r1 = 10e3, r2 = 20e3, r3 = 15e3, c1 = 47e-9, c2 = 2.2e-9;
+        double f0 = 1 / (2 * Math.PI * Math.Sqrt(r2 * r3 * c1 * c2));
+        double q = Math.Sqrt(r2 * r3 * c1 * c2) / (c2 * (r2 + r3 + (r2 * r3 / r1)));
+        var figures = Figures("filters/mfb-low-pass.yaml");
+        Assert.Equal(f0, figures["measured f0"], f0 * 2e-3);
+        Assert.Equal(q, figures["measured Q"], q * 3e-3);
+        Assert.Equal(r2 / r1, figures["measured pass-band gain"], 2e-3);
     }
 
     private static Dictionary<string, double> Figures(string fixture)
