@@ -1,4 +1,3 @@
-using DesignRules.Elaboration.Blocks;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
@@ -40,7 +39,7 @@ public static class ChainElaborator
         double? lowest = frequencies.Length > 0 ? frequencies.Min() * frequencyScale : null;
         double? highest = frequencies.Length > 0 ? frequencies.Max() * frequencyScale : null;
 
-        bool split = source.CommonMode is not null && design.Stages.Count > 0 && design.Stages[0] is BlockStage { Block.Name: "difference" };
+        bool split = source.CommonMode is not null && design.Stages.Count > 0 && design.Stages[0] is BlockStage { Block.TakesDifferentialInput: true };
         double commonMode = split ? source.CommonMode!.Value.Value : 0;
         double rs = source.Impedance.Value.Value;
         string emf = "source.emf";
@@ -70,7 +69,7 @@ public static class ChainElaborator
             var builder = new StageBuilder(chain, stage, input, reference, commonMode);
             StageProbe? probe = stage switch
             {
-                BlockStage block when BlockBuilders.All.TryGetValue(block.Block.Name, out var blockBuilder) => blockBuilder.Build(builder),
+                BlockStage block => builder.Finish(block.Block.Build(builder)),
                 NetlistStage netlist => NetlistStageBuilder.Build(builder, netlist),
                 _ => null,
             };

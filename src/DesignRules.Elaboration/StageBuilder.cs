@@ -1,3 +1,4 @@
+using DesignRules.Blocks;
 using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Simulation;
@@ -36,7 +37,7 @@ internal sealed class ChainContext(Circuit circuit, ElaborationOptions options, 
 /// Adds the elements of one stage to the chain's circuit with ids and local node names prefixed by the stage id, applying
 /// the options' overrides, and collects the stage's probe.
 /// </summary>
-internal sealed class StageBuilder
+internal sealed class StageBuilder : IBlockCircuit
 {
     private readonly ChainContext chain;
     private readonly List<AmplifierProbe> amplifiers = [];
@@ -68,6 +69,9 @@ internal sealed class StageBuilder
     public double CommonMode { get; }
 
     public ElaborationOptions Options => chain.Options;
+
+    /// <inheritdoc/>
+    public string Ground => Circuit.Ground;
 
     private BlockStage? Block => Stage as BlockStage;
 
@@ -106,10 +110,18 @@ internal sealed class StageBuilder
     /// <summary>Adds a capacitor named by a block value between two nodes.</summary>
     public void Capacitor(string name, string a, string b) => Passive(name, ElementKind.Capacitor, a, b);
 
-    private void Passive(string name, ElementKind kind, string a, string b)
+    /// <summary>Adds one of several resistors sharing a block value, as its own element (its own override key and tolerance).</summary>
+    public void Resistor(string value, string element, string a, string b) => Passive(value, element, ElementKind.Resistor, a, b);
+
+    /// <summary>Adds one of several capacitors sharing a block value, as its own element.</summary>
+    public void Capacitor(string value, string element, string a, string b) => Passive(value, element, ElementKind.Capacitor, a, b);
+
+    private void Passive(string name, ElementKind kind, string a, string b) => Passive(name, name, kind, a, b);
+
+    private void Passive(string valueName, string element, ElementKind kind, string a, string b)
     {
-        var value = Block?.Values.GetValueOrDefault(name);
-        Passive(name, kind, a, b, value?.Value.Value.Value ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
+        var value = Block?.Values.GetValueOrDefault(valueName);
+        Passive(element, kind, a, b, value?.Value.Value.Value ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
     }
 
     /// <summary>Adds a resistor, capacitor or inductor with an explicit nominal value (overrides still apply).</summary>
@@ -134,6 +146,9 @@ internal sealed class StageBuilder
 
         components.Add(new ComponentProbe(name, id, kind, a, b, value, nominal, resistorFamily, capacitorFamily, span));
     }
+
+    /// <summary>Adds an independent DC voltage source local to the stage (e.g. a bias level), located at the stage.</summary>
+    public void Source(string name, string plus, string minus, double volts) => Source(name, plus, minus, volts, Stage.Span);
 
     /// <summary>Adds an independent DC voltage source local to the stage (e.g. a bias level).</summary>
     public void Source(string name, string plus, string minus, double volts, SourceSpan span)
@@ -207,6 +222,10 @@ internal sealed class StageBuilder
 
     /// <summary>Marks a node held at virtual ground by feedback.</summary>
     public void SummingJunction(string node) => junctions.Add(node);
+
+    /// <summary>The probe of a finished block stage: its output node and ideal transfer as the block's descriptor gives them.</summary>
+    public StageProbe Finish(BlockOutput output) =>
+        Finish(output.Node, new IdealTransfer(output.Kind, output.SlopePositive, output.SlopeNegative, output.Offset), output.TimeConstant);
 
     /// <summary>The probe of the finished stage.</summary>
     public StageProbe Finish(string output, IdealTransfer transfer, double? timeConstant = null) =>

@@ -3,6 +3,7 @@ using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Quantities;
 using DesignRules.Rules;
+using DesignRules.Rules.Evaluation;
 using Scriban.Runtime;
 
 namespace DesignRules.Pages;
@@ -224,24 +225,9 @@ internal static class PageModel
         var list = new ScriptArray();
         foreach (var stage in design.Stages)
         {
-            var r = stage.Requirements;
-            foreach (var (name, text) in new (string, string?)[]
-                     {
-                         ("transfer", r.Transfer is null || r.Gain is not null ? null : Words(r.Transfer.Value.ToString())),
-                         ("gain", r.Gain?.Value.Format()),
-                         ("accuracy", r.Accuracy is null ? null : "±" + r.Accuracy.Value.FormatPercent()),
-                         ("glitch", r.Glitch?.Value.Format()),
-                         ("yield", r.Yield?.Value.FormatPercent()),
-                         ("bandwidth", r.Bandwidth?.Value.Format()),
-                         ("output-offset", r.OutputOffset?.Value.Format()),
-                         ("min-signal", r.MinSignal?.Value.Format()),
-                     })
+            foreach (var (kind, _) in RequirementTable.Stated(stage.Requirements))
             {
-                if (text is null)
-                {
-                    continue;
-                }
-
+                string name = kind.Key, text = kind.Text(stage.Requirements);
                 // The verdict comes from the rules that judged the requirement (one table, in the check), never from here.
                 var found = verdicts.FirstOrDefault(v => v.StageId == stage.Id.Value && v.Name == name);
                 var verdict = found is null ? "not checked"
@@ -279,6 +265,4 @@ internal static class PageModel
 
     private static string Title(Design design) => design.Title.Length > 0 ? design.Title : design.Id.Value;
 
-    private static string Words(string pascal) =>
-        string.Concat(pascal.Select((c, i) => i > 0 && char.IsUpper(c) ? "-" + char.ToLower(c, CultureInfo.InvariantCulture) : char.ToLower(c, CultureInfo.InvariantCulture).ToString()));
 }

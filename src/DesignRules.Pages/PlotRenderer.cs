@@ -78,6 +78,20 @@ internal static class PlotRenderer
 
         model.Series.Add(magnitude);
         model.Series.Add(phase);
+        foreach (var mark in plot.Marks)
+        {
+            var line = Limit(mark.Frequency, mark.Label, horizontal: false);
+            line.YAxisKey = "magnitude";
+            model.Annotations.Add(line);
+        }
+
+        if (plot.StopbandLimitDb is { } stopband)
+        {
+            var line = Limit(stopband, "stop-band limit", horizontal: true);
+            line.YAxisKey = "magnitude";
+            model.Annotations.Add(line);
+        }
+
         return Export(model);
     }
 

@@ -126,22 +126,11 @@ public static class DesignCheck
         var list = new List<RequirementVerdict>();
         foreach (var stage in design.Stages)
         {
-            var r = stage.Requirements;
-            foreach (var (name, stated) in new (string, bool)[]
-                     {
-                         ("transfer", r.Transfer is not null && r.Gain is null), ("gain", r.Gain is not null), ("accuracy", r.Accuracy is not null),
-                         ("glitch", r.Glitch is not null), ("yield", r.Yield is not null), ("bandwidth", r.Bandwidth is not null),
-                         ("output-offset", r.OutputOffset is not null), ("min-signal", r.MinSignal is not null),
-                         ("cmrr", r.CommonModeRejection is not null),
-                     })
+            foreach (var (kind, _) in RequirementTable.Stated(stage.Requirements))
             {
-                if (!stated)
-                {
-                    continue;
-                }
-
+                string name = kind.Key;
                 string id = stage.Id.Value;
-                var rules = RequirementTable.Rules[name];
+                var rules = kind.Rules;
                 var reports = findings.Where(f => f.StageId == id && rules.Contains(f.RuleId)).ToList();
                 var judgedBy = evaluation.Judgments.Where(j => j.Stage == id && j.Requirement == name).Select(j => j.Rule)
                     .Concat(reports.Select(f => f.RuleId)).Distinct().Order(StringComparer.Ordinal).ToList();

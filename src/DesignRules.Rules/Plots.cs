@@ -34,7 +34,19 @@ public sealed record TransientPlot(double Frequency, IReadOnlyList<double> Time,
 /// <param name="Frequency">Hertz, log-spaced.</param>
 /// <param name="MagnitudeDb">Gain in dB.</param>
 /// <param name="PhaseDegrees">Phase in degrees, unwrapped.</param>
-public sealed record BodePlot(IReadOnlyList<double> Frequency, IReadOnlyList<double> MagnitudeDb, IReadOnlyList<double> PhaseDegrees);
+public sealed record BodePlot(IReadOnlyList<double> Frequency, IReadOnlyList<double> MagnitudeDb, IReadOnlyList<double> PhaseDegrees)
+{
+    /// <summary>Vertical marks on a filter stage's response: the signal band's ends, the −3 dB points, the stop-band frequency.</summary>
+    public IReadOnlyList<ResponseMark> Marks { get; init; } = [];
+
+    /// <summary>The most a filter stage may pass at its stop-band frequency, dB (the pass-band level less the required attenuation).</summary>
+    public double? StopbandLimitDb { get; init; }
+}
+
+/// <summary>A vertical mark on a response plot.</summary>
+/// <param name="Frequency">Where, Hz.</param>
+/// <param name="Label">What it marks.</param>
+public sealed record ResponseMark(double Frequency, string Label);
 
 /// <summary>Monte Carlo samples of a stage's main figure with the requirement's limits.</summary>
 /// <param name="Figure">What was sampled, e.g. "gain".</param>

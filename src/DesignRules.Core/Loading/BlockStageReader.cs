@@ -1,3 +1,4 @@
+using DesignRules.Blocks;
 using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Quantities;
@@ -12,7 +13,7 @@ internal static class BlockStageReader
     {
         var d = m.Diagnostics;
         var blockName = m.Text("block", required: true, "a built-in block name");
-        BlockDefinition? block = null;
+        BlockDescriptor? block = null;
         if (blockName is not null && !BlockCatalog.All.TryGetValue(blockName.Value, out block))
         {
             d.Add(DesignFileDiagnostics.UnknownBlock.At(blockName.Span, blockName.Value,

@@ -62,6 +62,7 @@ internal static class DesignReader
         var (id, title, summary, _) = header;
 
         var series = root.Choice("e-series", SeriesNames, required: false);
+        var capacitorSeries = root.Choice("capacitor-e-series", SeriesNames, required: false);
         var supplies = ReadSupplies(root);
         var source = ReadSource(root);
         var load = ReadLoad(root);
@@ -77,7 +78,11 @@ internal static class DesignReader
         }
 
         return new Design(id, title, summary, file, series is null ? null : new Located<string>(series.Value, series.Span),
-            supplies, source, load, stages, requirements, waivers, libraries) { Hazards = hazards };
+            supplies, source, load, stages, requirements, waivers, libraries)
+        {
+            Hazards = hazards,
+            CapacitorESeries = capacitorSeries is null ? null : new Located<string>(capacitorSeries.Value, capacitorSeries.Span),
+        };
     }
 
     /// <summary>
@@ -406,8 +411,40 @@ internal static class DesignReader
         var minSignal = m.Quantity("min-signal", Dimension.Voltage, required: false, ValueChecks.Positive);
         var cmrr = m.Quantity("cmrr", Dimension.Ratio, required: false,
             q => q.Value is > 1 and <= 1e12 ? null : "a common-mode rejection is above 1 (0 dB) and at most 1e12 (240 dB), e.g. 80 dB or 10k");
+        var cutoff = FilterTargetOf(m, "cutoff", Dimension.Frequency, ValueChecks.Positive);
+        var centre = FilterTargetOf(m, "centre", Dimension.Frequency, ValueChecks.Positive);
+        var q = FilterTargetOf(m, "q", Dimension.Ratio, ValueChecks.PositiveWithin(1e-3, 1e3, "a Q lies between 0.001 and 1000"));
+        var passbandGain = FilterTargetOf(m, "passband-gain", Dimension.Ratio, ValueChecks.Within(1e-6, 1e7, "a gain magnitude lies between 1e-6 and 1e7"));
+        StopbandRequirement? stopband = null;
+        if (m.Child("stopband", $"the stop-band requirement of {m.What}", required: false, string.Empty) is { } sb)
+        {
+            var frequency = sb.Quantity("frequency", Dimension.Frequency, required: true, ValueChecks.Positive);
+            var attenuation = sb.Quantity("attenuation", Dimension.Ratio, required: true,
+                a => a.Value is > 1 and <= 1e12 ? null : "an attenuation is above 1 (0 dB) and at most 1e12 (240 dB), e.g. 40 dB");
+            sb.Finish();
+            stopband = frequency is null || attenuation is null ? null : new StopbandRequirement(frequency, attenuation, sb.Span);
+        }
+
         m.Finish();
-        return new Requirements(transfer, gain, accuracy, glitch, yield, bandwidth, offset, minSignal, m.Span) { CommonModeRejection = cmrr };
+        return new Requirements(transfer, gain, accuracy, glitch, yield, bandwidth, offset, minSignal, m.Span)
+        {
+            CommonModeRejection = cmrr, Cutoff = cutoff, Centre = centre, Q = q, PassbandGain = passbandGain, Stopband = stopband,
+        };
+    }
+
+    /// <summary>A filter figure written as <c>{ value: …, within: 2% }</c>.</summary>
+    private static FilterTarget? FilterTargetOf(MappingReader m, string key, Dimension dimension, Func<Quantity, string?> check)
+    {
+        var t = m.Child(key, $"the {key} requirement of {m.What}", required: false, string.Empty);
+        if (t is null)
+        {
+            return null;
+        }
+
+        var value = t.Quantity("value", dimension, required: true, check);
+        var within = t.Quantity("within", Dimension.Ratio, required: true, ValueChecks.OpenFraction);
+        t.Finish();
+        return value is null || within is null ? null : new FilterTarget(value, within, t.Span);
     }
 
     private static List<Waiver> ReadWaivers(MappingReader root, List<Stage>? stages)

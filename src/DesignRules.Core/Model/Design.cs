@@ -32,6 +32,9 @@ public sealed record Design(
 {
     /// <summary>The hazardous energy the chain connects to beyond its own supplies, as declared (null when not declared).</summary>
     public Hazards? Hazards { get; init; }
+
+    /// <summary>The preferred-value series capacitors must come from, if declared (e.g. "E12"); capacitors have their own, coarser series.</summary>
+    public Located<string>? CapacitorESeries { get; init; }
 }
 
 /// <summary>The supply rails. A single-supply design has a negative rail of 0 V.</summary>
@@ -132,9 +135,36 @@ public sealed record Requirements(
     /// </summary>
     public Located<Quantity>? CommonModeRejection { get; init; }
 
+    /// <summary>The −3 dB corner (the natural frequency f0) of a low- or high-pass filter stage, with its allowed deviation.</summary>
+    public FilterTarget? Cutoff { get; init; }
+
+    /// <summary>The centre frequency f0 of a band-pass filter stage, with its allowed deviation.</summary>
+    public FilterTarget? Centre { get; init; }
+
+    /// <summary>The quality factor Q of a filter stage, with its allowed deviation.</summary>
+    public FilterTarget? Q { get; init; }
+
+    /// <summary>The gain in the pass band (at the centre for a band-pass), with its allowed deviation.</summary>
+    public FilterTarget? PassbandGain { get; init; }
+
+    /// <summary>The least attenuation a filter stage must give at a frequency in its stop band.</summary>
+    public StopbandRequirement? Stopband { get; init; }
+
     /// <summary>No requirement at all.</summary>
     public static Requirements None(SourceSpan span) => new(null, null, null, null, null, null, null, null, span);
 }
+
+/// <summary>A filter figure a stage must reach, and how far the built circuit may be off it (relative).</summary>
+/// <param name="Value">The figure (a frequency, a Q, a gain).</param>
+/// <param name="Within">The allowed relative deviation (2 %).</param>
+/// <param name="Span">Where the requirement is written.</param>
+public sealed record FilterTarget(Located<Quantity> Value, Located<Quantity> Within, SourceSpan Span);
+
+/// <summary>The least attenuation relative to the pass band at one frequency of the stop band.</summary>
+/// <param name="Frequency">Where the attenuation is required.</param>
+/// <param name="Attenuation">The least attenuation as a ratio above 1 (40 dB is 100).</param>
+/// <param name="Span">Where the requirement is written.</param>
+public sealed record StopbandRequirement(Located<Quantity> Frequency, Located<Quantity> Attenuation, SourceSpan Span);
 
 /// <summary>A waived finding: rule, stage (or "*"), mandatory reason, optional expiry.</summary>
 /// <param name="Rule">The rule id.</param>

@@ -1,3 +1,4 @@
+using DesignRules.Blocks;
 using DesignRules.Diagnostics;
 using DesignRules.Quantities;
 
@@ -28,7 +29,7 @@ public sealed record ComponentValue(Located<string> Name, Located<Quantity> Valu
 /// <param name="Span">Where the stage is written.</param>
 public sealed record BlockStage(
     Located<string> Id,
-    BlockDefinition Block,
+    BlockDescriptor Block,
     Located<string> BlockName,
     IReadOnlyDictionary<string, AmplifierPart> Amplifiers,
     IReadOnlyDictionary<string, DiodePart> Diodes,

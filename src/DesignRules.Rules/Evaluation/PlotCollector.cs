@@ -78,12 +78,49 @@ internal static class PlotCollector
                 }
 
                 bode = new BodePlot(ac.Frequencies.ToArray(), magnitude, phase);
+                if (FilterMarks(evaluation, stage) is { } marks)
+                {
+                    bode = bode with { Marks = marks.Marks, StopbandLimitDb = marks.StopbandDb };
+                }
             }
 
             plots.Add(new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId)));
         }
 
         return plots;
+    }
+
+    /// <summary>A filter stage's marks: the signal band, the measured −3 dB points and the stop-band requirement.</summary>
+    private static (IReadOnlyList<ResponseMark> Marks, double? StopbandDb)? FilterMarks(DesignEvaluation evaluation, StageProbe stage)
+    {
+        var filter = Catalogue.Filters.FilterStage.Of(evaluation).FirstOrDefault(f => f.Id == stage.StageId);
+        if (filter?.Measured(evaluation) is not { } measured)
+        {
+            return null;
+        }
+
+        var marks = new List<ResponseMark>();
+        var source = evaluation.Design.Source.Waveform;
+        if (source.Band is { } band)
+        {
+            marks.Add(new ResponseMark(band.Value.Low.Value, "band low"));
+            marks.Add(new ResponseMark(band.Value.High.Value, "band high"));
+        }
+        else if (source.Frequency is { } frequency)
+        {
+            marks.Add(new ResponseMark(frequency.Value.Value, "signal"));
+        }
+
+        if (double.IsFinite(measured.LowerMinus3Db)) marks.Add(new ResponseMark(measured.LowerMinus3Db, "−3 dB"));
+        if (double.IsFinite(measured.UpperMinus3Db)) marks.Add(new ResponseMark(measured.UpperMinus3Db, "−3 dB"));
+        double? stopbandDb = null;
+        if (filter.Requirements.Stopband is { } stopband)
+        {
+            marks.Add(new ResponseMark(stopband.Frequency.Value.Value, "stop band"));
+            stopbandDb = 20 * Math.Log10(measured.PassbandGain / stopband.Attenuation.Value.Value);
+        }
+
+        return (marks, stopbandDb);
     }
 
     // Linear interpolation onto a uniform grid: the accepted time points of the engine are not uniform.

@@ -1,28 +1,117 @@
+using System.Globalization;
+using DesignRules.Blocks;
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
 namespace DesignRules.Rules.Evaluation;
 
 /// <summary>
+/// One kind of requirement: its key, how it reads on a page, which rules may judge it, and where a stage's requirement
+/// of this kind can be judged at all.
+/// </summary>
+/// <param name="Key">The key in <c>requires:</c>.</param>
+/// <param name="Rules">Rule ids that may judge it.</param>
+/// <param name="Stated">Where the requirement is written, or null when not stated.</param>
+/// <param name="Text">The stated value as a page shows it.</param>
+public sealed record RequirementKind(string Key, IReadOnlyList<string> Rules, Func<Requirements, SourceSpan?> Stated, Func<Requirements, string> Text)
+{
+    /// <summary>
+    /// When a stage's requirement of this kind can be judged (null: always), and the reason given (DR702) where it cannot.
+    /// </summary>
+    internal Func<Design, Stage, StageProbe?, bool>? AppliesTo { get; init; }
+
+    /// <summary>Why a stage's requirement of this kind cannot be judged where <see cref="AppliesTo"/> says no.</summary>
+    internal string? NotApplicableReason { get; init; }
+
+    /// <summary>
+    /// When a design-level requirement of this kind is judged on the whole chain (null: never; design-level requirements
+    /// are otherwise checked per stage).
+    /// </summary>
+    internal Func<ElaboratedChain, bool>? JudgedOnChain { get; init; }
+}
+
+/// <summary>
 /// The one table of which rules judge which requirement. A requirement's verdict comes only from the rules that judged
 /// it (<see cref="DesignEvaluation.Judged"/>): "not met" when one of them reported it, "met" when one judged it and none
-/// reported it, and "not checked" when none judged it.
+/// reported it, and "not checked" when none judged it. The check's verdicts, the pages and the unchecked-requirement rule
+/// (DR702) all read this table.
 /// </summary>
 public static class RequirementTable
 {
+    /// <summary>Every requirement kind, in the order pages list them.</summary>
+    public static IReadOnlyList<RequirementKind> All { get; } =
+    [
+        // A gain implies transfer: gain, so a transfer stated beside a gain is not a requirement of its own.
+        new("transfer", ["DR401", "DR404", "DR407"], r => r.Gain is null ? r.Transfer?.Span : null, r => Words(r.Transfer!.Value.ToString())),
+        new("gain", ["DR401", "DR402", "DR501"], r => r.Gain?.Span, r => r.Gain!.Value.Format()),
+        new("accuracy", ["DR302", "DR303", "DR304", "DR401", "DR402", "DR403", "DR404", "DR407", "DR501", "DR502"], r => r.Accuracy?.Span,
+            r => "±" + r.Accuracy!.Value.FormatPercent()),
+        new("glitch", ["DR102", "DR103"], r => r.Glitch?.Span, r => r.Glitch!.Value.Format())
+        {
+            AppliesTo = (_, _, probe) => probe is not null && StageProperties.IsRectifying(probe),
+            NotApplicableReason = "only rectifying stages have zero-crossing glitches",
+        },
+        new("yield", ["DR402", "DR406"], r => r.Yield?.Span, r => r.Yield!.Value.FormatPercent())
+        {
+            AppliesTo = (_, stage, _) => stage.Requirements.Accuracy is not null,
+            NotApplicableReason = "a yield needs an accuracy to count samples against",
+        },
+        new("bandwidth", ["DR501"], r => r.Bandwidth?.Span, r => r.Bandwidth!.Value.Format())
+        {
+            // DR501 checks a chain-level bandwidth when every stage is a linear gain stage.
+            JudgedOnChain = chain => chain.Stages.All(s => s.Transfer.Kind == TransferKind.Gain),
+        },
+        new("output-offset", ["DR405"], r => r.OutputOffset?.Span, r => r.OutputOffset!.Value.Format()),
+        new("min-signal", ["DR502"], r => r.MinSignal?.Span, r => r.MinSignal!.Value.Format())
+        {
+            AppliesTo = (_, _, probe) => probe is not null && StageProperties.IsRectifying(probe),
+            NotApplicableReason = "the smallest-signal check applies to precision rectifiers",
+        },
+        new("cmrr", ["DR403"], r => r.CommonModeRejection?.Span, r => r.CommonModeRejection!.Value.Format())
+        {
+            // DR403 measures common-mode rejection only where the chain feeds a differential stage from a split source.
+            AppliesTo = (design, stage, _) => design.Source.CommonMode is not null && design.Stages[0] == stage
+                && stage is BlockStage { Block.TakesDifferentialInput: true },
+            NotApplicableReason = "common-mode rejection is measured on a difference stage that is the first stage, fed from a source with a `common-mode` level",
+        },
+        Filter("cutoff", r => r.Cutoff, s => s is FilterShape.LowPass or FilterShape.HighPass, "a cutoff belongs to a low- or high-pass filter block (a band-pass states its `centre`)"),
+        Filter("centre", r => r.Centre, s => s is FilterShape.BandPass, "a centre frequency belongs to a band-pass filter block (a low- or high-pass states its `cutoff`)"),
+        Filter("q", r => r.Q, _ => true, "Q is measured on the filter blocks"),
+        Filter("passband-gain", r => r.PassbandGain, _ => true, "the pass-band gain is measured on the filter blocks"),
+        new("stopband", ["DR531"], r => r.Stopband?.Span,
+            r => $"at least {(20 * Math.Log10(r.Stopband!.Attenuation.Value.Value)).ToString("0.#", CultureInfo.InvariantCulture)} dB at {r.Stopband.Frequency.Value.Format()}")
+        {
+            AppliesTo = (_, stage, _) => FilterOf(stage) is not null,
+            NotApplicableReason = "stop-band attenuation is measured on the filter blocks",
+        },
+    ];
+
+    /// <summary>The ideal response of a filter block stage; null for any other stage.</summary>
+    internal static FilterResponse? FilterOf(Stage stage) => stage is BlockStage block ? block.Block.Filter(BlockValues.Of(block)) : null;
+
+    private static RequirementKind Filter(string key, Func<Requirements, FilterTarget?> target, Func<FilterShape, bool> shapes, string reason) =>
+        new(key, ["DR530", "DR410"], r => target(r)?.Span,
+            r => $"{Format(target(r)!.Value.Value)} ± {target(r)!.Within.Value.FormatPercent()}")
+        {
+            AppliesTo = (_, stage, _) => FilterOf(stage) is { } f && shapes(f.Shape),
+            NotApplicableReason = reason,
+        };
+
+    // A Q or a gain is a plain number on the page, a frequency carries its unit.
+    private static string Format(Quantities.Quantity q) =>
+        q.Dimension == Quantities.Dimension.Ratio ? q.Value.ToString("0.###", CultureInfo.InvariantCulture) : q.Format();
+
     /// <summary>Rule ids that may judge each requirement key.</summary>
-    public static IReadOnlyDictionary<string, IReadOnlyList<string>> Rules { get; } = new Dictionary<string, IReadOnlyList<string>>(StringComparer.Ordinal)
-    {
-        ["transfer"] = ["DR401", "DR404", "DR407"],
-        ["gain"] = ["DR401", "DR402", "DR501"],
-        ["accuracy"] = ["DR302", "DR303", "DR304", "DR401", "DR402", "DR403", "DR404", "DR407", "DR501", "DR502"],
-        ["glitch"] = ["DR102", "DR103"],
-        ["yield"] = ["DR402", "DR406"],
-        ["bandwidth"] = ["DR501"],
-        ["output-offset"] = ["DR405"],
-        ["min-signal"] = ["DR502"],
-        ["cmrr"] = ["DR403"],
-    };
+    public static IReadOnlyDictionary<string, IReadOnlyList<string>> Rules { get; } =
+        All.ToDictionary(k => k.Key, k => k.Rules, StringComparer.Ordinal);
+
+    /// <summary>The requirements stated in <paramref name="requirements"/>, in table order, with where each is written.</summary>
+    public static IEnumerable<(RequirementKind Kind, SourceSpan Span)> Stated(Requirements requirements) =>
+        All.Select(k => (Kind: k, Span: k.Stated(requirements))).Where(x => x.Span is not null).Select(x => (x.Kind, x.Span!));
+
+    private static string Words(string pascal) =>
+        string.Concat(pascal.Select((c, i) => i > 0 && char.IsUpper(c) ? "-" + char.ToLower(c, CultureInfo.InvariantCulture) : char.ToLower(c, CultureInfo.InvariantCulture).ToString()));
 }
 
 /// <summary>
@@ -32,9 +121,10 @@ public static class RequirementTable
 internal static class StageProperties
 {
     /// <summary>
-    /// True for a stage that rectifies: it holds a diode and its transfer (the one required, else the block's ideal one)
-    /// passes one or both half-cycles. A netlist gain stage with a clamp diode does not rectify.
+    /// True for a stage that rectifies: a block whose descriptor says so; a netlist that holds a diode and is required to
+    /// pass one or both half-cycles (a netlist gain stage with a clamp diode does not rectify).
     /// </summary>
-    public static bool IsRectifying(StageProbe probe) =>
-        probe.Diodes.Count > 0 && probe.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
+    public static bool IsRectifying(StageProbe probe) => probe.Stage is BlockStage block
+        ? block.Block.Rectifies
+        : probe.Diodes.Count > 0 && probe.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
 }

@@ -1,5 +1,6 @@
 using System.Text.Json;
 using System.Text.Json.Nodes;
+using DesignRules.Blocks;
 using DesignRules.Model;
 using Json.Schema;
 

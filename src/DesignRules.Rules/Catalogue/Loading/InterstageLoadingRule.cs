@@ -90,18 +90,9 @@ internal sealed class InterstageLoadingRule : Rule
     private static Diagnostics.SourceSpan LastValueSpan(Stage stage) => stage switch
     {
         BlockStage block when block.Flags.TryGetValue("buffer", out var flag) => flag.Span,
-        BlockStage block when OutputResistor(block.Block.Name) is { } name && block.Values.TryGetValue(name, out var value) => value.Value.Span,
+        BlockStage block when block.Block.OutputValue is { } name && block.Values.TryGetValue(name, out var value) => value.Value.Span,
         BlockStage block => block.BlockName.Span,
         NetlistStage netlist => netlist.Output.Span,
         _ => stage.Span,
-    };
-
-    private static string? OutputResistor(string block) => block switch
-    {
-        "averaging-filter" => "r",
-        "half-wave-inverting" => "rf",
-        "peak-detector" => "rdis",
-        "half-wave-follower" => "rload",
-        _ => null,
     };
 }

@@ -14,14 +14,14 @@ internal static class OpenLoop
     private const double DiodeCurrent = 1e-3;
 
     /// <summary>
-    /// True when the loop of <paramref name="amplifier"/> opens by design: the single-diode follower rectifier's and the
-    /// peak detector's u1; in an explicit netlist, an amplifier whose output reaches the rest of the circuit only through
+    /// True when the loop of <paramref name="amplifier"/> opens by design: for a block, as its descriptor says (the
+    /// single-diode follower rectifier's and the peak detector's u1); in an explicit netlist, an amplifier whose output reaches the rest of the circuit only through
     /// diodes that all point the same way (so one polarity of error leaves it with no feedback). The two-diode inverting
     /// form, with one diode each way, keeps its loop closed.
     /// </summary>
     public static bool ByDesign(StageProbe stage, AmplifierProbe amplifier) => stage.Stage switch
     {
-        BlockStage block => (block.Block.Name, amplifier.Slot) is ("half-wave-follower", "u1") or ("peak-detector", "u1"),
+        BlockStage block => block.Block.OpensLoopByDesign(amplifier.Slot),
         NetlistStage => ByStructure(stage, amplifier),
         _ => false,
     };

@@ -1,0 +1,62 @@
+using DesignRules.Rules.Evaluation;
+
+namespace DesignRules.Rules.Catalogue.Filters;
+
+/// <summary>
+/// DR410: a filter stage's f0, Q and pass-band gain over its resistor and capacitor tolerances (extreme-value worst case
+/// over the tolerance box, and the seeded Monte Carlo's share of samples within the requirement), against the stage's
+/// requirements. Runs only for filter stages that state one of them.
+/// </summary>
+internal sealed class FilterToleranceRule : Rule
+{
+    public override string Id => "DR410";
+
+    public override void Evaluate(DesignEvaluation evaluation)
+    {
+        foreach (var stage in FilterStage.Of(evaluation))
+        {
+            var targets = stage.Targets().ToList();
+            if (targets.Count == 0 || stage.Tolerance(evaluation) is not { } tolerance)
+            {
+                continue;
+            }
+
+            foreach (var t in targets)
+            {
+                double target = FilterStage.Magnitude(t.Target), within = t.Target.Within.Value.Value;
+                var range = t.Key switch
+                {
+                    "q" => tolerance.Q,
+                    "passband-gain" => tolerance.Gain,
+                    _ => tolerance.F0,
+                };
+                double error = Math.Max(Math.Abs((range.Low / target) - 1), Math.Abs((range.High / target) - 1));
+                double yield = tolerance.YieldWithin(s => t.Key switch { "q" => s.Q, "passband-gain" => s.Gain, _ => s.F0 }, target, within);
+                string unit = t.Key is "q" or "passband-gain" ? "1" : "Hz";
+                evaluation.Record(stage.Id, new Figure($"worst-case {t.Name} low", range.Low, unit));
+                evaluation.Record(stage.Id, new Figure($"worst-case {t.Name} high", range.High, unit));
+                evaluation.Record(stage.Id, new Figure($"worst-case {t.Name} deviation", error, "%").AtMost(within));
+                if (double.IsFinite(yield)) evaluation.Record(stage.Id, new Figure($"Monte Carlo share of {t.Name} within", yield, "%"));
+                evaluation.Judged(stage.Id, t.Key, Id);
+                if (error <= within)
+                {
+                    continue;
+                }
+
+                evaluation.Report(Id, stage.Id, t.Target.Within.Span, new Dictionary<string, string>
+                {
+                    ["stage"] = stage.Id,
+                    ["figure"] = t.Name,
+                    ["low"] = t.Say(range.Low),
+                    ["high"] = t.Say(range.High),
+                    ["corners"] = tolerance.Corners.ToString(System.Globalization.CultureInfo.InvariantCulture),
+                    ["share"] = double.IsFinite(yield) ? Say.Percent(yield) : "none",
+                    ["samples"] = tolerance.Samples.Length.ToString(System.Globalization.CultureInfo.InvariantCulture),
+                    ["target"] = t.Say(target),
+                    ["within"] = Say.Percent(within),
+                    ["error"] = Say.Percent(error),
+                }, new Figure($"worst-case {t.Name} deviation", error, "%").AtMost(within));
+            }
+        }
+    }
+}
