@@ -1,0 +1,87 @@
+using Xunit.Abstractions;
+
+namespace DesignRules.Rules.Tests.Reference;
+
+/// <summary>
+/// Reference suite C (issue 20): designs of our own (Fixtures/reference/c) whose verdict and key figure follow from a
+/// textbook formula, named beside each case with the hand calculation; each asserts the verdict and the figure within 5 %.
+/// The parts (parts/reference-c-parts.yaml) are invented classes with a very high open-loop gain, so that the
+/// ideal-amplifier formulas hold.
+/// </summary>
+public sealed class ReferenceSuiteC(ITestOutputHelper output)
+{
+    // ---- Full-power bandwidth of a non-sine source (point 5) ----
+
+    [Fact]
+    public void C01_a_triangle_whose_slope_4_Vp_f_is_inside_the_slew_rate_passes_with_the_bandwidth_SR_over_4_Vp()
+    {
+        // Triangle of peak Vp at f: its slope is 2·Vp per half period, 4·Vp·f (textbook waveform geometry; e.g. Franco,
+        // Design with Operational Amplifiers, slew-rate limiting). It reaches SR at f = SR/(4·Vp) = 1 V/µs / 20 V = 50 kHz,
+        // above 1.2 × 30 kHz = 36 kHz. The sine formula SR/(2π·Vp) = 31.8 kHz would fire.
+        var report = Verify("reference/c/fpbw-triangle-passes.yaml");
+        AssertNear(1e6 / (4 * 5.0), Figure(report, "buf", "full-power bandwidth u1"));
+    }
+
+    [Fact]
+    public void C02_a_triangle_at_45_kHz_misses_its_margin_and_the_message_names_the_triangle_formula()
+    {
+        // Same formula: SR/(4·Vp) = 50 kHz < 1.2 × 45 kHz = 54 kHz.
+        var report = Verify("reference/c/fpbw-triangle-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR101");
+        AssertNear(50e3, finding.Figures.Single(f => f.Name == "full-power bandwidth").Value);
+        Assert.Contains("SR/(4·Vp)", finding.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void C03_a_sine_keeps_the_sine_formula_and_the_message_names_it()
+    {
+        // SR/(2π·Vp) (textbook full-power bandwidth); the fixture's own derivation is in its header.
+        var report = RuleFixture.Verify("slew/gain-stage-beyond-full-power-bandwidth.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR101");
+        Assert.Contains("SR/(2π·Vp), the sine formula", finding.Message, StringComparison.Ordinal);
+        double peak = finding.Figures.Single(f => f.Name == "peak excursion").Value;
+        AssertNear(0.6e6 / (2 * Math.PI * peak), finding.Figures.Single(f => f.Name == "full-power bandwidth").Value);
+    }
+
+    // ---- Slew demand from the waveform followed (point 4) ----
+
+    [Fact]
+    public void C04_a_square_with_20_us_edges_demands_only_its_edge_slope_of_0_2_V_per_us()
+    {
+        // Slope of a linear edge = ΔV / t_edge = 4 V / 20 µs = 0.2 V/µs (the waveform's own geometry), inside 1 V/µs.
+        var report = Verify("reference/c/slew-slow-edge-passes.yaml");
+        AssertNear(0.2e6, Figure(report, "buf", "slew demanded at buf.out"));
+    }
+
+    [Fact]
+    public void C05_a_square_with_2_us_edges_demands_2_V_per_us_of_a_1_V_per_us_part()
+    {
+        // ΔV / t_edge = 4 V / 2 µs = 2 V/µs > 1 V/µs.
+        var report = Verify("reference/c/slew-fast-edge-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR102");
+        AssertNear(2e6, finding.Figures.Single(f => f.Name == "slew demanded").Value);
+    }
+
+    private CheckReport Verify(string fixture)
+    {
+        try
+        {
+            return RuleFixture.Verify(fixture);
+        }
+        finally
+        {
+            var report = DesignCheck.Run([RuleFixture.Path(fixture)], new CheckOptions(null, new DateOnly(2026, 12, 1)));
+            output.WriteLine(RuleFixture.Describe(report));
+            foreach (var (stage, figures) in report.Designs.Single().StageFigures)
+            {
+                foreach (var f in figures) output.WriteLine($"  {stage}: {f.Name} = {f.Value:G5} {f.Unit}");
+            }
+        }
+    }
+
+    private static double Figure(CheckReport report, string stage, string name) =>
+        report.Designs.Single().StageFigures.Single(s => s.Key == stage).Value.Single(f => f.Name == name).Value;
+
+    private static void AssertNear(double expected, double actual) =>
+        Assert.True(Math.Abs(actual - expected) <= 0.05 * Math.Abs(expected), $"expected {expected:G4} within 5 %, got {actual:G4}");
+}
