@@ -62,6 +62,30 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         AssertNear(2e6, finding.Figures.Single(f => f.Name == "slew demanded").Value);
     }
 
+    // ---- DC transfer over the levels the signal visits (point 3) ----
+
+    [Fact]
+    public void C06_a_mid_supply_follower_is_judged_over_4_to_8_V_and_its_offset_relative_to_its_6_V_bias()
+    {
+        // Follower: vout = vin + Vos (textbook op-amp DC error model, e.g. Sedra and Smith, offset voltage), so the offset
+        // at the 6 V bias is Vos,max = 2 µV and the gain 1; the signal (6 V ± 2 V) never visits 0 V, where the output would
+        // rest at the 1 V headroom.
+        var report = Verify("reference/c/bias-follower-passes.yaml");
+        AssertNear(2e-6, Figure(report, "buf", "worst-case output offset"));
+        AssertNear(1, Figure(report, "buf", "worst-case gain high"));
+        AssertNear(1, Figure(report, "buf", "worst-case gain low"));
+        Assert.True(Figure(report, "buf", "worst-case transfer error") < 0.01);
+    }
+
+    [Fact]
+    public void C07_the_same_follower_with_a_5_mV_offset_part_misses_its_2_mV_offset_at_the_bias()
+    {
+        // vout − vin = Vos = 5 mV at the 6 V bias (same textbook model) > 2 mV.
+        var report = Verify("reference/c/bias-follower-offset-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR405");
+        AssertNear(5e-3, finding.Figures.Single(f => f.Name == "worst-case output offset").Value);
+    }
+
     private CheckReport Verify(string fixture)
     {
         try
