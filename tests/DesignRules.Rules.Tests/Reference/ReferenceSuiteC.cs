@@ -86,6 +86,47 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         AssertNear(5e-3, finding.Figures.Single(f => f.Name == "worst-case output offset").Value);
     }
 
+    // ---- Offset by extreme-value analysis over every variable (point 2) ----
+
+    /// <summary>
+    /// Output offset of a bias-compensated inverting stage (Sedra and Smith, Microelectronic Circuits, input bias current
+    /// and offset voltage): Vo = Vos·(1 + rf/rin) + Ib·(rf − rcomp·(1 + rf/rin)) with both bias currents equal; its
+    /// extreme-value worst case (the textbook worst-case method: every variable at either extreme, every combination) over
+    /// rin, rf, rcomp at ±tolerance and Vos, Ib at ± their maxima.
+    /// </summary>
+    private static double InvertingOffsetExtreme(double rin, double rf, double rcomp, double tolerance, double vos, double ib)
+    {
+        double worst = 0;
+        for (int mask = 0; mask < 32; mask++)
+        {
+            double Pick(int bit, double value, double spread) => value * (1 + ((mask & (1 << bit)) != 0 ? spread : -spread));
+            double a = Pick(0, rin, tolerance), f = Pick(1, rf, tolerance), c = Pick(2, rcomp, tolerance);
+            double v = Pick(3, vos, 1) - vos, i = Pick(4, ib, 1) - ib; // ±vos, ±ib
+            worst = Math.Max(worst, Math.Abs((v * (1 + (f / a))) + (i * (f - (c * (1 + (f / a)))))));
+        }
+
+        return worst;
+    }
+
+    [Fact]
+    public void C08_bias_current_times_resistor_mismatch_makes_the_offset_three_times_what_nominal_resistors_give()
+    {
+        double hand = InvertingOffsetExtreme(10e3, 100e3, 9.1e3, 0.05, 50e-6, 100e-9);
+        output.WriteLine($"hand extreme-value offset {hand * 1e3:F3} mV");
+        var report = Verify("reference/c/offset-eva-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR405");
+        AssertNear(hand, finding.Figures.Single(f => f.Name == "worst-case output offset").Value);
+        Assert.Contains("bias currents through the resistors' tolerance", finding.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void C09_with_exact_resistors_the_same_stage_keeps_its_0_56_mV_offset()
+    {
+        double hand = InvertingOffsetExtreme(10e3, 100e3, 9.1e3, 0, 50e-6, 100e-9);
+        var report = Verify("reference/c/offset-eva-passes.yaml");
+        AssertNear(hand, Figure(report, "amp", "worst-case output offset"));
+    }
+
     private CheckReport Verify(string fixture)
     {
         try
