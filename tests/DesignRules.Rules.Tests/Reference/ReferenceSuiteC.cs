@@ -127,6 +127,54 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         AssertNear(hand, Figure(report, "amp", "worst-case output offset"));
     }
 
+    // ---- Swing, current and power at the tolerance corners (point 1) ----
+
+    [Fact]
+    public void C10_a_gain_of_13_that_clips_only_at_its_high_gain_corner_fails_the_swing_rule_and_names_the_corner()
+    {
+        // Non-inverting gain 1 + rf/rg (textbook); at rf·1.05, rg·0.95: 1 + 12.6k/0.95k = 14.26, and 1 V × 14.26 = 14.26 V
+        // is beyond the 13.5 V swing limit (15 V rail less the part's 1.5 V headroom).
+        double cornerGain = 1 + (12e3 * 1.05 / (1e3 * 0.95));
+        var report = Verify("reference/c/corner-swing-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR201");
+        Assert.Contains("at the gain-high corner [amp.rf +5 %, amp.rg −5 %]", finding.Message, StringComparison.Ordinal);
+        AssertNear(13.5, Math.Abs(finding.Figures.Single(f => f.Name == "output extreme").Value));
+        // The worst-case gain is the corner's linear gain, not the clipped ratio 13.5 V / 1 V.
+        AssertNear(cornerGain, Figure(report, "amp", "worst-case gain high"));
+        AssertNear(1 + (12e3 * 0.95 / (1e3 * 1.05)), Figure(report, "amp", "worst-case gain low"));
+        Assert.True(FigureOf(report, "amp", "output swing margin u1").Value <= 0, "a clipping corner leaves no swing margin");
+    }
+
+    [Fact]
+    public void C11_the_same_stage_at_0_9_V_keeps_its_swing_margin_at_the_high_gain_corner()
+    {
+        // 0.9 V × 14.26 = 12.84 V (textbook non-inverting gain at the corner): 13.5 V − 12.84 V = 0.66 V of room.
+        double cornerGain = 1 + (12e3 * 1.05 / (1e3 * 0.95));
+        var report = Verify("reference/c/corner-swing-passes.yaml");
+        AssertNear(13.5 - (0.9 * cornerGain), Figure(report, "amp", "output swing margin u1"));
+    }
+
+    [Fact]
+    public void C12_an_input_resistor_over_its_rating_only_at_its_low_corner_fails_the_power_rule_and_names_the_corner()
+    {
+        // Joule's law for a sine: P = Vp²/(2·R); the virtual ground puts the source across rin: 9.85² / (2 · 950 Ω) = 51.1 mW
+        // against 50 % of 100 mW.
+        double hand = 9.85 * 9.85 / (2 * 950);
+        var report = Verify("reference/c/corner-power-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR601");
+        AssertNear(hand, finding.Figures.Single(f => f.Name == "resistor power").Value);
+        Assert.Contains("amp.rin −5 %", finding.Message, StringComparison.Ordinal);
+        Assert.Contains("corner", finding.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void C13_with_a_1_1_k_input_resistor_its_low_corner_stays_inside_the_rating()
+    {
+        // P = Vp²/(2·R) at 1.1 kΩ · 0.95 = 1045 Ω: 46.4 mW ≤ 50 mW (Joule's law).
+        var report = Verify("reference/c/corner-power-passes.yaml");
+        AssertNear(9.85 * 9.85 / (2 * 1045), Figure(report, "amp", "power in rin"));
+    }
+
     private CheckReport Verify(string fixture)
     {
         try
@@ -144,8 +192,10 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         }
     }
 
-    private static double Figure(CheckReport report, string stage, string name) =>
-        report.Designs.Single().StageFigures.Single(s => s.Key == stage).Value.Single(f => f.Name == name).Value;
+    private static double Figure(CheckReport report, string stage, string name) => FigureOf(report, stage, name).Value;
+
+    private static Figure FigureOf(CheckReport report, string stage, string name) =>
+        report.Designs.Single().StageFigures.Single(s => s.Key == stage).Value.Single(f => f.Name == name);
 
     private static void AssertNear(double expected, double actual) =>
         Assert.True(Math.Abs(actual - expected) <= 0.05 * Math.Abs(expected), $"expected {expected:G4} within 5 %, got {actual:G4}");

@@ -51,6 +51,18 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
             }
         }
 
+        // Two small levels either side of the bias (a tenth of the span) give a linear stage's gain where its extreme
+        // levels clip at a tolerance corner: the worst-case gain is the corner's linear gain, not a clipped ratio.
+        if (TransferTarget.Of(stage).IsLinear && levels.Count > 2)
+        {
+            double spread = 0.1 * (levels.Max() - levels.Min()) / 2;
+            if (spread > 0)
+            {
+                levels.Add(bias - spread);
+                levels.Add(bias + spread);
+            }
+        }
+
         // A peak detector holds positive peaks: its negative levels say nothing and are hard to solve (its loop is open).
         bool positiveOnly = TransferTarget.Of(stage).Kind == TransferKind.Peak;
         // Levels closer than a part in 1e9 of the largest are one level; the bias level (0 V or the DC level) is always kept exactly, however small the
@@ -85,6 +97,12 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
 /// <param name="Chain">The chain measured (to locate a failure).</param>
 internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double CommonModeShift, SimulationFailure? Failure, ElaboratedChain Chain)
 {
+    /// <summary>
+    /// Per level: true when an amplifier of the stage sits at (within 2 % of the supply span of) its swing limit there, so
+    /// that the level says nothing about the stage's linear gain. Empty when not measured.
+    /// </summary>
+    public bool[] Clipped { get; init; } = [];
+
     public bool Succeeded => Failure is null;
 
     /// <summary>Elaborates the design with <paramref name="options"/> and measures the plan's stage.</summary>
@@ -131,7 +149,20 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
             shift = y[1] - y[0];
         }
 
-        return new DcTransfer(inputs, outputs, shift, null, chain);
+        var clipped = new bool[outputs.Length];
+        foreach (var amp in stage.Amplifiers)
+        {
+            var v = sweep.Voltage(amp.OutputNode);
+            double span = amp.Rails.Positive - amp.Rails.Negative, near = 0.02 * span;
+            double high = amp.Rails.Positive - amp.Part.OutputHeadroom.Positive.Value.Value;
+            double low = amp.Rails.Negative + amp.Part.OutputHeadroom.Negative.Value.Value;
+            for (int i = 0; i < v.Length && i < clipped.Length; i++)
+            {
+                clipped[i] |= v[i] >= high - near || v[i] <= low + near;
+            }
+        }
+
+        return new DcTransfer(inputs, outputs, shift, null, chain) { Clipped = clipped };
     }
 
     private static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);
