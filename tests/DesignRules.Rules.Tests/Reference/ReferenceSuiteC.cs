@@ -163,8 +163,8 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         var report = Verify("reference/c/corner-power-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR601");
         AssertNear(hand, finding.Figures.Single(f => f.Name == "resistor power").Value);
+        Assert.Contains("corner [", finding.Message, StringComparison.Ordinal);
         Assert.Contains("amp.rin −5 %", finding.Message, StringComparison.Ordinal);
-        Assert.Contains("corner", finding.Message, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -173,6 +173,27 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // P = Vp²/(2·R) at 1.1 kΩ · 0.95 = 1045 Ω: 46.4 mW ≤ 50 mW (Joule's law).
         var report = Verify("reference/c/corner-power-passes.yaml");
         AssertNear(9.85 * 9.85 / (2 * 1045), Figure(report, "amp", "power in rin"));
+    }
+
+    /// <summary>Ohm's law: an inverting stage's output current into its load and its feedback resistor from the virtual ground.</summary>
+    private static double InvertingOutputCurrent(double source, double rin, double rf, double load) => (source * rf / rin) * ((1 / load) + (1 / rf));
+
+    [Fact]
+    public void C14_an_output_over_its_current_only_at_the_high_gain_corner_fails_the_current_rule_and_names_the_corner()
+    {
+        double hand = InvertingOutputCurrent(0.77, 9.5e3, 105e3, 500);
+        var report = Verify("reference/c/corner-current-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR301");
+        AssertNear(hand, finding.Figures.Single(f => f.Name == "peak output current").Value);
+        Assert.Contains("at the gain-high corner [amp.rf +5 %, amp.rin −5 %]", finding.Message, StringComparison.Ordinal);
+        Assert.True(InvertingOutputCurrent(0.77, 10e3, 100e3, 500) < 0.016, "nominal values alone pass (the class this fixes)");
+    }
+
+    [Fact]
+    public void C15_at_0_7_V_the_high_gain_corner_stays_inside_the_derated_current()
+    {
+        var report = Verify("reference/c/corner-current-passes.yaml");
+        AssertNear(InvertingOutputCurrent(0.7, 9.5e3, 105e3, 500), Figure(report, "amp", "peak output current u1"));
     }
 
     private CheckReport Verify(string fixture)
