@@ -196,6 +196,41 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         AssertNear(InvertingOutputCurrent(0.7, 9.5e3, 105e3, 500), Figure(report, "amp", "peak output current u1"));
     }
 
+    // ---- Rectifier into a load returned elsewhere (point 7) ----
+
+    [Fact]
+    public void C16_a_two_diode_rectifier_into_a_load_returned_to_1_V_has_a_static_error_judged_by_DR303_not_a_glitch()
+    {
+        // Voltage divider (Ohm's law): in the blocked half-cycle rf ties the output to the virtual ground and the 100k load
+        // to 1 V pulls it to 1 V · 10k / 110k = 90.9 mV, over the 2 V full scale (ideal |−vin| peak) = 4.55 %.
+        var report = Verify("reference/c/rect-return-static-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR303");
+        AssertNear(1.0 * 10e3 / 110e3 / 2.0, finding.Figures.Single(f => f.Name == "output error while the diode is off").Value);
+        // The glitch is what follows a zero crossing: far shorter than the 0.5 ms half-cycle the static error lasts.
+        Assert.True(Figure(report, "rect", "zero-crossing glitch") < 10e-6, "the static error is not counted as a glitch");
+    }
+
+    [Fact]
+    public void C17_into_200k_returned_to_0_3_V_the_blocked_half_cycle_stays_within_its_1_percent()
+    {
+        // Voltage divider: 0.3 V · 10k / 210k = 14.3 mV over 2 V = 0.714 %.
+        var report = Verify("reference/c/rect-return-small-passes.yaml");
+        AssertNear(0.3 * 10e3 / 210e3 / 2.0, Figure(report, "rect", "output error while the diode is off"));
+    }
+
+    [Fact]
+    public void C18_a_slow_rectifier_into_the_same_load_still_has_its_real_glitch_bounded_by_its_slewing_time()
+    {
+        // ΔV/SR (textbook slewing time): the output is wrong at most while the amplifier slews across the dead zone, the
+        // event's swing over 1 V/µs (about 0.9 µs); the glitch exceeds 1 % of the 50 µs period (0.5 µs). Without the static
+        // error taken out, it was the whole 25 µs half-cycle.
+        var report = Verify("reference/c/rect-return-slow-glitch-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR103");
+        double glitch = finding.Figures.Single(f => f.Name == "zero-crossing glitch").Value;
+        double slewing = finding.Figures.Single(f => f.Name == "slewing swing").Value / 1e6;
+        Assert.InRange(glitch, 0.5e-6, slewing * 1.05);
+    }
+
     private CheckReport Verify(string fixture)
     {
         try
