@@ -231,6 +231,33 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         Assert.InRange(glitch, 0.5e-6, slewing * 1.05);
     }
 
+    // ---- Filling versus droop in a hold circuit (point 6) ----
+
+    [Fact]
+    public void C19_a_hold_capacitor_still_filling_is_reported_as_filling_with_the_charge_current_it_needs_not_as_droop()
+    {
+        // Capacitor current i = C·dv/dt at the sine's steepest slope 2π·f·Vp (textbook): 47 µF · 2π · 100 Hz · 5 V = 148 mA.
+        var report = Verify("reference/c/peak-filling-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR305");
+        AssertNear(47e-6 * 2 * Math.PI * 100 * 5, finding.Figures.Single(f => f.Name == "hold charge current demanded").Value);
+        Assert.DoesNotContain(report.Findings, f => f.Message.Contains("droop of hold capacitor", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void C20_a_hold_capacitor_that_fills_at_once_is_judged_on_its_droop_and_blames_the_hold_capacitor()
+    {
+        // RC discharge between peaks (same method as reference case A05): RC = 1 MΩ · 1 µF = 1 s, T = 10 ms; the input
+        // catches the held value δ before the next peak with Vp·cos(2π·f·δ) = Vp·e^(−(T − δ)/RC); droop = Vp·(1 − e^(−(T − δ)/RC)).
+        double rc = 1.0, period = 10e-3, delta = 0;
+        for (int i = 0; i < 50; i++) delta = Math.Acos(Math.Exp(-(period - delta) / rc)) / (2 * Math.PI / period);
+        double droop = 5 * (1 - Math.Exp(-(period - delta) / rc));
+        output.WriteLine($"hand droop {droop * 1e3:F2} mV");
+        var report = Verify("reference/c/peak-settled-passes.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR401");
+        AssertNear(droop, finding.Figures.Single(f => f.Name == "hold droop").Value);
+        Assert.Contains("droop of hold capacitor chold", finding.Message, StringComparison.Ordinal);
+    }
+
     private CheckReport Verify(string fixture)
     {
         try

@@ -38,8 +38,15 @@ internal sealed class OutputCurrentRule : Rule
             }
         }
 
+        var filling = HoldFilling.Of(evaluation);
         foreach (var (id, (demand, stage, amp, corner)) in peaks.OrderBy(p => p.Key, StringComparer.Ordinal))
         {
+            // The amplifier charging a hold capacitor that is still filling: DR305 reports the charge current it needs.
+            if (filling.TryGetValue(stage.StageId, out var hold) && hold.Amplifier.ElementId == amp.ElementId)
+            {
+                continue;
+            }
+
             var stageId = stage.StageId;
             double peak = demand.Demanded;
             double rating = amp.Part.OutputCurrent.Value.Value;
