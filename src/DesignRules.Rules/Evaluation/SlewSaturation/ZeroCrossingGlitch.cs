@@ -91,10 +91,11 @@ internal static class ZeroCrossingGlitch
         // transfer and loading rules judge it. Where a half-cycle's typical error far from the crossings (its median where
         // |input| is above half its peak) is outside the band, the ideal of that half-cycle is moved by it, so that only
         // what follows a zero crossing is measured.
-        double positive = StaticError(time, delayed, output, ideal, first, level, linear, 1);
-        double negative = StaticError(time, delayed, output, ideal, first, level, linear, -1);
-        positive = Math.Abs(positive) > tolerance ? positive : 0;
-        negative = Math.Abs(negative) > tolerance ? negative : 0;
+        var (positive, positiveSpread) = StaticError(time, delayed, output, ideal, first, level, linear, 1);
+        var (negative, negativeSpread) = StaticError(time, delayed, output, ideal, first, level, linear, -1);
+        // Static means steady: an error that changes across the half-cycle (a slow amplifier still recovering) is the glitch.
+        positive = Math.Abs(positive) > tolerance && positiveSpread <= tolerance ? positive : 0;
+        negative = Math.Abs(negative) > tolerance && negativeSpread <= tolerance ? negative : 0;
         Func<double, double> judged = positive == 0 && negative == 0 ? ideal : x => ideal(x) + (x >= 0 ? positive : negative);
         var error = TransferError.Measure(time, delayed, output, judged, tolerance, band.From);
         return new StageGlitch(error.WorstGlitchWidth, tolerance, delay);
@@ -129,8 +130,11 @@ internal static class ZeroCrossingGlitch
         return linear;
     }
 
-    /// <summary>The median of output − ideal over the points of one half-cycle sign where |input| is at least <paramref name="level"/>, V.</summary>
-    private static double StaticError(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, bool[] linear, int sign)
+    /// <summary>
+    /// The median of output − ideal over the points of one half-cycle sign where |input| is at least <paramref name="level"/>,
+    /// and the spread between its quartiles, V.
+    /// </summary>
+    private static (double Median, double Spread) StaticError(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, bool[] linear, int sign)
     {
         var errors = new List<double>();
         for (int i = first; i < time.Count; i++)
@@ -143,11 +147,11 @@ internal static class ZeroCrossingGlitch
 
         if (errors.Count == 0)
         {
-            return 0;
+            return (0, 0);
         }
 
         errors.Sort();
-        return errors[errors.Count / 2];
+        return (errors[errors.Count / 2], errors[3 * errors.Count / 4] - errors[errors.Count / 4]);
     }
 
     private static double FitDelay(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, double maxDelay, bool[] linear)
