@@ -11,7 +11,8 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// reached from its amplifier only through a diode) is high-impedance while the diode is off. In the transient at each
 /// band end, while that diode carries less than a thousandth of its peak current, the output is compared with the
 /// ideal: the ideal transfer of the input for a rectifier, the held value decaying with the stage's own time constant
-/// for a peak detector. Only the half-cycle a rectifier blocks is looked at (elsewhere an off diode is the zero-crossing
+/// for a peak detector. The two-diode inverting rectifier, whose feedback resistor holds its output at the virtual ground
+/// while the diode is off, is judged too when its load returns to a voltage other than 0 V. Only the half-cycle a rectifier blocks is looked at (elsewhere an off diode is the zero-crossing
 /// glitch, which the slew rules judge), and not while an amplifier of the stage is slewing. The largest deviation, over the full-scale output, is compared with the stage's accuracy.
 /// </summary>
 internal sealed class HighImpedanceOutputRule : Rule
@@ -31,12 +32,15 @@ internal sealed class HighImpedanceOutputRule : Rule
         {
             foreach (var stage in chain.Stages)
             {
-                if (OutputDiode(stage) is not { } diode)
+                var diode = OutputDiode(stage);
+                bool held = diode is null;
+                diode ??= HeldDiode(evaluation, chain, stage);
+                if (diode is null)
                 {
                     continue;
                 }
 
-                double error = Deviation(chain, result, stage, diode);
+                double error = Deviation(chain, result, stage, diode, held);
                 probes[stage.StageId] = stage;
                 worst[stage.StageId] = Math.Max(worst.GetValueOrDefault(stage.StageId), error);
             }
@@ -99,7 +103,24 @@ internal sealed class HighImpedanceOutputRule : Rule
         return null;
     }
 
-    private static double Deviation(ElaboratedChain chain, Simulation.TransientResult result, StageProbe stage, DiodeProbe diode)
+    /// <summary>
+    /// For a stage whose output a feedback resistor ties to a summing junction while its diode is off (the two-diode
+    /// inverting rectifier), the diode on its output — when what the output drives returns to a voltage other than 0 V
+    /// (the design's load `returns-to`, for the last stage), so that the load divides that voltage with the feedback
+    /// resistor instead of seeing the virtual ground. Null otherwise: into a ground-returned load that form holds 0 V.
+    /// </summary>
+    private static DiodeProbe? HeldDiode(DesignEvaluation evaluation, ElaboratedChain chain, StageProbe stage)
+    {
+        bool last = ReferenceEquals(chain.Stages[^1], stage);
+        if (!last || evaluation.Design.Load.ReturnsTo.Value.Value == 0 || stage.Amplifiers.Any(a => a.OutputNode == stage.OutputNode))
+        {
+            return null;
+        }
+
+        return stage.Diodes.FirstOrDefault(d => d.Anode == stage.OutputNode || d.Cathode == stage.OutputNode);
+    }
+
+    private static double Deviation(ElaboratedChain chain, Simulation.TransientResult result, StageProbe stage, DiodeProbe diode, bool held)
     {
         var (start, end) = TransientRuns.Window(chain, result);
         var time = result.Time;
@@ -129,6 +150,10 @@ internal sealed class HighImpedanceOutputRule : Rule
         var slewing = stage.Amplifiers.Select(a => result.Amplifier(a.ElementId)).ToList();
         bool holds = stage.Transfer.Kind == TransferKind.Peak;
         double tau = stage.TimeConstant ?? double.PositiveInfinity;
+        // The held form's output settles onto its load's divider only once the crossing is past: within a tenth of the
+        // input's peak of a crossing it is the zero-crossing glitch's (DR103's) concern.
+        double inputPeak = 0;
+        for (int i = 0; i < time.Count; i++) if (time[i] >= start && time[i] <= end) inputPeak = Math.Max(inputPeak, Math.Abs(inPlus[i] - (inMinus?[i] ?? 0)));
         double worst = 0, heldAt = double.NaN, heldValue = 0;
         for (int i = 0; i < time.Count; i++)
         {
@@ -154,6 +179,11 @@ internal sealed class HighImpedanceOutputRule : Rule
             // it is slewing across its dead zone, which is the glitch rules' concern, not the load's.
             double input = inPlus[i] - (inMinus?[i] ?? 0);
             if (!holds && (input >= 0 ? stage.Transfer.SlopePositive : stage.Transfer.SlopeNegative) != 0)
+            {
+                continue;
+            }
+
+            if (held && Math.Abs(input) < 0.1 * inputPeak)
             {
                 continue;
             }

@@ -7,7 +7,8 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// DR301: the peak current each amplifier output is asked for in the transient (load, feedback network and next stage
 /// together) at each band end, against the part's rated output current derated. A current-limited output delivers only its
 /// limit, so the demand comes from a run without the limit (<see cref="OutputCurrentDemand"/>); where the limit is what
-/// clips the output, this finding says so and DR201 stays silent about it (one cause, one finding).
+/// clips the output, this finding says so and DR201 stays silent about it (one cause, one finding). Judged at the nominal
+/// values and at every resistor-tolerance corner of <see cref="ToleranceCorners"/>; the worst is reported with its corner.
 /// </summary>
 internal sealed class OutputCurrentRule : Rule
 {
@@ -15,10 +16,11 @@ internal sealed class OutputCurrentRule : Rule
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var peaks = new Dictionary<string, (AmplifierDemand Demand, Elaboration.StageProbe Stage, Elaboration.AmplifierProbe Amplifier)>(StringComparer.Ordinal);
-        foreach (var (end, chain, _) in TransientRuns.Of(evaluation))
+        var peaks = new Dictionary<string, (AmplifierDemand Demand, Elaboration.StageProbe Stage, Elaboration.AmplifierProbe Amplifier, ToleranceCorner? Corner)>(StringComparer.Ordinal);
+        var runs = TransientRuns.Of(evaluation).Select(r => (Corner: (ToleranceCorner?)null, r.Chain, Demands: OutputCurrentDemand.At(evaluation, r.End)))
+            .Concat(OutputCurrentDemand.AtCorners(evaluation).Select(c => ((ToleranceCorner?)c.Corner, c.Chain, c.Demands)));
+        foreach (var (corner, chain, demands) in runs)
         {
-            var demands = OutputCurrentDemand.At(evaluation, end);
             foreach (var stage in chain.Stages)
             {
                 foreach (var amp in stage.Amplifiers)
@@ -30,14 +32,21 @@ internal sealed class OutputCurrentRule : Rule
 
                     if (!peaks.TryGetValue(amp.ElementId, out var known) || demand.Demanded > known.Demand.Demanded)
                     {
-                        peaks[amp.ElementId] = (demand, stage, amp);
+                        peaks[amp.ElementId] = (demand, stage, amp, corner);
                     }
                 }
             }
         }
 
-        foreach (var (id, (demand, stage, amp)) in peaks.OrderBy(p => p.Key, StringComparer.Ordinal))
+        var filling = HoldFilling.Of(evaluation);
+        foreach (var (id, (demand, stage, amp, corner)) in peaks.OrderBy(p => p.Key, StringComparer.Ordinal))
         {
+            // The amplifier charging a hold capacitor that is still filling: DR305 reports the charge current it needs.
+            if (filling.TryGetValue(stage.StageId, out var hold) && hold.Amplifier.ElementId == amp.ElementId)
+            {
+                continue;
+            }
+
             var stageId = stage.StageId;
             double peak = demand.Demanded;
             double rating = amp.Part.OutputCurrent.Value.Value;
@@ -55,7 +64,7 @@ internal sealed class OutputCurrentRule : Rule
             evaluation.Report(Id, stageId, StageFacts.PartSpan(stage.Stage, amp.Slot), new Dictionary<string, string>
             {
                 ["amplifier"] = id,
-                ["current"] = Say.Amps(peak),
+                ["current"] = corner is null ? Say.Amps(peak) : $"{Say.Amps(peak)} ({corner.Phrase})",
                 ["rating"] = Say.Amps(rating),
                 ["limit"] = $"{Say.Amps(limit)} ({Say.Percent(derating)})",
                 ["margin"] = Say.Amps(peak - limit),

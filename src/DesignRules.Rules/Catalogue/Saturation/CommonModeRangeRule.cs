@@ -6,7 +6,8 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// <summary>
 /// DR203: both inputs of every amplifier stay inside the part's common-mode range [Vneg + negative headroom,
 /// Vpos − positive headroom] (a negative headroom reaches beyond the rail) throughout the transient at every band end.
-/// The negative side of a single-supply stage that lacks a bias point is left to DR205.
+/// The negative side of a single-supply stage that lacks a bias point is left to DR205. Judged at the nominal values and
+/// at every resistor-tolerance corner of <see cref="ToleranceCorners"/>; the worst is reported with its corner.
 /// </summary>
 internal sealed class CommonModeRangeRule : Rule
 {
@@ -16,15 +17,17 @@ internal sealed class CommonModeRangeRule : Rule
     {
         var worst = new Dictionary<string, Excess>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        var runs = AmplifierWaveforms.AtEveryEnd(evaluation).Select(b => (Corner: (ToleranceCorner?)null, Band: b))
+            .Concat(AmplifierWaveforms.AtCorners(evaluation).Select(c => ((ToleranceCorner?)c.Corner, c.Band)));
+        foreach (var (corner, band) in runs)
         {
             foreach (var a in band.Amplifiers)
             {
                 double high = a.Probe.Rails.Positive - a.Probe.Part.InputRange.Positive.Value.Value;
                 double low = a.Probe.Rails.Negative + a.Probe.Part.InputRange.Negative.Value.Value;
                 double top = Math.Max(a.PlusMaximum, a.MinusMaximum), bottom = Math.Min(a.PlusMinimum, a.MinusMinimum);
-                var upper = new Excess(a, "positive", top, high, top - high);
-                var lower = new Excess(a, "negative", bottom, low, low - bottom);
+                var upper = new Excess(a, "positive", top, high, top - high, corner);
+                var lower = new Excess(a, "negative", bottom, low, low - bottom, corner);
                 var current = upper.Over >= lower.Over || SingleSupply.NeedsBias(evaluation, a.Stage.StageId) ? upper : lower;
                 if (!worst.TryGetValue(a.Name, out var previous))
                 {
@@ -50,7 +53,7 @@ internal sealed class CommonModeRangeRule : Rule
             evaluation.Report(Id, a.Stage.StageId, a.Named.PartSpan, new Dictionary<string, string>
             {
                 ["amplifier"] = a.Name,
-                ["extreme"] = Say.Volts(x.Extreme),
+                ["extreme"] = x.Corner is { } c ? $"{Say.Volts(x.Extreme)} ({c.Phrase})" : Say.Volts(x.Extreme),
                 ["limit"] = Say.Volts(x.Limit),
                 ["rail"] = x.Rail,
                 ["margin"] = Say.Volts(x.Over),
@@ -58,5 +61,5 @@ internal sealed class CommonModeRangeRule : Rule
         }
     }
 
-    private sealed record Excess(AmplifierWaveform Amplifier, string Rail, double Extreme, double Limit, double Over);
+    private sealed record Excess(AmplifierWaveform Amplifier, string Rail, double Extreme, double Limit, double Over, ToleranceCorner? Corner);
 }

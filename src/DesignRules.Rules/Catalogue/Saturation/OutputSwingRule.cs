@@ -9,6 +9,8 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// at the largest amplitude (the transient at every band end) with the part's maximum offset voltage added in the
 /// unfavourable direction. Amplifiers whose loop opens by design are left to DR202, and an output that clips only because
 /// its current limit holds it (it does not clip in the run without current limits) is left to DR301, which names that cause.
+/// Judged at the nominal values and at every resistor-tolerance corner of <see cref="ToleranceCorners"/>; the worst is
+/// reported with the corner it occurs at.
 /// </summary>
 internal sealed class OutputSwingRule : Rule
 {
@@ -18,9 +20,10 @@ internal sealed class OutputSwingRule : Rule
     {
         var worst = new Dictionary<string, Swing>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        var runs = AmplifierWaveforms.AtEveryEnd(evaluation).Select(b => (Corner: (ToleranceCorner?)null, Band: b, Demands: OutputCurrentDemand.At(evaluation, b.End)))
+            .Concat(AmplifierWaveforms.AtCorners(evaluation).Select(c => ((ToleranceCorner?)c.Corner, c.Band, OutputCurrentDemand.AtCorner(evaluation, c.Band.Chain))));
+        foreach (var (corner, band, demands) in runs)
         {
-            var demands = OutputCurrentDemand.At(evaluation, band.End);
             foreach (var a in band.Amplifiers.Where(a => !OpenLoop.ByDesign(a.Stage, a.Probe)))
             {
                 double margin = evaluation.Threshold(Id, "margin", a.Stage.StageId);
@@ -32,8 +35,8 @@ internal sealed class OutputSwingRule : Rule
                 bool byCurrent = demands.TryGetValue(a.Name, out var demand) && demand.ClipsOnlyByCurrent;
                 bool clipsHigh = a.ReachedSwingLimit && !byCurrent && a.SwingHigh - a.Maximum <= a.Minimum - a.SwingLow;
                 bool clipsLow = a.ReachedSwingLimit && !byCurrent && !clipsHigh;
-                var high = new Swing(a, "positive", clipsHigh ? a.Maximum : a.Maximum + up, clipsHigh ? 0 : up, a.SwingHigh, a.SwingHigh - margin, margin, clipsHigh);
-                var low = new Swing(a, "negative", clipsLow ? a.Minimum : a.Minimum - down, clipsLow ? 0 : down, a.SwingLow, a.SwingLow + margin, margin, clipsLow);
+                var high = new Swing(a, "positive", clipsHigh ? a.Maximum : a.Maximum + up, clipsHigh ? 0 : up, a.SwingHigh, a.SwingHigh - margin, margin, clipsHigh, corner);
+                var low = new Swing(a, "negative", clipsLow ? a.Minimum : a.Minimum - down, clipsLow ? 0 : down, a.SwingLow, a.SwingLow + margin, margin, clipsLow, corner);
                 var current = high.Over >= low.Over ? high : low;
                 if (!worst.TryGetValue(a.Name, out var previous))
                 {
@@ -70,6 +73,11 @@ internal sealed class OutputSwingRule : Rule
                 notes.Add($"including {Say.Volts(s.Offset)} from the maximum offset voltage");
             }
 
+            if (s.Corner is { } corner)
+            {
+                notes.Add(corner.Phrase);
+            }
+
             evaluation.Report(Id, a.Stage.StageId, a.Named.PartSpan, new Dictionary<string, string>
             {
                 ["node"] = a.Node,
@@ -81,7 +89,7 @@ internal sealed class OutputSwingRule : Rule
         }
     }
 
-    private sealed record Swing(AmplifierWaveform Amplifier, string Rail, double Extreme, double Offset, double Limit, double WithMargin, double Margin, bool Clips)
+    private sealed record Swing(AmplifierWaveform Amplifier, string Rail, double Extreme, double Offset, double Limit, double WithMargin, double Margin, bool Clips, ToleranceCorner? Corner)
     {
         /// <summary>How far the extreme goes past the limit less the margin (positive: a violation; clipping counts as the whole margin), V.</summary>
         public double Over => Clips ? Math.Max(Margin, Raw) : Raw;

@@ -5,9 +5,11 @@ using DesignRules.Rules.Evaluation.SlewSaturation;
 namespace DesignRules.Rules.Catalogue.Slew;
 
 /// <summary>
-/// DR101: the full-power bandwidth SR/(2π·Vp) of every amplifier, with Vp its output's peak excursion from its mean in the
-/// band-top transient and SR the slower of its rising and falling slew rates, against the highest signal frequency times
-/// the min-ratio threshold.
+/// DR101: the full-power bandwidth of every amplifier, with Vp its output's peak excursion from its mean in the band-top
+/// transient and SR the slower of its rising and falling slew rates, against the highest signal frequency times the
+/// min-ratio threshold. For a sine source it is the sine formula SR/(2π·Vp); for any other waveform it is the frequency at
+/// which the actual waveform's steepest slope (scaled to the output's excursion) equals SR — SR/(4·Vp) for a triangle,
+/// whose steepest slope is 4·Vp·f. A square's edges are steps, judged as slewing events by DR102, not here.
 /// </summary>
 internal sealed class FullPowerBandwidthRule : Rule
 {
@@ -20,11 +22,17 @@ internal sealed class FullPowerBandwidthRule : Rule
             return;
         }
 
+        if (WaveformShape.Of(band.Chain.SourceWaveform, band.Period!.Value, frequency) is not { } shape)
+        {
+            return;
+        }
+
         foreach (var a in band.Amplifiers)
         {
             var stageId = a.Stage.StageId;
             double peak = a.PeakExcursion;
-            double fpbw = peak > 0 ? a.SlewSlower / (2 * Math.PI * peak) : double.PositiveInfinity;
+            // The output's steepest slope is the source's shape factor times 2π·f·Vp (exactly 2π·f·Vp for a sine).
+            double fpbw = peak > 0 ? a.SlewSlower / (2 * Math.PI * shape.Factor * peak) : double.PositiveInfinity;
             double limit = frequency * evaluation.Threshold(Id, "min-ratio", stageId);
             if (double.IsFinite(fpbw))
             {
@@ -42,11 +50,13 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["peak"] = Say.Volts(peak),
                 ["frequency"] = Say.Hertz(frequency),
                 ["slew"] = Say.Slew(a.SlewSlower),
+                ["formula"] = shape.Formula,
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
             }, new Figure("full-power bandwidth", fpbw, "Hz"), new Figure("required full-power bandwidth", limit, "Hz"),
-               new Figure("peak excursion", peak, "V"), new Figure("slew rate", a.SlewSlower, "V/s"));
+               new Figure("peak excursion", peak, "V"), new Figure("slew rate", a.SlewSlower, "V/s"),
+               new Figure("steepest slope demanded", 2 * Math.PI * shape.Factor * frequency * peak, "V/s"));
         }
     }
 }

@@ -27,9 +27,13 @@ internal sealed class SlewDemandRule : Rule
                 // Without slewing events the output follows a smooth signal and its demand is its peak slope; with events,
                 // the peak slope is the slew rate itself and the demand is the events' swing over the time allowed.
                 var demand = new Demand(a, band.Frequency!.Value, window, null, a.PeakSlope, a.Events.Count == 0 ? a.PeakSlope / a.SlewSlower : double.NegativeInfinity);
+                double followed = FollowedSlope(band, a);
                 foreach (var e in a.Events)
                 {
-                    double rate = e.Swing / window;
+                    // An amplifier in a linear loop must follow its waveform, no faster: an edge of the source slower than
+                    // the allowance demands only its own slope. A jump the ideal makes as a step (a diode switching on the
+                    // amplifier's output) has only the allowance.
+                    double rate = Math.Min(e.Swing / window, followed);
                     double ratio = rate / (e.Rising ? a.SlewRising : a.SlewFalling);
                     if (ratio > demand.Ratio)
                     {
@@ -60,18 +64,36 @@ internal sealed class SlewDemandRule : Rule
             }
 
             double slew = e.Rising ? a.SlewRising : a.SlewFalling;
+            double time = e.Swing / d.Rate;
             evaluation.Report(Id, a.Stage.StageId, a.Named.PartSpan, new Dictionary<string, string>
             {
                 ["node"] = a.Node,
                 ["demand"] = Say.Slew(d.Rate),
                 ["frequency"] = Say.Hertz(d.Frequency),
                 ["swing"] = Say.Volts(e.Swing),
-                ["window"] = Say.Seconds(d.Window),
+                ["window"] = Say.Seconds(time),
                 ["slew"] = Say.Slew(slew),
                 ["margin"] = Say.Slew(d.Rate - slew),
             }, new Figure("slew demanded", d.Rate, "V/s"), new Figure("slew rate", slew, "V/s"),
-               new Figure("slewing swing", e.Swing, "V"), new Figure("time allowed", d.Window, "s"));
+               new Figure("slewing swing", e.Swing, "V"), new Figure("time allowed", time, "s"));
         }
+    }
+
+    /// <summary>
+    /// The steepest slope of the waveform an amplifier in a linear loop must follow, V/s: the source's steepest slope
+    /// (a square's span over its edge time) times the amplifier's gain from the source (its output's peak-to-peak over the
+    /// source's). Infinite for an amplifier switched by a diode on its own output, whose ideal jumps.
+    /// </summary>
+    private static double FollowedSlope(BandWaveforms band, AmplifierWaveform a)
+    {
+        if (a.Stage.Diodes.Any(d => d.Anode == a.Probe.OutputNode || d.Cathode == a.Probe.OutputNode) || band.Period is not { } period)
+        {
+            return double.PositiveInfinity;
+        }
+
+        var (slope, span) = WaveformShape.Steepest(band.Chain.SourceWaveform, period);
+        double gain = span > 0 ? (a.Maximum - a.Minimum) / span : double.PositiveInfinity;
+        return slope * gain is var followed && followed > 0 && double.IsFinite(followed) ? followed : double.PositiveInfinity;
     }
 
     private sealed record Demand(AmplifierWaveform Amplifier, double Frequency, double Window, SlewingEvent? Event, double Rate, double Ratio);

@@ -7,7 +7,8 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// <summary>
 /// DR601: the power each resistor of a stage dissipates, P = v²/R from its node voltages (Joule's law): averaged over the
 /// whole periods of the transient's measurement window at each band end, or at the DC operating point for a DC source;
-/// the larger is compared with the family's rated power times the derating factor.
+/// the largest over the nominal values and every resistor-tolerance corner of <see cref="ToleranceCorners"/> (each resistor
+/// at its corner value) is compared with the family's rated power times the derating factor, naming the corner.
 /// </summary>
 internal sealed class ResistorPowerRule : Rule
 {
@@ -45,7 +46,7 @@ internal sealed class ResistorPowerRule : Rule
                 evaluation.Report(Id, stage.StageId, r.Span, new Dictionary<string, string>
                 {
                     ["component"] = r.ElementId,
-                    ["power"] = Say.Watts(p),
+                    ["power"] = CornerOf(evaluation, r.ElementId) is { } corner ? $"{Say.Watts(p)} ({corner.Phrase})" : Say.Watts(p),
                     ["rating"] = Say.Watts(rating),
                     ["derating"] = Say.Percent(derating),
                     ["limit"] = Say.Watts(limit),
@@ -59,10 +60,20 @@ internal sealed class ResistorPowerRule : Rule
     /// The power of every resistor by element id, the larger of the band ends (or at the DC operating point for a DC
     /// source), computed once per design and shared with DR605; null when the chain cannot be analysed.
     /// </summary>
-    public static IReadOnlyDictionary<string, double>? Powers(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("stress:resistor-power", () => new PowerTable(Compute(evaluation))).Power;
+    public static IReadOnlyDictionary<string, double>? Powers(DesignEvaluation evaluation) => Table(evaluation).Power;
 
-    private static Dictionary<string, double>? Compute(DesignEvaluation evaluation)
+    /// <summary>The tolerance corner at which a resistor dissipates most, or null when that is at its nominal values.</summary>
+    private static ToleranceCorner? CornerOf(DesignEvaluation evaluation, string elementId) =>
+        Table(evaluation).Corners.GetValueOrDefault(elementId);
+
+    private static PowerTable Table(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("stress:resistor-power", () =>
+        {
+            var corners = new Dictionary<string, ToleranceCorner>(StringComparer.Ordinal);
+            return new PowerTable(Compute(evaluation, corners), corners);
+        });
+
+    private static Dictionary<string, double>? Compute(DesignEvaluation evaluation, Dictionary<string, ToleranceCorner> corners)
     {
         var analyses = evaluation.Analyses;
         var chain = analyses.Chain(Elaboration.BandEnd.Top);
@@ -85,6 +96,23 @@ internal sealed class ResistorPowerRule : Rule
                     Keep(r.ElementId, TransientRuns.Average(result.Time, i => Square(a[i] - b[i]) / r.Value, start, end));
                 }
             }
+
+            // The same at every resistor-tolerance corner, with each resistor at its corner value.
+            foreach (var run in ToleranceCorners.Runs(evaluation))
+            {
+                var (start, end) = TransientRuns.Window(run.Chain, run.Transient);
+                foreach (var r in run.Chain.Stages.SelectMany(s => s.Components).Where(c => c.Kind == ElementKind.Resistor))
+                {
+                    var a = Voltages(run.Transient, r.NodeA);
+                    var b = Voltages(run.Transient, r.NodeB);
+                    double p = TransientRuns.Average(run.Transient.Time, i => Square(a[i] - b[i]) / r.Value, start, end);
+                    if (p > power.GetValueOrDefault(r.ElementId))
+                    {
+                        power[r.ElementId] = p;
+                        corners[r.ElementId] = run.Corner;
+                    }
+                }
+            }
         }
         else
         {
@@ -104,7 +132,7 @@ internal sealed class ResistorPowerRule : Rule
         return power;
     }
 
-    private sealed record PowerTable(Dictionary<string, double>? Power);
+    private sealed record PowerTable(Dictionary<string, double>? Power, Dictionary<string, ToleranceCorner> Corners);
 
     private static double Square(double v) => v * v;
 

@@ -3,7 +3,11 @@ using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Catalogue.Tolerance;
 
-/// <summary>DR405: a stage's output with zero input, offset voltages and bias currents at their maxima, against its output-offset requirement.</summary>
+/// <summary>
+/// DR405: a stage's output at its bias level (0 V input, or the source's DC level when the signal never visits 0 V), by an
+/// extreme-value analysis over every variable (resistor corners with offset voltages, bias and offset currents at their
+/// maxima together), against its output-offset requirement.
+/// </summary>
 internal sealed class OutputOffsetRule : Rule
 {
     public override string Id => "DR405";
@@ -26,7 +30,12 @@ internal sealed class OutputOffsetRule : Rule
             }
 
             int zero = analysis.Plan.ZeroIndex;
-            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[zero], 1, evaluation.Design);
+            // The cross terms of the extreme-value corners (bias current × resistor mismatch) are a contributor of their own.
+            var cross = analysis.CrossTerm > 0 && stage.Amplifiers.Count > 0
+                ? new Contribution("bias currents through the resistors' tolerance", "bias currents × resistor tolerance",
+                    ToleranceSpans.Amplifier(evaluation.Design, stage, stage.Amplifiers[0].Slot), analysis.CrossTerm, double.NaN)
+                : null;
+            var (dominant, detail) = ToleranceAnalyses.Breakdown(analysis, f => f.Deviations[zero], 1, evaluation.Design, also: cross);
             evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, required.Span), new Dictionary<string, string>
             {
                 ["stage"] = id,

@@ -31,16 +31,31 @@ internal static class OutputCurrentDemand
     public static IReadOnlyDictionary<string, AmplifierDemand> At(DesignEvaluation evaluation, BandEnd end) =>
         evaluation.Analyses.Shared($"loading:output-current-demand:{end}", () => new Holder(Compute(evaluation, end))).Value;
 
+    private sealed record CornerHolder(IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)> Value);
+
+    /// <summary>The same at every resistor-tolerance corner and band end (<see cref="ToleranceCorners"/>).</summary>
+    public static IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)> AtCorners(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("loading:output-current-demand:corners", () => new CornerHolder(ToleranceCorners.Runs(evaluation)
+            .Select(r => (r.Corner, r.Chain, (IReadOnlyDictionary<string, AmplifierDemand>)Of(evaluation.Design, r.Chain, r.Transient))).ToList())).Value;
+
+    /// <summary>The demands of the corner whose chain is <paramref name="chain"/>, if it is one (else empty).</summary>
+    public static IReadOnlyDictionary<string, AmplifierDemand> AtCorner(DesignEvaluation evaluation, ElaboratedChain chain) =>
+        AtCorners(evaluation).FirstOrDefault(c => ReferenceEquals(c.Chain, chain)).Demands ?? new Dictionary<string, AmplifierDemand>();
+
     private static Dictionary<string, AmplifierDemand> Compute(DesignEvaluation evaluation, BandEnd end)
     {
-        var demands = new Dictionary<string, AmplifierDemand>(StringComparer.Ordinal);
         var chain = evaluation.Analyses.Chain(end);
         if (!chain.Succeeded)
         {
-            return demands;
+            return new Dictionary<string, AmplifierDemand>(StringComparer.Ordinal);
         }
 
-        var nominal = evaluation.Analyses.Transient(end);
+        return Of(evaluation.Design, chain, evaluation.Analyses.Transient(end));
+    }
+
+    private static Dictionary<string, AmplifierDemand> Of(Model.Design design, ElaboratedChain chain, TransientResult nominal)
+    {
+        var demands = new Dictionary<string, AmplifierDemand>(StringComparer.Ordinal);
         if (!nominal.Succeeded || nominal.Time.Count < 2)
         {
             return demands;
@@ -53,7 +68,7 @@ internal static class OutputCurrentDemand
         if (limited.Values.Any(m => m.CurrentLimited))
         {
             // Same design, same options, only the output current limits removed; a failure leaves the delivered figures.
-            var free = ChainElaborator.Elaborate(evaluation.Design, chain.Options with { OutputCurrentLimits = false });
+            var free = ChainElaborator.Elaborate(design, chain.Options with { OutputCurrentLimits = false });
             if (free.Succeeded)
             {
                 var run = Simulate.Transient(free.Circuit, chain.Window.ToOptions());

@@ -54,6 +54,22 @@ internal static class AmplifierWaveforms
             return null;
         }
 
+        return Measure(evaluation, end, chain, transient);
+    }
+
+    private sealed record CornerHolder(IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)> Value);
+
+    /// <summary>
+    /// The same measurements at every resistor-tolerance corner and band end (<see cref="ToleranceCorners"/>), for the
+    /// rules that judge the worst corner.
+    /// </summary>
+    public static IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)> AtCorners(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("slew-saturation:waveforms:corners", () => new CornerHolder(ToleranceCorners.Runs(evaluation)
+            .Select(r => (r.Corner, Band: Measure(evaluation, r.End, r.Chain, r.Transient)))
+            .Where(x => x.Band is not null).Select(x => (x.Corner, x.Band!)).ToList())).Value;
+
+    private static BandWaveforms? Measure(DesignEvaluation evaluation, BandEnd end, ElaboratedChain chain, TransientResult transient)
+    {
         if (transient.Time.Count < 2)
         {
             return null;

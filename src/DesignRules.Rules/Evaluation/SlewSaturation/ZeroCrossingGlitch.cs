@@ -85,7 +85,19 @@ internal static class ZeroCrossingGlitch
 
         double delay = FitDelay(time, input, output, ideal, first, level, MaxDelayFraction / frequency, linear);
         var delayed = time.Select(t => At(time, input, t - delay)).ToArray();
-        var error = TransferError.Measure(time, delayed, output, ideal, tolerance, band.From);
+
+        // A static error in a half-cycle (the output pulled off its ideal by a load returned to another voltage while the
+        // diode blocks) is not a glitch: it is there at the half-cycle's peak as much as after the crossing, and the
+        // transfer and loading rules judge it. Where a half-cycle's typical error far from the crossings (its median where
+        // |input| is above half its peak) is outside the band, the ideal of that half-cycle is moved by it, so that only
+        // what follows a zero crossing is measured.
+        var (positive, positiveSpread) = StaticError(time, delayed, output, ideal, first, level, linear, 1);
+        var (negative, negativeSpread) = StaticError(time, delayed, output, ideal, first, level, linear, -1);
+        // Static means steady: an error that changes across the half-cycle (a slow amplifier still recovering) is the glitch.
+        positive = Math.Abs(positive) > tolerance && positiveSpread <= tolerance ? positive : 0;
+        negative = Math.Abs(negative) > tolerance && negativeSpread <= tolerance ? negative : 0;
+        Func<double, double> judged = positive == 0 && negative == 0 ? ideal : x => ideal(x) + (x >= 0 ? positive : negative);
+        var error = TransferError.Measure(time, delayed, output, judged, tolerance, band.From);
         return new StageGlitch(error.WorstGlitchWidth, tolerance, delay);
     }
 
@@ -116,6 +128,30 @@ internal static class ZeroCrossingGlitch
         }
 
         return linear;
+    }
+
+    /// <summary>
+    /// The median of output − ideal over the points of one half-cycle sign where |input| is at least <paramref name="level"/>,
+    /// and the spread between its quartiles, V.
+    /// </summary>
+    private static (double Median, double Spread) StaticError(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, bool[] linear, int sign)
+    {
+        var errors = new List<double>();
+        for (int i = first; i < time.Count; i++)
+        {
+            if (sign * input[i] >= level && linear[i])
+            {
+                errors.Add(output[i] - ideal(input[i]));
+            }
+        }
+
+        if (errors.Count == 0)
+        {
+            return (0, 0);
+        }
+
+        errors.Sort();
+        return (errors[errors.Count / 2], errors[3 * errors.Count / 4] - errors[errors.Count / 4]);
     }
 
     private static double FitDelay(IReadOnlyList<double> time, double[] input, double[] output, Func<double, double> ideal, int first, double level, double maxDelay, bool[] linear)

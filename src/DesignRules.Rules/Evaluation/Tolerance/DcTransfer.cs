@@ -5,13 +5,16 @@ using DesignRules.Simulation;
 namespace DesignRules.Rules.Evaluation.Tolerance;
 
 /// <summary>
-/// Where a stage's DC transfer is measured: the source emf replaced by DC levels (zero, the waveform's lowest and highest
-/// value and its mean), so every later stage sees its input at ±Vp scaled by the stages before it; and, for a difference
+/// Where a stage's DC transfer is measured: the source emf replaced by DC levels (the waveform's lowest and highest value,
+/// its mean and its DC level, and zero when the signal passes through it), so every later stage sees its input at ±Vp scaled by the stages before it; and, for a difference
 /// stage fed from a split source, the common-mode source stepped from 0 V to the source's common-mode level.
 /// </summary>
 /// <param name="StageId">The stage measured.</param>
-/// <param name="Levels">Source emf levels, V, ascending; one of them is 0.</param>
-/// <param name="ZeroIndex">Index of the 0 V level.</param>
+/// <param name="Levels">Source emf levels, V, ascending: only levels the signal spans (0 V among them when it spans it).</param>
+/// <param name="ZeroIndex">
+/// Index of the level the output offset is judged at: 0 V, or the source's DC level (the intended bias) when the signal
+/// never visits 0 V.
+/// </param>
 /// <param name="CommonMode">The common-mode level to step to, V, for a split-fed difference stage (1 V when the source states 0 V); null otherwise.</param>
 internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroIndex, double? CommonMode)
 {
@@ -22,6 +25,9 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
     {
         var waveform = chain.SourceWaveform;
         var levels = new List<double> { 0, waveform.DcValue };
+        // The level the offset is judged at: 0 V, or the source's own DC level (its intended bias) when the signal never
+        // visits 0 V — a single-supply stage biased at mid-supply is not judged at a resting level it never sees.
+        double bias = 0;
         if (chain.Period is { } period && period > 0)
         {
             double low = double.PositiveInfinity, high = double.NegativeInfinity;
@@ -36,15 +42,34 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
             levels.Add(low);
             levels.Add(high);
             levels.Add((low + high) / 2);
+            double margin = 1e-9 * Math.Max(Math.Abs(low), Math.Abs(high));
+            if (low > margin || high < -margin)
+            {
+                // Only the levels the signal spans (offset ± amplitude): 0 V lies outside it.
+                bias = waveform.DcValue;
+                levels.RemoveAt(0);
+            }
+        }
+
+        // Two small levels either side of the bias (a tenth of the span) give a linear stage's gain where its extreme
+        // levels clip at a tolerance corner: the worst-case gain is the corner's linear gain, not a clipped ratio.
+        if (TransferTarget.Of(stage).IsLinear && levels.Count > 2)
+        {
+            double spread = 0.1 * (levels.Max() - levels.Min()) / 2;
+            if (spread > 0)
+            {
+                levels.Add(bias - spread);
+                levels.Add(bias + spread);
+            }
         }
 
         // A peak detector holds positive peaks: its negative levels say nothing and are hard to solve (its loop is open).
         bool positiveOnly = TransferTarget.Of(stage).Kind == TransferKind.Peak;
-        // Levels closer than a part in 1e9 of the largest are one level; 0 V is always kept exactly, however small the
+        // Levels closer than a part in 1e9 of the largest are one level; the bias level (0 V or the DC level) is always kept exactly, however small the
         // signal (a merge once dropped it for a 1 pV source or a sum whose mean is a rounding error off zero).
         var candidates = levels.Where(l => !positiveOnly || l >= 0).ToList();
         double tolerance = 1e-9 * candidates.Select(Math.Abs).DefaultIfEmpty(0).Max();
-        var distinct = new List<double> { 0 };
+        var distinct = new List<double> { bias };
         foreach (var level in candidates.OrderBy(Math.Abs))
         {
             if (distinct.TrueForAll(kept => Math.Abs(level - kept) > tolerance))
@@ -57,7 +82,7 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
         double? commonMode = !Circuit.IsReference(stage.ReferenceInputNode) && chain.Design.Source.CommonMode is { } cm
             ? (cm.Value.Value != 0 ? cm.Value.Value : 1.0)
             : null;
-        return new TransferPlan(stage.StageId, [.. distinct], distinct.FindIndex(l => l == 0), commonMode);
+        return new TransferPlan(stage.StageId, [.. distinct], distinct.FindIndex(l => l == bias), commonMode);
     }
 }
 
@@ -72,6 +97,12 @@ internal sealed record TransferPlan(string StageId, double[] Levels, int ZeroInd
 /// <param name="Chain">The chain measured (to locate a failure).</param>
 internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double CommonModeShift, SimulationFailure? Failure, ElaboratedChain Chain)
 {
+    /// <summary>
+    /// Per level: true when an amplifier of the stage sits at (within 2 % of the supply span of) its swing limit there, so
+    /// that the level says nothing about the stage's linear gain. Empty when not measured.
+    /// </summary>
+    public bool[] Clipped { get; init; } = [];
+
     public bool Succeeded => Failure is null;
 
     /// <summary>Elaborates the design with <paramref name="options"/> and measures the plan's stage.</summary>
@@ -118,7 +149,20 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
             shift = y[1] - y[0];
         }
 
-        return new DcTransfer(inputs, outputs, shift, null, chain);
+        var clipped = new bool[outputs.Length];
+        foreach (var amp in stage.Amplifiers)
+        {
+            var v = sweep.Voltage(amp.OutputNode);
+            double span = amp.Rails.Positive - amp.Rails.Negative, near = 0.02 * span;
+            double high = amp.Rails.Positive - amp.Part.OutputHeadroom.Positive.Value.Value;
+            double low = amp.Rails.Negative + amp.Part.OutputHeadroom.Negative.Value.Value;
+            for (int i = 0; i < v.Length && i < clipped.Length; i++)
+            {
+                clipped[i] |= v[i] >= high - near || v[i] <= low + near;
+            }
+        }
+
+        return new DcTransfer(inputs, outputs, shift, null, chain) { Clipped = clipped };
     }
 
     private static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);

@@ -51,6 +51,12 @@ internal static class ToleranceAnalyses
             return null;
         }
 
+        // A hold still filling is not drooping: DR305 reports it, and its held value is not judged as droop.
+        if (LoadingBandwidthStress.HoldFilling.Of(evaluation).ContainsKey(stage.StageId))
+        {
+            return null;
+        }
+
         Interval? range = null;
         foreach (var end in evaluation.Analyses.BandEnds)
         {

@@ -41,7 +41,10 @@ internal sealed record TransferTarget(TransferKind Kind, double SlopePositive, d
 /// between the extreme levels, the half-cycle gain mismatch, and the common-mode figures.
 /// </summary>
 /// <param name="Deviations">Output minus target at each level, V.</param>
-/// <param name="Gain">Δvout/Δvin between the lowest and highest input (NaN when the inputs do not differ).</param>
+/// <param name="Gain">
+/// Δvout/Δvin between the lowest and highest input at which no amplifier clips (else the lowest and highest input; NaN
+/// when the inputs do not differ).
+/// </param>
 /// <param name="Mismatch">|vout(+)|/|vin(+)| − |vout(−)|/|vin(−)| (NaN unless the input takes both signs).</param>
 /// <param name="CommonModeShift">Output change for the common-mode step, V.</param>
 /// <param name="CommonModeRejection">|Gain| / |common-mode gain| (infinite when the common mode does not move the output).</param>
@@ -53,7 +56,16 @@ internal sealed record StageFigures(double[] Deviations, double Gain, double Mis
         var y = t.Outputs;
         var deviations = x.Select((xi, i) => y[i] - target.At(xi)).ToArray();
         int lo = IndexOfMin(x), hi = IndexOfMax(x);
-        double gain = Math.Abs(x[hi] - x[lo]) > 1e-15 ? (y[hi] - y[lo]) / (x[hi] - x[lo]) : double.NaN;
+        // The gain between the extreme levels at which no amplifier clips, when there are two such levels.
+        var linear = Enumerable.Range(0, x.Length).Where(i => i >= t.Clipped.Length || !t.Clipped[i]).ToList();
+        int glo = lo, ghi = hi;
+        if (linear.Count >= 2 && linear.Count < x.Length)
+        {
+            glo = linear.MinBy(i => x[i]);
+            ghi = linear.MaxBy(i => x[i]);
+        }
+
+        double gain = Math.Abs(x[ghi] - x[glo]) > 1e-15 ? (y[ghi] - y[glo]) / (x[ghi] - x[glo]) : double.NaN;
         double mismatch = x[hi] > 0 && x[lo] < 0 ? (Math.Abs(y[hi]) / x[hi]) - (Math.Abs(y[lo]) / -x[lo]) : double.NaN;
         double cmrr = double.PositiveInfinity;
         if (plan.CommonMode is { } cm && t.CommonModeShift != 0)

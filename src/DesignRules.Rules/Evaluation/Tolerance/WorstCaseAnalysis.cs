@@ -63,6 +63,13 @@ internal sealed class WorstCaseAnalysis
     /// <summary>Per variable, the change of every figure it causes alone.</summary>
     public required IReadOnlyList<(ResistorVariable? Resistor, int Amplifier, string Kind, int Diode, StageFigures Plus, StageFigures? Minus)> Singles { get; init; }
 
+    /// <summary>
+    /// How much the extreme-value corners (every variable at its worst together) add to the output offset beyond the
+    /// resistor corners plus the error sources superposed at nominal resistors: the cross terms such as bias current ×
+    /// resistor mismatch, V.
+    /// </summary>
+    public double CrossTerm { get; init; }
+
     /// <summary>The first failed run, if any (the figures are then those of the runs that succeeded).</summary>
     public SimulationFailure? Failure { get; init; }
 
@@ -228,7 +235,21 @@ internal sealed class WorstCaseAnalysis
             mismatch = mismatch.Widen(plus.Mismatch - nominal.Mismatch, minus.Mismatch - nominal.Mismatch);
         }
 
-        var failed = first.Concat(cornerRuns).FirstOrDefault(t => !t.Succeeded);
+        // Extreme-value analysis over every variable together: at each resistor corner, every error source at the sign
+        // that moves the output at the bias level up, and every one at the sign that moves it down. Superposition at
+        // nominal resistors misses the cross terms (bias current × resistor mismatch, which a compensation resistor
+        // cancels only at nominal values); every combined run is a feasible point of the variable box, so it only widens.
+        var combined = CombinedCorners(variables, corners, singles, figures, nominal, plan.ZeroIndex);
+        var combinedRuns = Evaluate(design, baseline, variables, plan, combined, maxDegreeOfParallelism);
+        double superposedOffset = deviations[plan.ZeroIndex].Magnitude;
+        foreach (var f in combinedRuns.Where(t => t.Succeeded).Select(t => StageFigures.Of(t, target, plan)))
+        {
+            for (int i = 0; i < deviations.Length; i++) deviations[i] = deviations[i].Include(f.Deviations[i]);
+            gain = gain.Include(f.Gain);
+            mismatch = mismatch.Include(f.Mismatch);
+        }
+
+        var failed = first.Concat(cornerRuns).Concat(combinedRuns).FirstOrDefault(t => !t.Succeeded);
         return new WorstCaseAnalysis
         {
             Stage = stage,
@@ -245,9 +266,47 @@ internal sealed class WorstCaseAnalysis
             Corners = corners.Count,
             BySensitivity = bySensitivity,
             Singles = singleFigures,
+            CrossTerm = Math.Max(0, deviations[plan.ZeroIndex].Magnitude - superposedOffset),
             Failure = failed?.Failure,
             FailedChain = failed?.Chain,
         };
+    }
+
+    /// <summary>
+    /// Per resistor corner, two assignments of every error source (offsets, bias and offset currents, diode forward
+    /// voltages) at ± its extreme: the signs that raise the output at the bias level, and the signs that lower it (each
+    /// source's sign from its own runs at nominal resistors). None when the stage has no error source.
+    /// </summary>
+    private static List<Variation> CombinedCorners(
+        ToleranceVariables variables, List<Variation> corners, List<(int Resistor, int Amplifier, string Kind, int Diode, int Plus, int Minus)> singles,
+        StageFigures?[] figures, StageFigures nominal, int bias)
+    {
+        var sources = singles.Where(s => s.Resistor < 0 && figures[s.Plus] is not null && figures[s.Minus] is not null)
+            .Select(s => (s.Amplifier, s.Kind, s.Diode, Sign: figures[s.Plus]!.Deviations[bias] >= figures[s.Minus]!.Deviations[bias] ? 1.0 : -1.0))
+            .ToList();
+        var combined = new List<Variation>();
+        if (sources.Count == 0)
+        {
+            return combined;
+        }
+
+        foreach (var corner in corners.Append(variables.Nominal))
+        {
+            foreach (double direction in new[] { 1.0, -1.0 })
+            {
+                var v = variables.Nominal;
+                Array.Copy(corner.Resistors, v.Resistors, v.Resistors.Length);
+                foreach (var (amplifier, kind, diode, sign) in sources)
+                {
+                    if (diode >= 0) v.Diodes[diode] = direction * sign;
+                    else (kind switch { "offset" => v.Offsets, "bias current" => v.Biases, _ => v.OffsetCurrents })[amplifier] = direction * sign;
+                }
+
+                combined.Add(v);
+            }
+        }
+
+        return combined;
     }
 
     /// <summary>Runs the variations side by side; results are in the order of <paramref name="runs"/>.</summary>

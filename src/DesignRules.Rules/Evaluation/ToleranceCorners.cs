@@ -1,0 +1,133 @@
+using System.Globalization;
+using DesignRules.Elaboration;
+using DesignRules.Rules.Evaluation.Tolerance;
+using DesignRules.Simulation;
+
+namespace DesignRules.Rules.Evaluation;
+
+/// <summary>One resistor-tolerance corner of the whole chain: a value per toleranced resistor, and how messages name it.</summary>
+/// <param name="Name">"gain-high corner", "all resistors low", …</param>
+/// <param name="Detail">The resistors that move and which way ("amp.rin −5 %, amp.rf +5 %").</param>
+/// <param name="Values">Per resistor element id, its value at the corner, Ω.</param>
+internal sealed record ToleranceCorner(string Name, string Detail, IReadOnlyDictionary<string, double> Values)
+{
+    /// <summary>How a message says where a figure was found: "at the gain-high corner [amp.rin −5 %, amp.rf +5 %]".</summary>
+    public string Phrase => $"at the {Name} [{Detail}]";
+}
+
+/// <summary>The chain and its settled transient at one corner and band end.</summary>
+internal sealed record CornerRun(ToleranceCorner Corner, BandEnd End, ElaboratedChain Chain, TransientResult Transient);
+
+/// <summary>
+/// The one place that yields the chain and its transient at each resistor-tolerance corner, for the rules that judge a
+/// figure at its worst corner (swing DR201, common-mode range DR203, output current DR301, resistor power DR601). The
+/// corners are chosen, not enumerated (a settled transient per vertex would cost 2^n runs):
+/// <list type="bullet">
+/// <item>the gain-high corner: in every stage whose transfer is linear, each toleranced resistor at the extreme that
+/// raises the stage's |gain| (its sign from the worst-case analysis' one-at-a-time runs); every stage's gain up raises
+/// every later level, so this is where outputs swing furthest and draw most current;</item>
+/// <item>the gain-low corner, the opposite;</item>
+/// <item>every resistor low and every resistor high: a resistor across a fixed voltage dissipates most at its low value.</item>
+/// </list>
+/// Other stages' resistors stay nominal in the gain corners. Corners that change nothing are dropped; a corner whose
+/// transient fails or does not settle is left out (the nominal run reports such problems). Only periodic sources.
+/// </summary>
+internal static class ToleranceCorners
+{
+    private sealed record Holder(IReadOnlyList<CornerRun> Runs);
+
+    /// <summary>Every corner's settled run at every band end (none for a DC source or a chain without tolerances).</summary>
+    public static IReadOnlyList<CornerRun> Runs(DesignEvaluation evaluation) =>
+        evaluation.Analyses.Shared("tolerance-corners:runs", () => new Holder(Compute(evaluation))).Runs;
+
+    private static List<CornerRun> Compute(DesignEvaluation evaluation)
+    {
+        var analyses = evaluation.Analyses;
+        var nominal = analyses.Chain(BandEnd.Top);
+        if (!nominal.Succeeded || !analyses.IsPeriodic)
+        {
+            return [];
+        }
+
+        var corners = Corners(evaluation, nominal);
+        var jobs = corners.SelectMany(c => analyses.BandEnds.Select(e => (Corner: c, End: e))).ToList();
+        var baseline = analyses.BandEnds.ToDictionary(e => e, e => analyses.Chain(e).Options);
+        var runs = new CornerRun?[jobs.Count];
+        Parallel.For(0, jobs.Count, i =>
+        {
+            var (corner, end) = jobs[i];
+            var options = baseline[end] with { Values = corner.Values };
+            var chain = ChainElaborator.Elaborate(evaluation.Design, options);
+            if (!chain.Succeeded)
+            {
+                return;
+            }
+
+            var steady = PeriodicSteadyState.Run(chain, SteadyStateLimits.Default);
+            if (steady.Settled && steady.Result.Succeeded && steady.Result.Time.Count >= 2)
+            {
+                runs[i] = new CornerRun(corner, end, chain with { Window = steady.Window }, steady.Result);
+            }
+        });
+
+        return runs.OfType<CornerRun>().ToList();
+    }
+
+    private static List<ToleranceCorner> Corners(DesignEvaluation evaluation, ElaboratedChain nominal)
+    {
+        var resistors = nominal.Stages.SelectMany(s => s.Components)
+            .Where(c => c.Kind == Model.ElementKind.Resistor && c.ResistorFamily is { } f && Math.Abs(f.Tolerance.Value.Value) > 0)
+            .OrderBy(c => c.ElementId, StringComparer.Ordinal).ToList();
+        if (resistors.Count == 0)
+        {
+            return [];
+        }
+
+        // Per resistor: +1 when its upper extreme raises its stage's |gain|, −1 when it lowers it, 0 for a non-linear stage.
+        var raises = new Dictionary<string, int>(StringComparer.Ordinal);
+        foreach (var stage in nominal.Stages)
+        {
+            var analysis = ToleranceAnalyses.WorstCase(evaluation, stage);
+            double g = analysis.Nominal.Gain;
+            if (!analysis.Target.IsLinear || !double.IsFinite(g) || g == 0)
+            {
+                continue;
+            }
+
+            foreach (var single in analysis.Singles.Where(s => s.Resistor is not null))
+            {
+                double change = Math.Abs(single.Plus.Gain) - Math.Abs(g);
+                if (double.IsFinite(change) && Math.Abs(change) > 1e-12 * Math.Abs(g))
+                {
+                    raises[single.Resistor!.ElementId] = change > 0 ? 1 : -1;
+                }
+            }
+        }
+
+        var list = new List<ToleranceCorner>();
+        void Add(string name, Func<string, int> sign)
+        {
+            var values = new Dictionary<string, double>(StringComparer.Ordinal);
+            var detail = new List<string>();
+            foreach (var r in resistors)
+            {
+                int u = sign(r.ElementId);
+                if (u == 0) continue;
+                double t = Math.Abs(r.ResistorFamily!.Tolerance.Value.Value);
+                values[r.ElementId] = r.NominalValue * (1 + (u * t));
+                detail.Add($"{r.ElementId} {(u > 0 ? "+" : "−")}{(t * 100).ToString("0.###", CultureInfo.InvariantCulture)} %");
+            }
+
+            if (values.Count > 0 && !list.Any(c => c.Values.Count == values.Count && c.Values.All(kv => values.TryGetValue(kv.Key, out var v) && v == kv.Value)))
+            {
+                list.Add(new ToleranceCorner(name, string.Join(", ", detail), values));
+            }
+        }
+
+        Add("gain-high corner", id => raises.GetValueOrDefault(id));
+        Add("gain-low corner", id => -raises.GetValueOrDefault(id));
+        Add("all-resistors-low corner", _ => -1);
+        Add("all-resistors-high corner", _ => 1);
+        return list;
+    }
+}
