@@ -245,8 +245,8 @@ internal static class PageModel
                 // The verdict comes from the rules that judged the requirement (one table, in the check), never from here.
                 var found = verdicts.FirstOrDefault(v => v.StageId == stage.Id.Value && v.Name == name);
                 var verdict = found is null ? "not checked"
-                    : found.Verdict == "not met" && found.Reported.All(id => id == "DR406") ? "not shown (DR406)"
-                    : found.Verdict == "not met" ? "not met (" + string.Join(", ", found.Reported.Where(id => id != "DR406")) + ")"
+                    : found.Verdict == "not met" && found.Reported.All(id => id == RuleIds.YieldNotShown) ? $"not shown ({RuleIds.YieldNotShown})"
+                    : found.Verdict == "not met" ? "not met (" + string.Join(", ", found.Reported.Where(id => id != RuleIds.YieldNotShown)) + ")"
                     : found.Verdict;
                 list.Add(new ScriptObject { ["stage"] = stage.Id.Value, ["name"] = name, ["value"] = text, ["verdict"] = verdict });
             }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
@@ -13,15 +14,15 @@ public static class RequirementTable
     /// <summary>Rule ids that may judge each requirement key.</summary>
     public static IReadOnlyDictionary<string, IReadOnlyList<string>> Rules { get; } = new Dictionary<string, IReadOnlyList<string>>(StringComparer.Ordinal)
     {
-        ["transfer"] = ["DR401", "DR404", "DR407"],
-        ["gain"] = ["DR401", "DR402", "DR501"],
-        ["accuracy"] = ["DR302", "DR303", "DR304", "DR401", "DR402", "DR403", "DR404", "DR407", "DR501", "DR502"],
-        ["glitch"] = ["DR102", "DR103"],
-        ["yield"] = ["DR402", "DR406"],
-        ["bandwidth"] = ["DR501"],
-        ["output-offset"] = ["DR405"],
-        ["min-signal"] = ["DR502"],
-        ["cmrr"] = ["DR403"],
+        ["transfer"] = [RuleIds.WorstCaseTransfer, RuleIds.HalfCycleSymmetry, RuleIds.AverageTransfer],
+        ["gain"] = [RuleIds.WorstCaseTransfer, RuleIds.MonteCarloYield, RuleIds.ClosedLoopBandwidth],
+        ["accuracy"] = [RuleIds.SourceImpedance, RuleIds.HighImpedanceOutput, RuleIds.InterstageLoading, RuleIds.WorstCaseTransfer, RuleIds.MonteCarloYield, RuleIds.CommonModeRejection, RuleIds.HalfCycleSymmetry, RuleIds.AverageTransfer, RuleIds.ClosedLoopBandwidth, RuleIds.RectifierLoopGain],
+        ["glitch"] = [RuleIds.SlewDemand, RuleIds.ZeroCrossingGlitch],
+        ["yield"] = [RuleIds.MonteCarloYield, RuleIds.YieldNotShown],
+        ["bandwidth"] = [RuleIds.ClosedLoopBandwidth],
+        ["output-offset"] = [RuleIds.OutputOffset],
+        ["min-signal"] = [RuleIds.RectifierLoopGain],
+        ["cmrr"] = [RuleIds.CommonModeRejection],
     };
 }
 

@@ -16,7 +16,7 @@ namespace DesignRules.Rules.Catalogue.Bandwidth;
 /// </summary>
 internal sealed class ClosedLoopBandwidthRule : Rule
 {
-    public override string Id => "DR501";
+    public override RuleId Id => RuleIds.ClosedLoopBandwidth;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
@@ -16,7 +17,7 @@ internal sealed class RectifierLoopGainRule : Rule
     /// <summary>The forward current the diode drop is taken at, A.</summary>
     private const double DiodeCurrent = 1e-3;
 
-    public override string Id => "DR502";
+    public override RuleId Id => RuleIds.RectifierLoopGain;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

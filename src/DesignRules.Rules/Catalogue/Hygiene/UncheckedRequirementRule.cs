@@ -7,7 +7,7 @@ namespace DesignRules.Rules.Catalogue.Hygiene;
 /// <summary>DR702: a requirement that no rule can check, so that nobody relies on a check that never runs.</summary>
 internal sealed class UncheckedRequirementRule : Rule
 {
-    public override string Id => "DR702";
+    public override RuleId Id => RuleIds.UncheckedRequirement;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

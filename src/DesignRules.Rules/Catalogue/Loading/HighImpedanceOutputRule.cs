@@ -16,7 +16,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class HighImpedanceOutputRule : Rule
 {
-    public override string Id => "DR303";
+    public override RuleId Id => RuleIds.HighImpedanceOutput;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using System.Numerics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
@@ -15,7 +16,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class InterstageLoadingRule : Rule
 {
-    public override string Id => "DR304";
+    public override RuleId Id => RuleIds.InterstageLoading;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class OutputCurrentRule : Rule
 {
-    public override string Id => "DR301";
+    public override RuleId Id => RuleIds.OutputCurrent;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

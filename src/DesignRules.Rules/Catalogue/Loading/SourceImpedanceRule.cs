@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 using DesignRules.Simulation;
@@ -14,7 +15,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class SourceImpedanceRule : Rule
 {
-    public override string Id => "DR302";
+    public override RuleId Id => RuleIds.SourceImpedance;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class CommonModeRangeRule : Rule
 {
-    public override string Id => "DR203";
+    public override RuleId Id => RuleIds.CommonModeRange;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class OpenLoopExcursionRule : Rule
 {
-    public override string Id => "DR202";
+    public override RuleId Id => RuleIds.OpenLoopExcursion;
 
     /// <summary>An output within this distance of a swing limit counts as having run to it, V.</summary>
     private const double AtLimit = 0.05;

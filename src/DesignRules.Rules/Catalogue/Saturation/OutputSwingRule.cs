@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 using DesignRules.Rules.Evaluation.SlewSaturation;
@@ -12,7 +13,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class OutputSwingRule : Rule
 {
-    public override string Id => "DR201";
+    public override RuleId Id => RuleIds.OutputSwing;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

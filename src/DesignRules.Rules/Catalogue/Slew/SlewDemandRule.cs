@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Slew;
 /// </summary>
 internal sealed class SlewDemandRule : Rule
 {
-    public override string Id => "DR102";
+    public override RuleId Id => RuleIds.SlewDemand;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

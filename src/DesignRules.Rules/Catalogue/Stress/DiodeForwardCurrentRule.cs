@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class DiodeForwardCurrentRule : Rule
 {
-    public override string Id => "DR603";
+    public override RuleId Id => RuleIds.DiodeForwardCurrent;
 
     public override void Evaluate(DesignEvaluation evaluation) =>
         DiodeStress.Evaluate(evaluation, Id, "peak forward current", (chain, result, diode) =>

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 
@@ -9,7 +10,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class DiodeReverseVoltageRule : Rule
 {
-    public override string Id => "DR602";
+    public override RuleId Id => RuleIds.DiodeReverseVoltage;
 
     public override void Evaluate(DesignEvaluation evaluation) =>
         DiodeStress.Evaluate(evaluation, Id, "peak reverse voltage", (chain, result, diode) =>

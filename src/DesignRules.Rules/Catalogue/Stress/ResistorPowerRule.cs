@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class ResistorPowerRule : Rule
 {
-    public override string Id => "DR601";
+    public override RuleId Id => RuleIds.ResistorPower;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Catalogue.Stress;
@@ -5,7 +6,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// <summary>DR604: the supply span against each amplifier's allowed span, the maximum derated.</summary>
 internal sealed class SupplySpanRule : Rule
 {
-    public override string Id => "DR604";
+    public override RuleId Id => RuleIds.SupplySpan;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

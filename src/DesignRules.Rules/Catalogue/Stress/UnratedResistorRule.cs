@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 
@@ -9,7 +10,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class UnratedResistorRule : Rule
 {
-    public override string Id => "DR605";
+    public override RuleId Id => RuleIds.UnratedResistor;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
@@ -14,7 +15,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class AverageTransferRule : Rule
 {
-    public override string Id => "DR407";
+    public override RuleId Id => RuleIds.AverageTransfer;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

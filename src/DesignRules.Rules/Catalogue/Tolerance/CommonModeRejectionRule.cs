@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
 
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class CommonModeRejectionRule : Rule
 {
-    public override string Id => "DR403";
+    public override RuleId Id => RuleIds.CommonModeRejection;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

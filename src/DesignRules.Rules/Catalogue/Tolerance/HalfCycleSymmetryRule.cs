@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
@@ -7,7 +8,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// <summary>DR404: the worst-case mismatch of an absolute-value stage's two half-cycle gains against its accuracy.</summary>
 internal sealed class HalfCycleSymmetryRule : Rule
 {
-    public override string Id => "DR404";
+    public override RuleId Id => RuleIds.HalfCycleSymmetry;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

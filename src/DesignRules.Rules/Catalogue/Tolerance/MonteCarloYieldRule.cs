@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using System.Globalization;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class MonteCarloYieldRule : Rule
 {
-    public override string Id => "DR402";
+    public override RuleId Id => RuleIds.MonteCarloYield;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
 
@@ -6,7 +7,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// <summary>DR405: a stage's output with zero input, offset voltages and bias currents at their maxima, against its output-offset requirement.</summary>
 internal sealed class OutputOffsetRule : Rule
 {
-    public override string Id => "DR405";
+    public override RuleId Id => RuleIds.OutputOffset;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -7,7 +7,7 @@ namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 internal static class DiodeStress
 {
     public static void Evaluate(
-        DesignEvaluation evaluation, string ruleId, string figureName, Func<ElaboratedChain, TransientResult, DiodeProbe, double> measure,
+        DesignEvaluation evaluation, DesignRules.Diagnostics.RuleId ruleId, string figureName, Func<ElaboratedChain, TransientResult, DiodeProbe, double> measure,
         Func<DiodeProbe, double> rating, string unit, Func<double, string> say, string placeholder)
     {
         var worst = new Dictionary<string, (double Value, StageProbe Stage, DiodeProbe Diode)>(StringComparer.Ordinal);

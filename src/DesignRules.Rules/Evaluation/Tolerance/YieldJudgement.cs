@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
@@ -21,7 +22,7 @@ namespace DesignRules.Rules.Evaluation.Tolerance;
 internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield MonteCarlo, WorstCaseAnalysis Analysis)
 {
     /// <summary>The yield rule whose thresholds (min-yield, confidence) both yield rules use.</summary>
-    public const string ThresholdRule = "DR402";
+    public static readonly RuleId ThresholdRule = RuleIds.MonteCarloYield;
 
     /// <summary>
     /// The judgement of a stage, computed once per design; null when the stage has no accuracy requirement or its
