@@ -158,7 +158,11 @@ internal static class PageModel
         var figures = new ScriptArray();
         foreach (var figure in summary.StageFigures.FirstOrDefault(s => s.Key == stage.Id.Value).Value ?? [])
         {
-            figures.Add(new ScriptObject { ["name"] = figure.Name, ["value"] = figure.Value, ["unit"] = figure.Unit });
+            figures.Add(new ScriptObject
+            {
+                ["key"] = figure.Key.ToString(), ["name"] = figure.Name, ["value"] = figure.Value, ["unit"] = figure.Unit,
+                ["limit"] = figure.Limit, ["margin"] = figure.Margin,
+            });
         }
 
         var plots = summary.Plots.FirstOrDefault(p => p.StageId == stage.Id.Value);

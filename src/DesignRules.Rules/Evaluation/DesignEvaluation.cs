@@ -37,14 +37,13 @@ internal sealed class DesignEvaluation
 
     /// <summary>
     /// Records a key figure of a stage (or of the design, with a null stage) for the reports, whether or not a rule
-    /// fires: e.g. ("slew demanded at stage.u1.out", 14.2e6, "V/s"). A figure recorded twice keeps the first value.
+    /// fires, with the limit a rule judged it against where there is one (<see cref="Figure.AtMost"/>,
+    /// <see cref="Figure.AtLeast"/>): e.g. <c>FigureKinds.SlewDemand.Of("rect.u1.out", 14.2e6)</c>. A key recorded twice
+    /// keeps the first value.
     /// </summary>
-    public void Record(string? stageId, string name, double value, string unit) => Record(stageId, new Figure(name, value, unit));
-
-    /// <summary>Records a key figure with the limit a rule judged it against (<see cref="Figure.AtMost"/>, <see cref="Figure.AtLeast"/>).</summary>
     public void Record(string? stageId, Figure figure)
     {
-        var name = figure.Name;
+        var name = figure.Key;
         var key = stageId ?? string.Empty;
         lock (figures)
         {
@@ -53,7 +52,7 @@ internal sealed class DesignEvaluation
                 figures[key] = list = [];
             }
 
-            if (list.All(f => f.Name != name))
+            if (list.All(f => f.Key != name))
             {
                 list.Add(figure);
             }

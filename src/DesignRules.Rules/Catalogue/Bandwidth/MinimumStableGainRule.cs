@@ -44,7 +44,7 @@ internal sealed class MinimumStableGainRule : Rule
 
                 if (double.IsFinite(noiseGain.Value))
                 {
-                    evaluation.Record(amp.Stage.Id.Value, $"noise gain {amp.Slot}", noiseGain.Value, "1");
+                    evaluation.Record(amp.Stage.Id.Value, FigureKinds.NoiseGain.Of(amp.Slot, noiseGain.Value));
                 }
             }
 
@@ -58,7 +58,7 @@ internal sealed class MinimumStableGainRule : Rule
                 ["amplifier"] = $"{amp.Stage.Id.Value}.{amp.Slot}",
                 ["gain"] = Say.Ratio(noiseGain.Value),
                 ["limit"] = Say.Ratio(minimum),
-            }, new Figure("noise gain", noiseGain.Value, "1"), new Figure("minimum stable gain", minimum, "1"));
+            }, FigureKinds.NoiseGain.Of(amp.Slot, noiseGain.Value), FigureKinds.MinimumStableGain.Of(minimum));
         }
     }
 }

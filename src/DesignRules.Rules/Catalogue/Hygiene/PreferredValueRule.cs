@@ -31,7 +31,7 @@ internal sealed class PreferredValueRule : Rule
                 ["value"] = Say.Ohms(resistor.Value),
                 ["series"] = series.Name,
                 ["nearest"] = Say.Ohms(nearest),
-            }, new Figure("value", resistor.Value, "Ω"), new Figure("nearest preferred value", nearest, "Ω"));
+            }, FigureKinds.ResistorValue.Of(resistor.Value), FigureKinds.NearestPreferredValue.Of(nearest));
         }
     }
 }

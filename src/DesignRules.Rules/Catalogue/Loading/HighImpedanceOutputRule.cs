@@ -46,7 +46,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         {
             var stage = probes[stageId];
             double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
-            evaluation.Record(stageId, new Figure("output error while the diode is off", error, "%").AtMost(accuracy));
+            evaluation.Record(stageId, FigureKinds.DiodeOffError.Of(error).AtMost(accuracy));
             if (error <= accuracy)
             {
                 continue;
@@ -58,7 +58,7 @@ internal sealed class HighImpedanceOutputRule : Rule
                 ["error"] = Say.Percent(error),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, new Figure("output error while the diode is off", error, "%"), new Figure("accuracy", accuracy, "1"));
+            }, FigureKinds.DiodeOffError.Of(error), FigureKinds.Accuracy.Of(accuracy));
         }
     }
 

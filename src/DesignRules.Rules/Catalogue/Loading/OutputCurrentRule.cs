@@ -44,7 +44,7 @@ internal sealed class OutputCurrentRule : Rule
             double rating = amp.Part.OutputCurrent.Value.Value;
             double derating = evaluation.Threshold(Id, "derating", stageId);
             double limit = rating * derating;
-            evaluation.Record(stageId, new Figure($"peak output current {amp.Slot}", peak, "A").AtMost(limit));
+            evaluation.Record(stageId, FigureKinds.OutputCurrent.Of(amp.Slot, peak).AtMost(limit));
             if (peak <= limit)
             {
                 continue;
@@ -61,8 +61,8 @@ internal sealed class OutputCurrentRule : Rule
                 ["limit"] = $"{Say.Amps(limit)} ({Say.Percent(derating)})",
                 ["margin"] = Say.Amps(peak - limit),
                 ["consequence"] = consequence,
-            }, new Figure("peak output current", peak, "A"), new Figure("derated output current", limit, "A"),
-               new Figure("delivered output current", demand.Delivered, "A"));
+            }, FigureKinds.OutputCurrent.Of(amp.Slot, peak), FigureKinds.DeratedOutputCurrent.Of(limit),
+               FigureKinds.DeliveredOutputCurrent.Of(demand.Delivered));
         }
     }
 }

@@ -42,7 +42,7 @@ internal sealed class CommonModeRangeRule : Rule
         foreach (var x in order.Select(n => worst[n]))
         {
             var a = x.Amplifier;
-            evaluation.Record(a.Stage.StageId, new Figure($"input common-mode margin {a.Probe.Slot}", -x.Over, "V").AtLeast(0));
+            evaluation.Record(a.Stage.StageId, FigureKinds.CommonModeMargin.Of(a.Probe.Slot, -x.Over).AtLeast(0));
             if (x.Over <= 0)
             {
                 continue;
@@ -55,7 +55,7 @@ internal sealed class CommonModeRangeRule : Rule
                 ["limit"] = Say.Volts(x.Limit),
                 ["rail"] = x.Rail,
                 ["margin"] = Say.Volts(x.Over),
-            }, new Figure("input extreme", x.Extreme, "V"), new Figure("common-mode limit", x.Limit, "V"));
+            }, FigureKinds.InputExtreme.Of(x.Extreme), FigureKinds.CommonModeLimit.Of(x.Limit));
         }
     }
 

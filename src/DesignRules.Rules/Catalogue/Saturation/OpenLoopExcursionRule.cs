@@ -49,9 +49,9 @@ internal sealed class OpenLoopExcursionRule : Rule
         {
             var a = x.Amplifier;
             var stageId = a.Stage.StageId;
-            evaluation.Record(stageId, $"open-loop excursion {a.Probe.Slot}", x.Excursion, "V");
+            evaluation.Record(stageId, FigureKinds.OpenLoopExcursion.Of(a.Probe.Slot, x.Excursion));
             double limit = evaluation.Threshold(Id, "max-fraction", stageId);
-            evaluation.Record(stageId, new Figure($"recovery time {a.Probe.Slot}", x.Recovery, "s").AtMost(limit / x.Frequency));
+            evaluation.Record(stageId, FigureKinds.RecoveryTime.Of(a.Probe.Slot, x.Recovery).AtMost(limit / x.Frequency));
             if (x.Fraction <= limit)
             {
                 continue;
@@ -65,8 +65,8 @@ internal sealed class OpenLoopExcursionRule : Rule
                 ["frequency"] = Say.Hertz(x.Frequency),
                 ["fraction"] = Say.Percent(x.Fraction),
                 ["limit"] = Say.Percent(limit),
-            }, new Figure("open-loop excursion", x.Excursion, "V"), new Figure("recovery time", x.Recovery, "s"),
-               new Figure("recovery fraction of period", x.Fraction, "1"), new Figure("allowed fraction", limit, "1"));
+            }, FigureKinds.OpenLoopExcursion.Of(a.Probe.Slot, x.Excursion), FigureKinds.RecoveryTime.Of(a.Probe.Slot, x.Recovery),
+               FigureKinds.RecoveryFraction.Of(x.Fraction), FigureKinds.AllowedRecoveryFraction.Of(limit));
         }
     }
 

@@ -29,7 +29,7 @@ internal sealed class FullPowerBandwidthRule : Rule
             double limit = frequency * evaluation.Threshold(Id, "min-ratio", stageId);
             if (double.IsFinite(fpbw))
             {
-                evaluation.Record(stageId, new Figure($"full-power bandwidth {a.Probe.Slot}", fpbw, "Hz").AtLeast(limit));
+                evaluation.Record(stageId, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtLeast(limit));
             }
 
             if (fpbw >= limit)
@@ -46,8 +46,8 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
-            }, new Figure("full-power bandwidth", fpbw, "Hz"), new Figure("required full-power bandwidth", limit, "Hz"),
-               new Figure("peak excursion", peak, "V"), new Figure("slew rate", a.SlewSlower, "V/s"));
+            }, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
+               FigureKinds.PeakExcursion.Of(peak), FigureKinds.SlewRate.Of(a.SlewSlower));
         }
     }
 }

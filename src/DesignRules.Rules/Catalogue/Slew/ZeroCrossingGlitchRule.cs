@@ -54,7 +54,7 @@ internal sealed class ZeroCrossingGlitchRule : Rule
         foreach (var stageId in order)
         {
             var g = worst[stageId];
-            evaluation.Record(stageId, new Figure("zero-crossing glitch", g.Measured.Width, "s").AtMost(g.Limit));
+            evaluation.Record(stageId, FigureKinds.Glitch.Of(g.Measured.Width).AtMost(g.Limit));
             evaluation.Judged(stageId, "glitch", Id);
             if (g.Ratio <= 1)
             {
@@ -70,8 +70,8 @@ internal sealed class ZeroCrossingGlitchRule : Rule
                 ["swing"] = Say.Volts(g.Event?.Swing ?? 0),
                 ["limit"] = Say.Seconds(g.Limit),
                 ["margin"] = Say.Seconds(g.Measured.Width - g.Limit),
-            }, new Figure("zero-crossing glitch", g.Measured.Width, "s"), new Figure("allowed glitch", g.Limit, "s"),
-               new Figure("error band", g.Measured.Tolerance, "V"), new Figure("slewing swing", g.Event?.Swing ?? 0, "V"));
+            }, FigureKinds.Glitch.Of(g.Measured.Width), FigureKinds.AllowedGlitch.Of(g.Limit),
+               FigureKinds.GlitchErrorBand.Of(g.Measured.Tolerance), FigureKinds.SlewingSwing.Of(g.Event?.Swing ?? 0));
         }
     }
 

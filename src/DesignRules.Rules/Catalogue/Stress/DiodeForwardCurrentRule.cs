@@ -14,7 +14,7 @@ internal sealed class DiodeForwardCurrentRule : Rule
     public override RuleId Id => RuleIds.DiodeForwardCurrent;
 
     public override void Evaluate(DesignEvaluation evaluation) =>
-        DiodeStress.Evaluate(evaluation, Id, "peak forward current", (chain, result, diode) =>
+        DiodeStress.Evaluate(evaluation, Id, FigureKinds.DiodeForwardCurrent, FigureKinds.DeratedForwardCurrent, (chain, result, diode) =>
         {
             var (start, end) = TransientRuns.Window(chain, result);
             var anode = DiodeStress.Voltages(result, diode.Anode);
@@ -30,5 +30,5 @@ internal sealed class DiodeForwardCurrentRule : Rule
 
             // The model's current rises with the voltage, so the largest voltage gives the peak current.
             return DiodeConduction.ForwardCurrent(diode.Model, forward, chain.Options.Temperature);
-        }, d => d.Part.ForwardCurrentRating.Value.Value, "A", Say.Amps, "current");
+        }, d => d.Part.ForwardCurrentRating.Value.Value, Say.Amps, "current");
 }

@@ -13,7 +13,7 @@ internal sealed class DiodeReverseVoltageRule : Rule
     public override RuleId Id => RuleIds.DiodeReverseVoltage;
 
     public override void Evaluate(DesignEvaluation evaluation) =>
-        DiodeStress.Evaluate(evaluation, Id, "peak reverse voltage", (chain, result, diode) =>
+        DiodeStress.Evaluate(evaluation, Id, FigureKinds.DiodeReverseVoltage, FigureKinds.DeratedReverseVoltage, (chain, result, diode) =>
         {
             var (start, end) = TransientRuns.Window(chain, result);
             var anode = DiodeStress.Voltages(result, diode.Anode);
@@ -28,5 +28,5 @@ internal sealed class DiodeReverseVoltageRule : Rule
             }
 
             return peak;
-        }, d => d.Part.ReverseVoltageRating.Value.Value, "V", Say.Volts, "voltage");
+        }, d => d.Part.ReverseVoltageRating.Value.Value, Say.Volts, "voltage");
 }

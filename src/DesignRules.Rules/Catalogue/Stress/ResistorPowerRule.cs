@@ -27,7 +27,7 @@ internal sealed class ResistorPowerRule : Rule
             foreach (var r in stage.Components.Where(c => c.Kind == ElementKind.Resistor && power.ContainsKey(c.ElementId)))
             {
                 double p = power[r.ElementId];
-                var figure = new Figure($"power in {r.Name}", p, "W");
+                var figure = FigureKinds.ResistorPower.Of(r.Name, p);
                 if (r.ResistorFamily is not { } family)
                 {
                     evaluation.Record(stage.StageId, figure);
@@ -51,7 +51,7 @@ internal sealed class ResistorPowerRule : Rule
                     ["derating"] = Say.Percent(derating),
                     ["limit"] = Say.Watts(limit),
                     ["margin"] = Say.Watts(p - limit),
-                }, new Figure("resistor power", p, "W"), new Figure("derated power", limit, "W"));
+                }, FigureKinds.ResistorPower.Of(r.Name, p), FigureKinds.DeratedPower.Of(limit));
             }
         }
     }

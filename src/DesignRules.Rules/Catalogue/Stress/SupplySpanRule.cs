@@ -30,7 +30,7 @@ internal sealed class SupplySpanRule : Rule
                 ["minimum"] = Say.Volts(minimum),
                 ["maximum"] = Say.Volts(maximum),
                 ["limit"] = span < minimum ? $"at least {Say.Volts(minimum)}" : $"{Say.Volts(limit)} ({Say.Percent(derating)} of the maximum)",
-            }, new Figure("supply span", span, "V"), new Figure("allowed span", span < minimum ? minimum : limit, "V"));
+            }, FigureKinds.SupplySpan.Of(span), FigureKinds.AllowedSupplySpan.Of(span < minimum ? minimum : limit));
         }
     }
 }

@@ -33,7 +33,7 @@ internal sealed class UnratedResistorRule : Rule
                     ["component"] = r.ElementId,
                     ["power"] = double.IsNaN(p) ? "an unknown power" : Say.Watts(p),
                     ["hint"] = hint,
-                }, double.IsNaN(p) ? [] : [new Figure("resistor power", p, "W")]);
+                }, double.IsNaN(p) ? [] : [FigureKinds.ResistorPower.Of(r.Name, p)]);
             }
         }
     }

@@ -24,7 +24,7 @@ internal sealed class HalfCycleSymmetryRule : Rule
             double scale = Math.Abs(analysis.Target.SlopePositive);
             double mismatch = analysis.Mismatch.Magnitude / scale;
             if (double.IsNaN(mismatch)) continue;
-            var figure = new Figure("worst-case half-cycle mismatch", mismatch, "%");
+            var figure = FigureKinds.HalfCycleMismatch.Of(mismatch);
             evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed ? figure.AtMost(allowed) : figure);
             if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || mismatch <= accuracy)
             {
@@ -38,7 +38,7 @@ internal sealed class HalfCycleSymmetryRule : Rule
                 ["error"] = Say.Percent(mismatch),
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
-            }, new Figure("worst-case half-cycle mismatch", mismatch, "%"), new Figure("accuracy", accuracy, "1"));
+            }, FigureKinds.HalfCycleMismatch.Of(mismatch), FigureKinds.Accuracy.Of(accuracy));
         }
     }
 }

@@ -18,7 +18,7 @@ internal sealed class OutputOffsetRule : Rule
             if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
             double offset = analysis.OutputOffset;
             if (double.IsNaN(offset)) continue;
-            var figure = new Figure("worst-case output offset", offset, "V");
+            var figure = FigureKinds.OutputOffset.Of(offset);
             evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
             evaluation.Judged(id, "output-offset", Id);
             if (stage.Stage.Requirements.OutputOffset is not { } required || offset <= required.Value.Value)
@@ -34,7 +34,7 @@ internal sealed class OutputOffsetRule : Rule
                 ["offset"] = Say.Volts(offset),
                 ["limit"] = Say.Volts(required.Value.Value),
                 ["cause"] = dominant is null ? "the nominal circuit" : dominant.What,
-            }, new Figure("worst-case output offset", offset, "V"), new Figure("allowed output offset", required.Value.Value, "V"));
+            }, FigureKinds.OutputOffset.Of(offset), FigureKinds.AllowedOutputOffset.Of(required.Value.Value));
         }
     }
 }
