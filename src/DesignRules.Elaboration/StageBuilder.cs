@@ -95,7 +95,7 @@ internal sealed class StageBuilder
             return overridden;
         }
 
-        if (Block is not null && Block.Values.TryGetValue(name, out var value)) return value.Value.Value.Value;
+        if (Block is not null && Block.Values.TryGetValue(name, out var value)) return value.Si;
         chain.Problem($"stage '{Id}' has no value '{name}'", Stage.Span, key);
         return double.NaN;
     }
@@ -109,7 +109,7 @@ internal sealed class StageBuilder
     private void Passive(string name, ElementKind kind, string a, string b)
     {
         var value = Block?.Values.GetValueOrDefault(name);
-        Passive(name, kind, a, b, value?.Value.Value.Value ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
+        Passive(name, kind, a, b, value?.Si ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
     }
 
     /// <summary>Adds a resistor, capacitor or inductor with an explicit nominal value (overrides still apply).</summary>

@@ -13,7 +13,7 @@ internal static class Equations
             return stage.Requirements.Gain is { } g ? $"v_out = {Number(g.Value.Value)}·v_in (required)" : "given by the netlist";
         }
 
-        double V(string name) => b.Values.TryGetValue(name, out var v) ? v.Value.Value.Value : double.NaN;
+        double V(string name) => b.Values.TryGetValue(name, out var v) ? v.Si : double.NaN;
         return b.Block.Name switch
         {
             "inverting" => $"v_out = −(rf/rin)·v_in = {Number(-V("rf") / V("rin"))}·v_in",

@@ -27,12 +27,6 @@ internal static class DesignReader
         ["peak"] = TransferKind.Peak, ["average"] = TransferKind.Average,
     };
 
-    private static readonly Dictionary<string, ElementKind> ElementKinds = new(StringComparer.Ordinal)
-    {
-        ["resistor"] = ElementKind.Resistor, ["capacitor"] = ElementKind.Capacitor, ["inductor"] = ElementKind.Inductor,
-        ["diode"] = ElementKind.Diode, ["amplifier"] = ElementKind.Amplifier,
-    };
-
     private static readonly Dictionary<string, string> SeriesNames = new[] { "E6", "E12", "E24", "E48", "E96", "E192" }
         .ToDictionary(s => s, s => s, StringComparer.Ordinal);
 

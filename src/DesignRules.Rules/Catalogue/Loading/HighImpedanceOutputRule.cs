@@ -99,7 +99,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         return null;
     }
 
-    private static double Deviation(ElaboratedChain chain, Simulation.TransientResult result, StageProbe stage, DiodeProbe diode)
+    private static double Deviation(ElaboratedChain chain, Simulation.Results.TransientResult result, StageProbe stage, DiodeProbe diode)
     {
         var (start, end) = TransientRuns.Window(chain, result);
         var time = result.Time;
@@ -107,7 +107,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         var cathode = result.Voltage(diode.Cathode);
         var output = result.Voltage(stage.OutputNode);
         var inPlus = result.Voltage(stage.InputNode);
-        var inMinus = Simulation.Circuit.IsReference(stage.ReferenceInputNode) ? null : result.Voltage(stage.ReferenceInputNode);
+        var inMinus = Simulation.Circuits.Circuit.IsReference(stage.ReferenceInputNode) ? null : result.Voltage(stage.ReferenceInputNode);
         double temperature = chain.Options.Temperature;
         var current = new double[time.Count];
         double peakCurrent = 0, fullScale = 0;

@@ -109,6 +109,6 @@ internal sealed class ResistorPowerRule : Rule
 
     private static double Square(double v) => v * v;
 
-    private static double[] Voltages(Simulation.TransientResult result, string node) =>
-        Simulation.Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
+    private static double[] Voltages(Simulation.Results.TransientResult result, string node) =>
+        Simulation.Circuits.Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
 }
