@@ -51,7 +51,7 @@ internal static class PageModel
         var stages = new ScriptArray();
         foreach (var stage in design.Stages)
         {
-            stages.Add(Stage(design, stage, summary, findings, plotPath, helpLink));
+            stages.Add(Stage(stage, summary, findings, plotPath, helpLink));
         }
 
         var source = design.Source.Waveform;
@@ -95,7 +95,7 @@ internal static class PageModel
         };
     }
 
-    private static ScriptObject Stage(Design design, Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath,
+    private static ScriptObject Stage(Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath,
         Func<string, string> helpLink)
     {
         var parts = new ScriptArray();
