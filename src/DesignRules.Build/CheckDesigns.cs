@@ -19,7 +19,7 @@ namespace DesignRules.Build;
 public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 {
     /// <summary>The code of the one error an internal failure of the tool becomes.</summary>
-    public const string InternalErrorCode = RunText.FaultId;
+    public static string InternalErrorCode => RunText.FaultId;
 
     /// <summary>Design and parts files (any order; duplicates are dropped).</summary>
     public ITaskItem[] Files { get; set; } = [];

@@ -53,7 +53,7 @@ public sealed record ElaboratedChain
     public required string SourceOutputNode { get; init; }
 
     /// <summary>The engine waveform of the signal source.</summary>
-    public required Simulation.Waveform SourceWaveform { get; init; }
+    public required Simulation.Waveforms.Waveform SourceWaveform { get; init; }
 
     /// <summary>Stages in signal order.</summary>
     public required IReadOnlyList<StageProbe> Stages { get; init; }

@@ -27,7 +27,7 @@ internal static class NetlistStageBuilder
             switch (e.Kind)
             {
                 case ElementKind.Resistor or ElementKind.Capacitor or ElementKind.Inductor when nodes.Length == 2 && e.Value is not null:
-                    s.Passive(name, e.Kind, nodes[0], nodes[1], e.Value.Value.Value, e.ResistorFamily, e.CapacitorFamily, e.Value.Span);
+                    s.Passive(name, e.Kind, nodes[0], nodes[1], e.Value.Si(), e.ResistorFamily, e.CapacitorFamily, e.Value.Span);
                     break;
                 case ElementKind.Diode when nodes.Length == 2 && e.Diode is not null:
                     s.Diode(name, e.Diode, nodes[0], nodes[1], e.Span);

@@ -99,7 +99,7 @@ internal sealed class StageBuilder : IBlockCircuit
             return overridden;
         }
 
-        if (Block is not null && Block.Values.TryGetValue(name, out var value)) return value.Value.Value.Value;
+        if (Block is not null && Block.Values.TryGetValue(name, out var value)) return value.Si;
         chain.Problem($"stage '{Id}' has no value '{name}'", Stage.Span, key);
         return double.NaN;
     }
@@ -121,7 +121,7 @@ internal sealed class StageBuilder : IBlockCircuit
     private void Passive(string valueName, string element, ElementKind kind, string a, string b)
     {
         var value = Block?.Values.GetValueOrDefault(valueName);
-        Passive(element, kind, a, b, value?.Value.Value.Value ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
+        Passive(element, kind, a, b, value?.Si ?? double.NaN, value?.ResistorFamily, value?.CapacitorFamily, value?.Value.Span ?? Stage.Span);
     }
 
     /// <summary>Adds a resistor, capacitor or inductor with an explicit nominal value (overrides still apply).</summary>

@@ -13,7 +13,7 @@ namespace DesignRules.Pages;
 public static class DatasheetPages
 {
     /// <summary>The id of a pages folder the tool will not write into (a file in its place, a link, a file in the way, a lock held too long).</summary>
-    public const string FolderProblemId = "DR931";
+    public static RuleId FolderProblemId => RuleIds.PagesFolderRefused;
 
     private static DiagnosticDescriptor FolderProblem => RuleCatalogue.Default[FolderProblemId];
 

@@ -153,7 +153,7 @@ internal sealed class OutputFolder
             }
             catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
             {
-                diagnostics.Add(RuleCatalogue.Default["DR930"].At(SourceSpan.WholeFile(full), ManifestName, $"the stale page {relative} cannot be removed ({ex.Message})"));
+                diagnostics.Add(RuleCatalogue.Default[RuleIds.TemplateError].At(SourceSpan.WholeFile(full), ManifestName, $"the stale page {relative} cannot be removed ({ex.Message})"));
             }
         }
 

@@ -52,7 +52,7 @@ internal static class PageModel
         var stages = new ScriptArray();
         foreach (var stage in design.Stages)
         {
-            stages.Add(Stage(design, stage, summary, findings, plotPath, helpLink));
+            stages.Add(Stage(stage, summary, findings, plotPath, helpLink));
         }
 
         var source = design.Source.Waveform;
@@ -96,7 +96,7 @@ internal static class PageModel
         };
     }
 
-    private static ScriptObject Stage(Design design, Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath,
+    private static ScriptObject Stage(Stage stage, DesignSummary summary, List<Finding> findings, Func<string, string, string?> plotPath,
         Func<string, string> helpLink)
     {
         var parts = new ScriptArray();
@@ -159,7 +159,11 @@ internal static class PageModel
         var figures = new ScriptArray();
         foreach (var figure in summary.StageFigures.FirstOrDefault(s => s.Key == stage.Id.Value).Value ?? [])
         {
-            figures.Add(new ScriptObject { ["name"] = figure.Name, ["value"] = figure.Value, ["unit"] = figure.Unit });
+            figures.Add(new ScriptObject
+            {
+                ["key"] = figure.Key.ToString(), ["name"] = figure.Name, ["value"] = figure.Value, ["unit"] = figure.Unit,
+                ["limit"] = figure.Limit, ["margin"] = figure.Margin,
+            });
         }
 
         var plots = summary.Plots.FirstOrDefault(p => p.StageId == stage.Id.Value);
@@ -231,8 +235,8 @@ internal static class PageModel
                 // The verdict comes from the rules that judged the requirement (one table, in the check), never from here.
                 var found = verdicts.FirstOrDefault(v => v.StageId == stage.Id.Value && v.Name == name);
                 var verdict = found is null ? "not checked"
-                    : found.Verdict == "not met" && found.Reported.All(id => id == "DR406") ? "not shown (DR406)"
-                    : found.Verdict == "not met" ? "not met (" + string.Join(", ", found.Reported.Where(id => id != "DR406")) + ")"
+                    : found.Verdict == "not met" && found.Reported.All(id => id == RuleIds.YieldNotShown) ? $"not shown ({RuleIds.YieldNotShown})"
+                    : found.Verdict == "not met" ? "not met (" + string.Join(", ", found.Reported.Where(id => id != RuleIds.YieldNotShown)) + ")"
                     : found.Verdict;
                 list.Add(new ScriptObject { ["stage"] = stage.Id.Value, ["name"] = name, ["value"] = text, ["verdict"] = verdict });
             }

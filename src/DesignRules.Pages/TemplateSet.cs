@@ -70,7 +70,7 @@ internal sealed class TemplateSet : ITemplateLoader
         var end = span.End;
         var located = new DesignRules.Diagnostics.SourceSpan(path, Math.Max(1, start.Line + 1), Math.Max(1, start.Column + 1),
             Math.Max(1, end.Line + 1), Math.Max(1, end.Column + 2));
-        return RuleCatalogue.Default["DR930"].At(located, path, message.TrimEnd('.'));
+        return RuleCatalogue.Default[RuleIds.TemplateError].At(located, path, message.TrimEnd('.'));
     }
 
     string ITemplateLoader.GetPath(TemplateContext context, SourceSpan callerSpan, string templateName) =>

@@ -4,18 +4,25 @@ using DesignRules.Rules;
 namespace DesignRules.Reports;
 
 /// <summary>
-/// Writes a check report as a JSON document of our own (<c>designrules-findings</c>, format 1): a summary, every
+/// Writes a check report as a JSON document of our own (<c>designrules-findings</c>, format 2): a summary, every
 /// finding with its location, help page, waiver and figures in SI units, and every checked design's key figures per stage
-/// (passing designs included, so that CI can read a design's numbers), each with the limit and margin where a rule judged
-/// it. Deterministic bytes, like the SARIF report.
+/// (passing designs included, so that CI can read a design's numbers), each with its stable key and the limit and margin
+/// where a rule judged it. The format is published as a JSON Schema (<see cref="SchemaName"/>, in the package's
+/// <c>schemas/</c> folder). Deterministic bytes, like the SARIF report.
 /// </summary>
 public static class JsonReport
 {
     /// <summary>The format name stated in the document.</summary>
     public const string FormatName = "designrules-findings";
 
-    /// <summary>The format version; raised only when a field changes meaning or disappears.</summary>
-    public const int FormatVersion = 1;
+    /// <summary>
+    /// The format version; raised only when a field changes meaning or disappears. 2: every figure carries its stable
+    /// <c>key</c>, and a finding's figures have the same keys, labels and units as the stage's.
+    /// </summary>
+    public const int FormatVersion = 2;
+
+    /// <summary>The file name of the format's JSON Schema (draft 2020-12), beside the design, parts and rule-set schemas.</summary>
+    public const string SchemaName = "report.schema.json";
 
     /// <summary>The JSON document as UTF-8 bytes.</summary>
     public static byte[] ToBytes(CheckReport report, ReportSettings settings)
@@ -212,13 +219,17 @@ public static class JsonReport
         w.WriteEndArray();
     }
 
-    /// <summary>Writes <c>"figures": [{ "name", "value", "unit", "limit"?, "margin"? }]</c> in the given order; limit and margin only where a rule judged the figure.</summary>
+    /// <summary>
+    /// Writes <c>"figures": [{ "key", "name", "value", "unit", "limit"?, "margin"? }]</c> in the given order: the stable key
+    /// (<c>slew.demand@rect.u1.out</c>) to match on, the label for people; limit and margin only where a rule judged the figure.
+    /// </summary>
     internal static void WriteFigures(Utf8JsonWriter w, IReadOnlyList<Figure> figures)
     {
         w.WriteStartArray("figures");
         foreach (var figure in figures)
         {
             w.WriteStartObject();
+            w.WriteString("key", figure.Key.ToString());
             w.WriteString("name", figure.Name);
             ReportJson.Number(w, "value", figure.Value);
             w.WriteString("unit", figure.Unit);

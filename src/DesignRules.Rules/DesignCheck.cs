@@ -39,8 +39,8 @@ public static class DesignCheck
         {
             // Nothing to check is not a pass: name what was searched, so a wrong folder or pattern is found at once. (A
             // design file that failed to load has its own errors already; it was found.)
-            var rule = RuleCatalogue.Default["DR940"];
-            findings.Add(new Finding("DR940", rule.Title, rule.DefaultSeverity, rule.Render([search.Description]),
+            var rule = RuleCatalogue.Default[RuleIds.NoDesignFound];
+            findings.Add(new Finding(RuleIds.NoDesignFound, rule.Title, rule.DefaultSeverity, rule.Render([search.Description]),
                 SourceSpan.WholeFile(search.Location), rule.HelpPage, null, null, null, []));
         }
 

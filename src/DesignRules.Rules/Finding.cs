@@ -32,12 +32,20 @@ public sealed record Finding(
     public bool IsWaived => Waiver is not null;
 }
 
-/// <summary>A named figure with its unit symbol, e.g. ("demanded slew", 14.2e6, "V/s"); "%" marks a fraction shown as a percentage, "1" a plain ratio.</summary>
-/// <param name="Name">What the figure is.</param>
+/// <summary>
+/// A figure with its stable key (<see cref="FigureKey"/>), its value in SI units and, where a rule judged it, the limit and
+/// the margin. The name and unit come from the key's kind.
+/// </summary>
+/// <param name="Key">What the figure is and where in the stage.</param>
 /// <param name="Value">Its value in SI units.</param>
-/// <param name="Unit">The SI unit symbol.</param>
-public sealed record Figure(string Name, double Value, string Unit)
+public sealed record Figure(FigureKey Key, double Value)
 {
+    /// <summary>The label people read, e.g. <c>slew demanded at rect.u1.out</c>.</summary>
+    public string Name => Key.Label;
+
+    /// <summary>The SI unit symbol; "%" marks a fraction shown as a percentage, "1" a plain ratio.</summary>
+    public string Unit => Key.Kind.Unit;
+
     /// <summary>The limit a rule judged the figure against, in the same unit; null when no rule judged it.</summary>
     public double? Limit { get; init; }
 

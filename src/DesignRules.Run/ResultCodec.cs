@@ -13,7 +13,7 @@ namespace DesignRules.Run;
 internal static class ResultCodec
 {
     /// <summary>The version of this encoding, part of every entry's key.</summary>
-    public const int FormatVersion = 1;
+    public const int FormatVersion = 2;
 
     private static readonly JsonSerializerOptions Options = new()
     {
@@ -69,7 +69,7 @@ internal static class ResultCodec
         string RuleId, string Title, int Severity, string Message, string File, int Line, int Column, int EndLine, int EndColumn,
         string HelpPage, string? DesignId, string? StageId, string? Waiver, List<StoredFigure> Figures);
 
-    internal sealed record StoredFigure(string Name, double Value, string Unit, double? Limit, double? Margin);
+    internal sealed record StoredFigure(string Kind, string? Subject, double Value, double? Limit, double? Margin);
 
     private static class FindingCodec
     {
@@ -86,8 +86,16 @@ internal static class ResultCodec
     /// <summary>The one place the cache knows the shape of a figure (the typed figure keys will change it here only).</summary>
     private static class FigureCodec
     {
-        public static StoredFigure ToStored(Figure f) => new(f.Name, f.Value, f.Unit, f.Limit, f.Margin);
+        private static readonly Dictionary<string, FigureKind> Kinds = FigureKinds.All.ToDictionary(k => k.Name, StringComparer.Ordinal);
 
-        public static Figure FromStored(StoredFigure s) => new(s.Name, s.Value, s.Unit) { Limit = s.Limit, Margin = s.Margin };
+        public static StoredFigure ToStored(Figure f) => new(f.Key.Kind.Name, f.Key.Subject, f.Value, f.Limit, f.Margin);
+
+        // A kind this version does not know makes the entry foreign: it is re-evaluated, never guessed.
+        public static Figure FromStored(StoredFigure s) =>
+            new(new FigureKey(Kinds.TryGetValue(s.Kind, out var kind) ? kind : throw new JsonException($"unknown figure kind '{s.Kind}'"), s.Subject), s.Value)
+            {
+                Limit = s.Limit,
+                Margin = s.Margin,
+            };
     }
 }

@@ -9,7 +9,7 @@ namespace DesignRules.Run;
 public static class RunText
 {
     /// <summary>The code of the one error an internal failure of the tool becomes.</summary>
-    public const string FaultId = "DR990";
+    public static readonly RuleId FaultId = RuleIds.InternalFailure;
 
     /// <summary><c>N design(s) in M file(s) checked: E error(s), W warning(s), X waived.</c></summary>
     public static string Summary(CheckReport report)

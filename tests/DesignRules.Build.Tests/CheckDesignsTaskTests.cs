@@ -84,7 +84,7 @@ public sealed class CheckDesignsTaskTests : IDisposable
         Assert.False(raised.Execute());
         Assert.Single(raisedEngine.Errors, e => e.Code == "DR906");
 
-        var (exempt, exemptEngine) = Task(text, t => { t.Levels = "DR906=warning"; t.TreatWarningsAsErrors = true; t.WarningsNotAsErrors = "DR104;DR906"; });
+        var (exempt, exemptEngine) = Task(text, t => { t.Levels = "DR906=warning"; t.TreatWarningsAsErrors = true; t.WarningsNotAsErrors = "DR103;DR906"; });
         Assert.True(exempt.Execute());
         Assert.Single(exemptEngine.Warnings, w => w.Code == "DR906");
 

@@ -31,7 +31,10 @@ public sealed class JsonReportTests
         Assert.True(waived.GetProperty("waived").GetBoolean());
         Assert.Equal("https://example.invalid/rules/DR103.md", waived.GetProperty("helpUri").GetString());
         var figures = waived.GetProperty("figures").EnumerateArray().ToList();
-        Assert.Equal(["glitch width", "limit", "margin"], figures.Select(f => f.GetProperty("name").GetString()));
+        Assert.Equal(["glitch.width", "glitch.allowed", "glitch.error-band"], figures.Select(f => f.GetProperty("key").GetString()));
+        Assert.Equal(["zero-crossing glitch", "allowed glitch", "error band"], figures.Select(f => f.GetProperty("name").GetString()));
+        Assert.Equal(2e-6, figures[0].GetProperty("limit").GetDouble());
+        Assert.Equal(-0.5e-6, figures[0].GetProperty("margin").GetDouble(), 12);
         Assert.Equal(2e-6, figures[1].GetProperty("value").GetDouble());
         Assert.Equal("-Infinity", figures[2].GetProperty("value").GetString());
         Assert.Equal("rect", waived.GetProperty("stage").GetString());

@@ -18,7 +18,7 @@ public sealed class PackageLayoutTests(PackedFeed feed)
             "tasks/net10.0/DesignRules.Core.dll", "tasks/net10.0/YamlDotNet.dll", "tasks/net10.0/MathNet.Numerics.dll",
             "build/DesignRules.Build.props", "build/DesignRules.Build.targets",
             "buildTransitive/DesignRules.Build.props", "buildTransitive/DesignRules.Build.targets",
-            "Sdk/Sdk.props", "Sdk/Sdk.targets", "rules/DR906.md", "schemas/design.schema.json", "schemas/parts.schema.json", "schemas/rule-set.schema.json",
+            "Sdk/Sdk.props", "Sdk/Sdk.targets", "rules/DR906.md", "schemas/design.schema.json", "schemas/parts.schema.json", "schemas/rule-set.schema.json", "schemas/report.schema.json",
         ];
         Assert.All(expected, name => Assert.Contains(name, names));
         Assert.DoesNotContain(names, n => n.StartsWith("lib/", StringComparison.Ordinal));

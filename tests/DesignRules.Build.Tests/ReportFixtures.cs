@@ -18,16 +18,16 @@ internal static class ReportFixtures
         var rules = new[]
         {
             DesignFileDiagnostics.UnknownPart,
-            new DiagnosticDescriptor("DR103", "Zero-crossing glitch", "slew", Severity.Warning, "{0}", "rules/DR103.md"),
+            new DiagnosticDescriptor(RuleIds.ZeroCrossingGlitch, "Zero-crossing glitch", "slew", Severity.Warning, "{0}", "rules/DR103.md"),
         };
         var findings = new[]
         {
-            new Finding("DR906", "Unknown part", Severity.Error, "No amplifier named 'x{0}' {braces} kept.", new SourceSpan(design, 14, 16, 14, 33),
+            new Finding(RuleIds.UnknownPart, "Unknown part", Severity.Error, "No amplifier named 'x{0}' {braces} kept.", new SourceSpan(design, 14, 16, 14, 33),
                 "rules/DR906.md", "front-end", "gain", null, []),
-            new Finding("DR103", "Zero-crossing glitch", Severity.Warning, "Glitch of 2.5 µs at 20 kHz; allowed 2 µs.", new SourceSpan(design, 20, 5, 20, 9),
+            new Finding(RuleIds.ZeroCrossingGlitch, "Zero-crossing glitch", Severity.Warning, "Glitch of 2.5 µs at 20 kHz; allowed 2 µs.", new SourceSpan(design, 20, 5, 20, 9),
                 "rules/DR103.md", "front-end", "rect", "Accepted: the meter averages over 100 ms.",
-                [new Figure("glitch width", 2.5e-6, "s"), new Figure("limit", 2e-6, "s"), new Figure("margin", double.NegativeInfinity, "s")]),
-            new Finding("DR103", "Zero-crossing glitch", Severity.Warning, "Another glitch.", new SourceSpan(parts, 2, 1, 2, 1),
+                [FigureKinds.Glitch.Of(2.5e-6).AtMost(2e-6), FigureKinds.AllowedGlitch.Of(2e-6), FigureKinds.GlitchErrorBand.Of(double.NegativeInfinity)]),
+            new Finding(RuleIds.ZeroCrossingGlitch, "Zero-crossing glitch", Severity.Warning, "Another glitch.", new SourceSpan(parts, 2, 1, 2, 1),
                 "rules/DR103.md", null, null, null, []),
             new Finding("DR990", "Internal", Severity.Note, "Outside the catalogue.", new SourceSpan("builtin:parts", 1, 1, 1, 1),
                 "rules/DR990.md", null, null, null, []),

@@ -16,8 +16,8 @@ public sealed class YieldCaptionTests
         // 1,000 clean samples: the two-sided 95 % Clopper–Pearson lower bound is 0.025^(1/1000) = 99.63 % (closed form
         // of the Beta(1000, 1) quantile).
         Assert.Equal("*Yield 100 % (1,000 of 1,000 samples, seed 20261202); 95 % confidence interval 99.63 % to 100 % (Clopper–Pearson); required 99 %: met.*", caption);
-        Assert.Contains(page, l => l == "| Monte Carlo yield lower bound | 99.63 % |");
-        Assert.Contains(page, l => l == "| Monte Carlo samples | 1000 |");
+        Assert.Contains(page, l => l == "| Monte Carlo yield lower bound | 99.63 % | — | — | `yield.lower` |");
+        Assert.Contains(page, l => l == "| Monte Carlo samples | 1000 | — | — | `yield.samples` |");
     }
 }
 

@@ -6,7 +6,7 @@ namespace DesignRules.Rules.Tests;
 /// <summary>The example hardware repository is evaluated with no errors, and its warnings are explained in its README.</summary>
 public sealed class ExampleRepositoryTests
 {
-    private static CheckReport Check()
+    internal static CheckReport Check()
     {
         var root = Path.Combine(RuleFixture.RepositoryRoot(), "example-design");
         var files = RepositoryFiles.Find([root], out _);
@@ -20,6 +20,13 @@ public sealed class ExampleRepositoryTests
         var report = Check();
         Assert.True(report.DesignCount >= 3, $"{report.DesignCount} designs");
         Assert.True(report.ErrorCount == 0, RuleFixture.Describe(report));
+    }
+
+    [Fact]
+    public void No_finding_of_the_examples_leaves_a_placeholder_in_its_message()
+    {
+        var report = Check();
+        Assert.All(report.Findings, f => Assert.DoesNotMatch(@"\{[a-z0-9-]+\}", f.Message));
     }
 
     [Fact]

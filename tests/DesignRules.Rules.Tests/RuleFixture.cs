@@ -42,11 +42,16 @@ internal static partial class RuleFixture
         }
 
         Assert.DoesNotContain(report.Findings, f => f.RuleId.StartsWith("DR9", StringComparison.Ordinal));
+        // Every argument the catalogue message declares was given: no '{name}' placeholder is left in any message.
+        Assert.All(report.Findings, f => Assert.False(LeftPlaceholder().IsMatch(f.Message), $"{relative}: {f.RuleId} left a placeholder: {f.Message}"));
         return report;
     }
 
     public static string Describe(CheckReport report) =>
         string.Join('\n', report.Findings.Select(f => $"  {f.RuleId} {f.Severity} {f.Span.Line}:{f.Span.Column} {f.Message}"));
+
+    [GeneratedRegex(@"\{[a-z0-9-]+\}", RegexOptions.CultureInvariant)]
+    private static partial Regex LeftPlaceholder();
 
     [GeneratedRegex(@"^# expect: (?:(?<clean>clean) (?<id>DR\d{3})|(?<id>DR\d{3}) (?<severity>error|warning|note) at (?<line>\d+):(?<col>\d+))\s*$")]
     private static partial Regex Expectation();

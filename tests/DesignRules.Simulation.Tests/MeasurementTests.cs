@@ -103,6 +103,8 @@ public sealed class MeasurementTests
         var ac = Simulate.AcSweep(circuit, AcSweep.List("itest", 1e3, 1e4) with { Amplitude = 1e-3 });
 
         // textbook: closed-loop Zout = Rout/(1 + A·β); at 1 kHz |A| ≈ GBW/f = 1000, so |Zout| ≈ 50 Ω/1000 = 0.05 Ω.
-        Assert.Equal(0.05, FrequencyResponse.ImpedanceAtNode(ac, "out", 1e-3, 1e3).Magnitude, 0.05 * 0.01);
+        // Z = V(out)/I with the 1 mA test current injected into the node and every other source quiet.
+        int at1k = ac.Frequencies.ToList().IndexOf(1e3);
+        Assert.Equal(0.05, (ac.Voltage("out")[at1k] / 1e-3).Magnitude, 0.05 * 0.01);
     }
 }

@@ -29,6 +29,9 @@ public sealed class RuleCatalogue
     public DiagnosticDescriptor this[string id] =>
         byId.TryGetValue(id, out var rule) ? rule : throw new KeyNotFoundException($"The rule catalogue has no {id}.");
 
+    /// <summary>The rule with this id; throws for an id the catalogue lacks (a programming error).</summary>
+    public DiagnosticDescriptor this[RuleId id] => this[id.Value];
+
     /// <summary>Looks a rule up by id.</summary>
     public bool TryGet(string id, out DiagnosticDescriptor? rule) => byId.TryGetValue(id, out rule);
 

@@ -27,12 +27,6 @@ internal static class DesignReader
         ["peak"] = TransferKind.Peak, ["average"] = TransferKind.Average,
     };
 
-    private static readonly Dictionary<string, ElementKind> ElementKinds = new(StringComparer.Ordinal)
-    {
-        ["resistor"] = ElementKind.Resistor, ["capacitor"] = ElementKind.Capacitor, ["inductor"] = ElementKind.Inductor,
-        ["diode"] = ElementKind.Diode, ["amplifier"] = ElementKind.Amplifier,
-    };
-
     private static readonly Dictionary<string, string> SeriesNames = new[] { "E6", "E12", "E24", "E48", "E96", "E192" }
         .ToDictionary(s => s, s => s, StringComparer.Ordinal);
 
@@ -458,10 +452,18 @@ internal static class DesignReader
                 continue;
             }
 
-            var rule = m.Text("rule", required: true, "a rule id such as DR104");
-            if (rule is not null && !System.Text.RegularExpressions.Regex.IsMatch(rule.Value, "^DR[0-9]{3}$", System.Text.RegularExpressions.RegexOptions.CultureInvariant))
+            var rule = m.Text("rule", required: true, "a rule id such as DR103");
+            if (rule is not null && !RuleId.IsWellFormed(rule.Value))
             {
-                d(m).Add(DesignFileDiagnostics.MalformedValue.At(rule.Span, rule.Value, "rule", "a rule id is DR and three digits; expected a rule id such as DR104"));
+                d(m).Add(DesignFileDiagnostics.MalformedValue.At(rule.Span, rule.Value, "rule", "a rule id is DR and three digits; expected a rule id such as DR103"));
+                rule = null;
+            }
+            else if (rule is not null && !RuleCatalogue.Default.TryGet(rule.Value, out _))
+            {
+                // A waiver of an id no rule has would never match; say so at load time instead of as DR704 later.
+                var ids = RuleCatalogue.Default.Rules.Select(r => r.Id).ToList();
+                d(m).Add(DesignFileDiagnostics.UnknownChoice.At(rule.Span, rule.Value, "rule",
+                    SpellingSuggestion.Hint(rule.Value, ids), "the ids of rules/catalogue.yaml"));
                 rule = null;
             }
 

@@ -15,7 +15,14 @@ public abstract record Stage(Located<string> Id, Requirements Requirements, Sour
 /// <param name="Value">The nominal value.</param>
 /// <param name="ResistorFamily">Resistor family for a resistance, if any.</param>
 /// <param name="CapacitorFamily">Capacitor family for a capacitance, if any.</param>
-public sealed record ComponentValue(Located<string> Name, Located<Quantity> Value, ResistorFamily? ResistorFamily, CapacitorFamily? CapacitorFamily);
+public sealed record ComponentValue(Located<string> Name, Located<Quantity> Value, ResistorFamily? ResistorFamily, CapacitorFamily? CapacitorFamily)
+{
+    /// <summary>The value's number in SI units (ohms, farads, volts).</summary>
+    public double Si => Value.Value.Value;
+
+    /// <summary>The value with its dimension.</summary>
+    public Quantity Quantity => Value.Value;
+}
 
 /// <summary>An instance of a built-in topology.</summary>
 /// <param name="Id">The stage id.</param>

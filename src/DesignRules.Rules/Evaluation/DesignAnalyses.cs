@@ -102,6 +102,6 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private static AcSweep AcSweepPlan(ElaboratedChain chain)
     {
         // The design's source carries a unit stimulus, so that every node voltage reads as its transfer from the source.
-        return Simulation.AcSweep.Decades(chain.SourceId, 1, 100e6, 20);
+        return Simulation.Analysis.AcSweep.Decades(chain.SourceId, 1, 100e6, 20);
     }
 }

@@ -37,14 +37,13 @@ internal sealed class DesignEvaluation
 
     /// <summary>
     /// Records a key figure of a stage (or of the design, with a null stage) for the reports, whether or not a rule
-    /// fires: e.g. ("slew demanded at stage.u1.out", 14.2e6, "V/s"). A figure recorded twice keeps the first value.
+    /// fires, with the limit a rule judged it against where there is one (<see cref="Figure.AtMost"/>,
+    /// <see cref="Figure.AtLeast"/>): e.g. <c>FigureKinds.SlewDemand.Of("rect.u1.out", 14.2e6)</c>. A key recorded twice
+    /// keeps the first value.
     /// </summary>
-    public void Record(string? stageId, string name, double value, string unit) => Record(stageId, new Figure(name, value, unit));
-
-    /// <summary>Records a key figure with the limit a rule judged it against (<see cref="Figure.AtMost"/>, <see cref="Figure.AtLeast"/>).</summary>
     public void Record(string? stageId, Figure figure)
     {
-        var name = figure.Name;
+        var name = figure.Key;
         var key = stageId ?? string.Empty;
         lock (figures)
         {
@@ -53,7 +52,7 @@ internal sealed class DesignEvaluation
                 figures[key] = list = [];
             }
 
-            if (list.All(f => f.Name != name))
+            if (list.All(f => f.Key != name))
             {
                 list.Add(figure);
             }
@@ -64,7 +63,7 @@ internal sealed class DesignEvaluation
     /// Records that <paramref name="ruleId"/> judged a stage's <paramref name="requirement"/> (compared a figure with it),
     /// whether or not it reported a finding. A requirement no rule judged is "not checked".
     /// </summary>
-    public void Judged(string stageId, string requirement, string ruleId)
+    public void Judged(string stageId, string requirement, RuleId ruleId)
     {
         lock (judged)
         {
@@ -112,7 +111,7 @@ internal sealed class DesignEvaluation
     public IReadOnlyDictionary<string, List<Figure>> Figures => figures;
 
     /// <summary>The level a rule has for this design and stage after the rule-set file's changes.</summary>
-    public RuleLevel LevelOf(string ruleId, string? stageId)
+    public RuleLevel LevelOf(RuleId ruleId, string? stageId)
     {
         var level = ToLevel(RuleCatalogue.Default[ruleId].DefaultSeverity);
         foreach (var change in ruleSet.OverridesFor(ruleId, Design.Id.Value, stageId))
@@ -124,7 +123,7 @@ internal sealed class DesignEvaluation
     }
 
     /// <summary>A threshold's value for this design and stage: catalogue default, then global, design and stage changes.</summary>
-    public double Threshold(string ruleId, string name, string? stageId)
+    public double Threshold(RuleId ruleId, string name, string? stageId)
     {
         var definition = RuleCatalogue.Default[ruleId].Thresholds.FirstOrDefault(t => t.Name == name)
             ?? throw new KeyNotFoundException($"{ruleId} has no threshold '{name}' in the catalogue.");
@@ -141,10 +140,10 @@ internal sealed class DesignEvaluation
     }
 
     /// <summary>True when the rule is not switched off for this stage.</summary>
-    public bool IsOn(string ruleId, string? stageId) => LevelOf(ruleId, stageId) != RuleLevel.Off;
+    public bool IsOn(RuleId ruleId, string? stageId) => LevelOf(ruleId, stageId) != RuleLevel.Off;
 
     /// <summary>Reports a finding of <paramref name="ruleId"/> unless the rule is off for the stage.</summary>
-    public void Report(string ruleId, string? stageId, SourceSpan span, IReadOnlyDictionary<string, string> arguments, params Figure[] figures)
+    public void Report(RuleId ruleId, string? stageId, SourceSpan span, IReadOnlyDictionary<string, string> arguments, params Figure[] figures)
     {
         var level = LevelOf(ruleId, stageId);
         if (level == RuleLevel.Off)
@@ -160,19 +159,19 @@ internal sealed class DesignEvaluation
     /// <summary>Reports an analysis that could not be completed, at the element or node it names.</summary>
     public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain)
     {
-        var rule = RuleCatalogue.Default["DR920"];
+        var rule = RuleCatalogue.Default[RuleIds.AnalysisFailed];
         var message = FailureMessage(analysis, Design.Id.Value, failure);
-        if (findings.Any(f => f.RuleId == "DR920" && f.Message == message))
+        if (findings.Any(f => f.RuleId == RuleIds.AnalysisFailed && f.Message == message))
         {
             return;
         }
 
-        findings.Add(new Finding("DR920", rule.Title, Severity.Error, message, chain.Locate(failure), rule.HelpPage, Design.Id.Value, null, null, []));
+        findings.Add(new Finding(RuleIds.AnalysisFailed, rule.Title, Severity.Error, message, chain.Locate(failure), rule.HelpPage, Design.Id.Value, null, null, []));
     }
 
     /// <summary>The DR920 message of a failed analysis: the failure in its own words (never the kind's code name) and where to look.</summary>
     public static string FailureMessage(string analysis, string designId, SimulationFailure failure) =>
-        RuleCatalogue.Default["DR920"].Render([analysis, designId, failure.ToString(), FailureWording.Advice(failure.Kind)]);
+        RuleCatalogue.Default[RuleIds.AnalysisFailed].Render([analysis, designId, failure.ToString(), FailureWording.Advice(failure.Kind)]);
 
     /// <summary>
     /// True when the transient at <paramref name="end"/> reached its periodic steady state. Otherwise reports DR925 once
@@ -187,14 +186,14 @@ internal sealed class DesignEvaluation
             return true;
         }
 
-        var rule = RuleCatalogue.Default["DR925"];
+        var rule = RuleCatalogue.Default[RuleIds.TransientNotSettled];
         var message = rule.Render([Design.Id.Value, end == BandEnd.Top ? "the top of the band" : "the bottom of the band",
             steady.Periods.ToString(CultureInfo.InvariantCulture), steady.Node ?? "?", Say.Volts(steady.Drift)]);
         lock (findings)
         {
-            if (!findings.Any(f => f.RuleId == "DR925" && f.Message == message))
+            if (!findings.Any(f => f.RuleId == RuleIds.TransientNotSettled && f.Message == message))
             {
-                findings.Add(new Finding("DR925", rule.Title, Severity.Error, message, Design.Id.Span, rule.HelpPage, Design.Id.Value, null, null, []));
+                findings.Add(new Finding(RuleIds.TransientNotSettled, rule.Title, Severity.Error, message, Design.Id.Span, rule.HelpPage, Design.Id.Value, null, null, []));
             }
         }
 

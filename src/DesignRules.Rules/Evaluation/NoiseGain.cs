@@ -83,7 +83,7 @@ internal static class NoiseGain
         }
 
         var model = amplifier.Model;
-        var sweep = Simulation.AcSweep.Decades("noise-gain.drive", 1, Math.Max(10, model.GainBandwidth * 10), 20);
+        var sweep = Simulation.Analysis.AcSweep.Decades("noise-gain.drive", 1, Math.Max(10, model.GainBandwidth * 10), 20);
         var ac = Simulate.AcSweep(circuit, sweep);
         if (!ac.Succeeded)
         {

@@ -50,7 +50,7 @@ internal static class PeriodicSteadyState
         int measured = Math.Max(1, (int)Math.Round((window.StopTime - window.MeasureFrom) / period));
         int startup = Math.Max(2, (int)Math.Round(window.MeasureFrom / period));
         var result = first;
-        double start = 0, stop = window.StopTime;
+        double stop = window.StopTime;
         int periods = startup + measured;
         for (int round = 0; ; round++)
         {
@@ -68,7 +68,7 @@ internal static class PeriodicSteadyState
             }
 
             var state = Extrapolate(result, period, stop);
-            start = stop;
+            double start = stop;
             stop = start + ((startup + measured) * period);
             var next = Simulate.Transient(chain.Circuit, new TransientOptions
             {

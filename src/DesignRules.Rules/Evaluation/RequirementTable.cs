@@ -43,32 +43,32 @@ public static class RequirementTable
     public static IReadOnlyList<RequirementKind> All { get; } =
     [
         // A gain implies transfer: gain, so a transfer stated beside a gain is not a requirement of its own.
-        new("transfer", ["DR401", "DR404", "DR407"], r => r.Gain is null ? r.Transfer?.Span : null, r => Words(r.Transfer!.Value.ToString())),
-        new("gain", ["DR401", "DR402", "DR501"], r => r.Gain?.Span, r => r.Gain!.Value.Format()),
-        new("accuracy", ["DR302", "DR303", "DR304", "DR401", "DR402", "DR403", "DR404", "DR407", "DR501", "DR502"], r => r.Accuracy?.Span,
+        new("transfer", [RuleIds.WorstCaseTransfer, RuleIds.HalfCycleSymmetry, RuleIds.AverageTransfer], r => r.Gain is null ? r.Transfer?.Span : null, r => Words(r.Transfer!.Value.ToString())),
+        new("gain", [RuleIds.WorstCaseTransfer, RuleIds.MonteCarloYield, RuleIds.ClosedLoopBandwidth], r => r.Gain?.Span, r => r.Gain!.Value.Format()),
+        new("accuracy", [RuleIds.SourceImpedance, RuleIds.HighImpedanceOutput, RuleIds.InterstageLoading, RuleIds.WorstCaseTransfer, RuleIds.MonteCarloYield, RuleIds.CommonModeRejection, RuleIds.HalfCycleSymmetry, RuleIds.AverageTransfer, RuleIds.ClosedLoopBandwidth, RuleIds.RectifierLoopGain], r => r.Accuracy?.Span,
             r => "±" + r.Accuracy!.Value.FormatPercent()),
-        new("glitch", ["DR102", "DR103"], r => r.Glitch?.Span, r => r.Glitch!.Value.Format())
+        new("glitch", [RuleIds.SlewDemand, RuleIds.ZeroCrossingGlitch], r => r.Glitch?.Span, r => r.Glitch!.Value.Format())
         {
             AppliesTo = (_, _, probe) => probe is not null && StageProperties.IsRectifying(probe),
             NotApplicableReason = "only rectifying stages have zero-crossing glitches",
         },
-        new("yield", ["DR402", "DR406"], r => r.Yield?.Span, r => r.Yield!.Value.FormatPercent())
+        new("yield", [RuleIds.MonteCarloYield, RuleIds.YieldNotShown], r => r.Yield?.Span, r => r.Yield!.Value.FormatPercent())
         {
             AppliesTo = (_, stage, _) => stage.Requirements.Accuracy is not null,
             NotApplicableReason = "a yield needs an accuracy to count samples against",
         },
-        new("bandwidth", ["DR501"], r => r.Bandwidth?.Span, r => r.Bandwidth!.Value.Format())
+        new("bandwidth", [RuleIds.ClosedLoopBandwidth], r => r.Bandwidth?.Span, r => r.Bandwidth!.Value.Format())
         {
             // DR501 checks a chain-level bandwidth when every stage is a linear gain stage.
             JudgedOnChain = chain => chain.Stages.All(s => s.Transfer.Kind == TransferKind.Gain),
         },
-        new("output-offset", ["DR405"], r => r.OutputOffset?.Span, r => r.OutputOffset!.Value.Format()),
-        new("min-signal", ["DR502"], r => r.MinSignal?.Span, r => r.MinSignal!.Value.Format())
+        new("output-offset", [RuleIds.OutputOffset], r => r.OutputOffset?.Span, r => r.OutputOffset!.Value.Format()),
+        new("min-signal", [RuleIds.RectifierLoopGain], r => r.MinSignal?.Span, r => r.MinSignal!.Value.Format())
         {
             AppliesTo = (_, _, probe) => probe is not null && StageProperties.IsRectifying(probe),
             NotApplicableReason = "the smallest-signal check applies to precision rectifiers",
         },
-        new("cmrr", ["DR403"], r => r.CommonModeRejection?.Span, r => r.CommonModeRejection!.Value.Format())
+        new("cmrr", [RuleIds.CommonModeRejection], r => r.CommonModeRejection?.Span, r => r.CommonModeRejection!.Value.Format())
         {
             // DR403 measures common-mode rejection only where the chain feeds a differential stage from a split source.
             AppliesTo = (design, stage, _) => design.Source.CommonMode is not null && design.Stages[0] == stage
@@ -79,7 +79,7 @@ public static class RequirementTable
         Filter("centre", r => r.Centre, s => s is FilterShape.BandPass, "a centre frequency belongs to a band-pass filter block (a low- or high-pass states its `cutoff`)"),
         Filter("q", r => r.Q, _ => true, "Q is measured on the filter blocks"),
         Filter("passband-gain", r => r.PassbandGain, _ => true, "the pass-band gain is measured on the filter blocks"),
-        new("stopband", ["DR531"], r => r.Stopband?.Span,
+        new("stopband", [RuleIds.StopbandAttenuation], r => r.Stopband?.Span,
             r => $"at least {(20 * Math.Log10(r.Stopband!.Attenuation.Value.Value)).ToString("0.#", CultureInfo.InvariantCulture)} dB at {r.Stopband.Frequency.Value.Format()}")
         {
             AppliesTo = (_, stage, _) => FilterOf(stage) is not null,
@@ -91,7 +91,7 @@ public static class RequirementTable
     internal static FilterResponse? FilterOf(Stage stage) => stage is BlockStage block ? block.Block.Filter(BlockValues.Of(block)) : null;
 
     private static RequirementKind Filter(string key, Func<Requirements, FilterTarget?> target, Func<FilterShape, bool> shapes, string reason) =>
-        new(key, ["DR530", "DR410"], r => target(r)?.Span,
+        new(key, [RuleIds.FilterResponse, RuleIds.FilterTolerance], r => target(r)?.Span,
             r => $"{Format(target(r)!.Value.Value)} ± {target(r)!.Within.Value.FormatPercent()}")
         {
             AppliesTo = (_, stage, _) => FilterOf(stage) is { } f && shapes(f.Shape),

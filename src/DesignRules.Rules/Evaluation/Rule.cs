@@ -7,7 +7,7 @@ namespace DesignRules.Rules.Evaluation;
 internal abstract class Rule
 {
     /// <summary>The catalogue id this class implements.</summary>
-    public abstract string Id { get; }
+    public abstract DesignRules.Diagnostics.RuleId Id { get; }
 
     /// <summary>Compares the design's figures with the rule's limits and reports through <paramref name="evaluation"/>.</summary>
     public abstract void Evaluate(DesignEvaluation evaluation);

@@ -43,10 +43,10 @@ internal static class StageParts
             switch (stage)
             {
                 case BlockStage block:
-                    foreach (var (name, value) in block.Values.Where(v => v.Value.Value.Value.Dimension == Quantities.Dimension.Resistance)
+                    foreach (var (name, value) in block.Values.Where(v => v.Value.Quantity.Dimension == Quantities.Dimension.Resistance)
                                  .OrderBy(v => v.Key, StringComparer.Ordinal))
                     {
-                        yield return new StageResistor(stage, name, value.Value.Value.Value, value.ResistorFamily, value.Value.Span);
+                        yield return new StageResistor(stage, name, value.Si, value.ResistorFamily, value.Value.Span);
                     }
 
                     break;
@@ -63,5 +63,5 @@ internal static class StageParts
 
     /// <summary>A block value in ohms (or farads, volts), or null when the block has no such value.</summary>
     public static double? Value(BlockStage stage, string name) =>
-        stage.Values.TryGetValue(name, out var v) ? v.Value.Value.Value : null;
+        stage.Values.TryGetValue(name, out var v) ? v.Si : null;
 }

@@ -10,7 +10,7 @@ namespace DesignRules.Rules.Evaluation;
 /// </summary>
 internal static class Waivers
 {
-    public static List<Finding> Apply(Design design, IReadOnlyList<Finding> findings, DateOnly today, Func<string, string?, bool> isOn)
+    public static List<Finding> Apply(Design design, IReadOnlyList<Finding> findings, DateOnly today, Func<RuleId, string?, bool> isOn)
     {
         var result = findings.ToList();
         var extra = new List<Finding>();
@@ -20,9 +20,9 @@ internal static class Waivers
             var matches = Enumerable.Range(0, result.Count).Where(i => Matches(waiver, result[i])).ToList();
             if (waiver.Expires is { } expires && expires.Value < today)
             {
-                if (isOn("DR703", StageOf(waiver)))
+                if (isOn(RuleIds.ExpiredWaiver, StageOf(waiver)))
                 {
-                    extra.Add(Make("DR703", design, waiver, expires.Span, new Dictionary<string, string>
+                    extra.Add(Make(RuleIds.ExpiredWaiver, design, waiver, expires.Span, new Dictionary<string, string>
                     {
                         ["rule"] = waiver.Rule.Value, ["target"] = target,
                         ["expires"] = expires.Value.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
@@ -34,9 +34,9 @@ internal static class Waivers
 
             if (matches.Count == 0)
             {
-                if (isOn("DR704", StageOf(waiver)))
+                if (isOn(RuleIds.UnmatchedWaiver, StageOf(waiver)))
                 {
-                    extra.Add(Make("DR704", design, waiver, waiver.Rule.Span, new Dictionary<string, string>
+                    extra.Add(Make(RuleIds.UnmatchedWaiver, design, waiver, waiver.Rule.Span, new Dictionary<string, string>
                     {
                         ["rule"] = waiver.Rule.Value, ["target"] = target,
                     }));
@@ -61,7 +61,7 @@ internal static class Waivers
         finding.RuleId == waiver.Rule.Value && finding.Waiver is null &&
         (waiver.Stage.Value == "*" || waiver.Stage.Value == finding.StageId);
 
-    private static Finding Make(string id, Design design, Waiver waiver, SourceSpan span, Dictionary<string, string> args)
+    private static Finding Make(RuleId id, Design design, Waiver waiver, SourceSpan span, Dictionary<string, string> args)
     {
         var rule = RuleCatalogue.Default[id];
         return new Finding(id, rule.Title, rule.DefaultSeverity, rule.Render(args), span, rule.HelpPage, design.Id.Value, StageOf(waiver), null, []);

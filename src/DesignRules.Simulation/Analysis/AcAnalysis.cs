@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// AC small-signal analysis: at each frequency the devices stamp their admittances linearised at the operating point

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>The complex MNA system of an AC small-signal point, linearised at the operating point held in <see cref="X"/>.</summary>
 internal sealed class AcLoadContext(int size)

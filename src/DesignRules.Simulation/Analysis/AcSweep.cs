@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// An AC small-signal request: which independent source carries the stimulus, with what amplitude, and at which

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>Which equations the devices load.</summary>
 internal enum AnalysisMode

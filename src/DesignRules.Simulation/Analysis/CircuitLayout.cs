@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Numbering of the unknowns of one compiled circuit: circuit nodes first, then element-internal nodes, branch

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Everything a device needs to load its linearised (companion) contribution into the real MNA system at one

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>How one bounded Newton–Raphson solve ended.</summary>
 internal enum NewtonStatus

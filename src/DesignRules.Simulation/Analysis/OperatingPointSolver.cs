@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Finds a DC operating point: plain Newton first; if it fails (or meets a numerically singular iterate), a shunt ramp

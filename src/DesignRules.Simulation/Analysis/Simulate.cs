@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Entry points of the engine: DC operating point, DC sweep, AC small-signal sweep and transient. Each compiles the

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Bounds and tolerances of every solver loop in the engine. Every iteration the engine runs is capped by one

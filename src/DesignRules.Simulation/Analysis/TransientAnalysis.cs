@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Transient analysis by implicit integration of f(x) + dq(x)/dt = s(t): backward Euler on the first step and after

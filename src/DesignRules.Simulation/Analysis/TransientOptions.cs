@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>Time-integration formula of the transient analysis.</summary>
 public enum IntegrationMethod

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>What an unknown of the modified nodal equations stands for.</summary>
 internal enum UnknownKind

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Circuits;
 
 /// <summary>
 /// A circuit under construction: named nodes and elements with unique ids. Nodes come into being when an element

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Circuits;
 
 /// <summary>A circuit numbered and compiled into devices for one analysis run.</summary>
 internal sealed class CompiledCircuit

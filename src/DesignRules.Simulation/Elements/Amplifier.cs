@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>A behavioural amplifier (see <see cref="AmplifierModel"/>) with inputs NonInverting, Inverting and an Output node.</summary>
 internal sealed record AmplifierDefinition(string Id, string NonInverting, string Inverting, string Output, AmplifierModel Model, SupplyRails Rails)

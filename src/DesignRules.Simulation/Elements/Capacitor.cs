@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>A linear capacitor between nodes A and B.</summary>
 internal sealed record CapacitorDefinition(string Id, string A, string B, double Capacitance) : ElementDefinition(Id)

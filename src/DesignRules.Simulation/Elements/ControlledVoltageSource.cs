@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>
 /// An ideal voltage-controlled voltage source: v(OutPlus) − v(OutMinus) = Gain·(v(ControlPlus) − v(ControlMinus)).

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>An independent current source driving the waveform's current out of node From, through the source, into node To.</summary>
 internal sealed record CurrentSourceDefinition(string Id, string From, string To, Waveform Waveform) : ElementDefinition(Id)

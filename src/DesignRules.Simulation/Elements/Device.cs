@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>
 /// A compiled element of one analysis run: knows its unknown indices and loads its equations. Devices are created

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>A junction diode from Anode to Cathode (see <see cref="DiodeModel"/> for its equations).</summary>
 internal sealed record DiodeDefinition(string Id, string Anode, string Cathode, DiodeModel Model) : ElementDefinition(Id)

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>
 /// An element as added to a <see cref="Circuit"/>: its id, the nodes it touches, which of them it connects at DC,

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>A linear inductor between nodes A and B; its branch current flows from A through the inductor to B.</summary>
 internal sealed record InductorDefinition(string Id, string A, string B, double Inductance) : ElementDefinition(Id)

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>A linear resistor between nodes A and B.</summary>
 internal sealed record ResistorDefinition(string Id, string A, string B, double Resistance) : ElementDefinition(Id)

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>Smooth, overflow-safe scalar functions used by the non-linear models.</summary>
 internal static class SmoothFunctions

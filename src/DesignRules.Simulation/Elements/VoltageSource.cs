@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Elements;
 
 /// <summary>
 /// An independent voltage source v(Plus) − v(Minus) = waveform. Its branch current is the current flowing from the

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>
 /// What a transient asked of one amplifier: the peak rate of change at its output pin, how long it was slew-limited,

@@ -1,7 +1,7 @@
 using System.Numerics;
 using MathNet.Numerics.IntegralTransforms;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>
 /// Harmonic content of a periodic signal: the last whole periods are resampled on a uniform grid (linear interpolation

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>Gain and phase of a transfer at one frequency.</summary>
 /// <param name="Frequency">Frequency, Hz.</param>
@@ -67,20 +67,6 @@ public static class FrequencyResponse
         var v = Interpolate(ac.Frequencies, ac.Voltage(node), frequency);
         var i = Interpolate(ac.Frequencies, ac.Current(sourceId), frequency);
         return v / -i;
-    }
-
-    /// <summary>
-    /// Impedance at a node driven by an AC test current of <paramref name="testCurrent"/> A injected into it (with every
-    /// other source quiet): Z = V(node)/I (output impedance of a stage).
-    /// </summary>
-    /// <param name="ac">AC result.</param>
-    /// <param name="node">Node the current is injected into.</param>
-    /// <param name="testCurrent">AC magnitude of the test current, A.</param>
-    /// <param name="frequency">Frequency, Hz.</param>
-    public static Complex ImpedanceAtNode(AcResult ac, string node, double testCurrent, double frequency)
-    {
-        ArgumentNullException.ThrowIfNull(ac);
-        return Interpolate(ac.Frequencies, ac.Voltage(node), frequency) / testCurrent;
     }
 
     private static Complex[] Transfer(AcResult ac, string output, string? input)

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>
 /// Peak of an output during the input's positive half-cycles against its peak during the negative half-cycles

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>Average and RMS of a signal over the last whole number of periods.</summary>
 /// <param name="Average">Mean value over the window.</param>

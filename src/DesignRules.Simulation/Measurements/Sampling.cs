@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>Interpolation and integration on the variable time grid of a transient result.</summary>
 internal static class Sampling

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>Minimum and maximum of a signal and when they occur.</summary>
 /// <param name="Minimum">Smallest value.</param>

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>
 /// Error of an output against an ideal transfer of the input (for example |vin| for an absolute-value circuit, or

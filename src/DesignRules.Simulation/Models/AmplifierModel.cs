@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Models;
 
 /// <summary>
 /// Behavioural operational-amplifier model of this engine, built from the published single-/two-pole description

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Models;
 
 /// <summary>
 /// Parameters of a junction diode following the Shockley law

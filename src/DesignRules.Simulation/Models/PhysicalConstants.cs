@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Models;
 
 /// <summary>
 /// Exact physical constants of the 2019 revision of the SI and the thermal voltage derived from them.

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Models;
 
 /// <summary>Supply rails of an amplifier, as fixed values in V (the rails are not circuit nodes).</summary>
 /// <param name="Positive">Positive rail Vpos in V.</param>

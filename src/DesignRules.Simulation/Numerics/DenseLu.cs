@@ -1,7 +1,7 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Numerics;
 
 /// <summary>
 /// In-place dense LU factorisation with partial (row) pivoting on a flat row-major matrix, allocation-free after

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// Result of an AC small-signal sweep: complex node voltages and reported currents (phasors per unit of the sources'

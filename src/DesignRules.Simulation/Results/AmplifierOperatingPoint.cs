@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>State of one amplifier at a DC operating point.</summary>
 /// <param name="Id">Amplifier id.</param>

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// What the engine recorded for one amplifier at every accepted transient time point (aligned with

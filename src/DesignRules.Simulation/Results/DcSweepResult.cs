@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// Result of a DC sweep: one operating point per value of the swept source. When a point fails, the result holds the

@@ -1,6 +1,6 @@
 using System.Globalization;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>Engineering notation for the few figures the engine writes into its own failure texts (12.5 µs, 1 fs).</summary>
 internal static class EngineeringText

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// Result of a DC operating-point analysis: node voltages, reported branch currents and amplifier states, or the

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>Growable row-major table of recorded samples (one row per time point, sweep value or frequency).</summary>
 /// <typeparam name="T">Sample value type.</typeparam>

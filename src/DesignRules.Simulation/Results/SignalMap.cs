@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// Which column of a recorded sample holds which signal: node voltages (one per circuit node), branch currents of

@@ -1,7 +1,7 @@
 using System.Globalization;
 using System.Text;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// What kind of problem ended an analysis. The member names are for code only: people read the name and sentence that

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>
 /// Result of a transient analysis: the accepted time points (variable spacing), node voltages and reported currents

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>A constant value.</summary>
 /// <param name="Value">The constant, in V or A.</param>

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>One corner of a piecewise-linear waveform.</summary>
 /// <param name="Time">Time in s.</param>

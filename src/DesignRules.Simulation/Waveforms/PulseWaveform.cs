@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>
 /// A periodic pulse (square wave when the duty cycle is one half) with finite linear edges. Each period starts at

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>
 /// A sine: v(t) = Offset + Amplitude·sin(2π·Frequency·(t − Delay) + Phase) for t ≥ Delay, and the value at

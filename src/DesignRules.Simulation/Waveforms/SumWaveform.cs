@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>The sum of several waveforms (for example a sine riding on a slow ramp, or two tones).</summary>
 /// <param name="Terms">Waveforms added together (at least one).</param>

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>
 /// A symmetric triangle between Offset − Amplitude and Offset + Amplitude. Like a sine it starts at the offset,

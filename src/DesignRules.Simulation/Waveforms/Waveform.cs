@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Waveforms;
 
 /// <summary>
 /// Time function of an independent source. A waveform evaluates its value at a time and lists its corners

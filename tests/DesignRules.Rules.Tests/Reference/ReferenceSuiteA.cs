@@ -24,7 +24,7 @@ public sealed class ReferenceSuiteA(ITestOutputHelper output)
         var report = RuleFixture.Verify("reference/a/output-current-demand.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR301");
         AssertNear(0.051, Figure(report, "driver", "peak output current u1"));
-        AssertNear(0.051, finding.Figures.Single(f => f.Name == "peak output current").Value);
+        AssertNear(0.051, finding.Figures.Single(f => f.Key == FigureKinds.OutputCurrent.At("u1")).Value);
         Assert.Contains("must deliver 51 mA", finding.Message, StringComparison.Ordinal);
         // The limited output delivers (nearly) its 20 mA limit and clips: that is the cause, and DR201 does not claim it.
         Assert.Contains("current-limits", finding.Message, StringComparison.Ordinal);

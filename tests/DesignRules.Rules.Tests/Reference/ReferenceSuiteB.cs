@@ -56,7 +56,7 @@ public sealed class ReferenceSuiteB
         // Joule's law: P = V²/R = (5 V)² / 100 Ω = 250 mW.
         var report = RuleFixture.Verify("reference/b/netlist-unrated-resistor.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR605");
-        Within5Percent(0.25, finding.Figures.Single(f => f.Name == "resistor power").Value);
+        Within5Percent(0.25, finding.Figures.Single(f => f.Key.Kind == FigureKinds.ResistorPower).Value);
         Assert.Contains("family:", finding.Message, StringComparison.Ordinal);
     }
 

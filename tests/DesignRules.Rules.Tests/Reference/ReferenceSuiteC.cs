@@ -28,7 +28,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // Same formula: SR/(4·Vp) = 50 kHz < 1.2 × 45 kHz = 54 kHz.
         var report = Verify("reference/c/fpbw-triangle-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR101");
-        AssertNear(50e3, finding.Figures.Single(f => f.Name == "full-power bandwidth").Value);
+        AssertNear(50e3, finding.Figures.Single(f => f.Key.Kind == FigureKinds.FullPowerBandwidth).Value);
         Assert.Contains("SR/(4·Vp)", finding.Message, StringComparison.Ordinal);
     }
 
@@ -39,8 +39,8 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         var report = RuleFixture.Verify("slew/gain-stage-beyond-full-power-bandwidth.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR101");
         Assert.Contains("SR/(2π·Vp), the sine formula", finding.Message, StringComparison.Ordinal);
-        double peak = finding.Figures.Single(f => f.Name == "peak excursion").Value;
-        AssertNear(0.6e6 / (2 * Math.PI * peak), finding.Figures.Single(f => f.Name == "full-power bandwidth").Value);
+        double peak = finding.Figures.Single(f => f.Key.Kind == FigureKinds.PeakExcursion).Value;
+        AssertNear(0.6e6 / (2 * Math.PI * peak), finding.Figures.Single(f => f.Key.Kind == FigureKinds.FullPowerBandwidth).Value);
     }
 
     // ---- Slew demand from the waveform followed (point 4) ----
@@ -59,7 +59,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // ΔV / t_edge = 4 V / 2 µs = 2 V/µs > 1 V/µs.
         var report = Verify("reference/c/slew-fast-edge-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR102");
-        AssertNear(2e6, finding.Figures.Single(f => f.Name == "slew demanded").Value);
+        AssertNear(2e6, finding.Figures.Single(f => f.Key.Kind == FigureKinds.SlewDemand).Value);
     }
 
     // ---- DC transfer over the levels the signal visits (point 3) ----
@@ -83,7 +83,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // vout − vin = Vos = 5 mV at the 6 V bias (same textbook model) > 2 mV.
         var report = Verify("reference/c/bias-follower-offset-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR405");
-        AssertNear(5e-3, finding.Figures.Single(f => f.Name == "worst-case output offset").Value);
+        AssertNear(5e-3, finding.Figures.Single(f => f.Key.Kind == FigureKinds.OutputOffset).Value);
     }
 
     // ---- Offset by extreme-value analysis over every variable (point 2) ----
@@ -115,7 +115,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         output.WriteLine($"hand extreme-value offset {hand * 1e3:F3} mV");
         var report = Verify("reference/c/offset-eva-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR405");
-        AssertNear(hand, finding.Figures.Single(f => f.Name == "worst-case output offset").Value);
+        AssertNear(hand, finding.Figures.Single(f => f.Key.Kind == FigureKinds.OutputOffset).Value);
         Assert.Contains("bias currents through the resistors' tolerance", finding.Message, StringComparison.Ordinal);
     }
 
@@ -138,7 +138,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         var report = Verify("reference/c/corner-swing-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR201");
         Assert.Contains("at the gain-high corner [amp.rf +5 %, amp.rg −5 %]", finding.Message, StringComparison.Ordinal);
-        AssertNear(13.5, Math.Abs(finding.Figures.Single(f => f.Name == "output extreme").Value));
+        AssertNear(13.5, Math.Abs(finding.Figures.Single(f => f.Key.Kind == FigureKinds.OutputExtreme).Value));
         // The worst-case gain is the corner's linear gain, not the clipped ratio 13.5 V / 1 V.
         AssertNear(cornerGain, Figure(report, "amp", "worst-case gain high"));
         AssertNear(1 + (12e3 * 0.95 / (1e3 * 1.05)), Figure(report, "amp", "worst-case gain low"));
@@ -162,7 +162,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         double hand = 9.85 * 9.85 / (2 * 950);
         var report = Verify("reference/c/corner-power-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR601");
-        AssertNear(hand, finding.Figures.Single(f => f.Name == "resistor power").Value);
+        AssertNear(hand, finding.Figures.Single(f => f.Key.Kind == FigureKinds.ResistorPower).Value);
         Assert.Contains("corner [", finding.Message, StringComparison.Ordinal);
         Assert.Contains("amp.rin −5 %", finding.Message, StringComparison.Ordinal);
     }
@@ -184,7 +184,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         double hand = InvertingOutputCurrent(0.77, 9.5e3, 105e3, 500);
         var report = Verify("reference/c/corner-current-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR301");
-        AssertNear(hand, finding.Figures.Single(f => f.Name == "peak output current").Value);
+        AssertNear(hand, finding.Figures.Single(f => f.Key.Kind == FigureKinds.OutputCurrent).Value);
         Assert.Contains("at the gain-high corner [amp.rf +5 %, amp.rin −5 %]", finding.Message, StringComparison.Ordinal);
         Assert.True(InvertingOutputCurrent(0.77, 10e3, 100e3, 500) < 0.016, "nominal values alone pass (the class this fixes)");
     }
@@ -205,7 +205,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // to 1 V pulls it to 1 V · 10k / 110k = 90.9 mV, over the 2 V full scale (ideal |−vin| peak) = 4.55 %.
         var report = Verify("reference/c/rect-return-static-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR303");
-        AssertNear(1.0 * 10e3 / 110e3 / 2.0, finding.Figures.Single(f => f.Name == "output error while the diode is off").Value);
+        AssertNear(1.0 * 10e3 / 110e3 / 2.0, finding.Figures.Single(f => f.Key.Kind == FigureKinds.DiodeOffError).Value);
         // The glitch is what follows a zero crossing: far shorter than the 0.5 ms half-cycle the static error lasts.
         Assert.True(Figure(report, "rect", "zero-crossing glitch") < 10e-6, "the static error is not counted as a glitch");
     }
@@ -226,8 +226,8 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // error taken out, it was the whole 25 µs half-cycle.
         var report = Verify("reference/c/rect-return-slow-glitch-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR103");
-        double glitch = finding.Figures.Single(f => f.Name == "zero-crossing glitch").Value;
-        double slewing = finding.Figures.Single(f => f.Name == "slewing swing").Value / 1e6;
+        double glitch = finding.Figures.Single(f => f.Key.Kind == FigureKinds.Glitch).Value;
+        double slewing = finding.Figures.Single(f => f.Key.Kind == FigureKinds.SlewingSwing).Value / 1e6;
         Assert.InRange(glitch, 0.5e-6, slewing * 1.05);
     }
 
@@ -239,7 +239,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         // Capacitor current i = C·dv/dt at the sine's steepest slope 2π·f·Vp (textbook): 47 µF · 2π · 100 Hz · 5 V = 148 mA.
         var report = Verify("reference/c/peak-filling-fails.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR305");
-        AssertNear(47e-6 * 2 * Math.PI * 100 * 5, finding.Figures.Single(f => f.Name == "hold charge current demanded").Value);
+        AssertNear(47e-6 * 2 * Math.PI * 100 * 5, finding.Figures.Single(f => f.Key.Kind == FigureKinds.HoldChargeCurrent).Value);
         Assert.DoesNotContain(report.Findings, f => f.Message.Contains("droop of hold capacitor", StringComparison.Ordinal));
     }
 
@@ -254,7 +254,7 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         output.WriteLine($"hand droop {droop * 1e3:F2} mV");
         var report = Verify("reference/c/peak-settled-passes.yaml");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR401");
-        AssertNear(droop, finding.Figures.Single(f => f.Name == "hold droop").Value);
+        AssertNear(droop, finding.Figures.Single(f => f.Key.Kind == FigureKinds.HoldDroop).Value);
         Assert.Contains("droop of hold capacitor chold", finding.Message, StringComparison.Ordinal);
     }
 

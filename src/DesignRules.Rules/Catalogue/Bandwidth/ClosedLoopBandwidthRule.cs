@@ -16,7 +16,7 @@ namespace DesignRules.Rules.Catalogue.Bandwidth;
 /// </summary>
 internal sealed class ClosedLoopBandwidthRule : Rule
 {
-    public override string Id => "DR501";
+    public override RuleId Id => RuleIds.ClosedLoopBandwidth;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -51,7 +51,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
             var required = chainBandwidth.Value.Value;
             if (bandwidth is { } bw)
             {
-                evaluation.Record(null, new Figure("closed-loop bandwidth of the chain", bw, "Hz").AtLeast(required));
+                evaluation.Record(null, FigureKinds.ChainBandwidth.Of(bw).AtLeast(required));
             }
 
             if (bandwidth is { } found && found < required)
@@ -62,7 +62,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
                     ["bandwidth"] = Say.Hertz(found),
                     ["required"] = $"at least {Say.Hertz(required)} required, {Say.Hertz(required - found)} short",
                     ["gain-error"] = string.Empty,
-                }, new Figure("closed-loop bandwidth", found, "Hz"), new Figure("required bandwidth", required, "Hz"));
+                }, FigureKinds.ClosedLoopBandwidth.Of(found), FigureKinds.RequiredBandwidth.Of(required));
             }
         }
     }
@@ -74,7 +74,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
         var required = requirements.Bandwidth?.Value.Value;
         if (bandwidth is { } bw)
         {
-            var figure = new Figure("closed-loop bandwidth", bw, "Hz");
+            var figure = FigureKinds.ClosedLoopBandwidth.Of(bw);
             evaluation.Record(stageId, required is { } atLeast ? figure.AtLeast(atLeast) : figure);
             evaluation.Judged(stageId, "bandwidth", Id);
         }
@@ -83,7 +83,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
         double error = atTop is { } h && reference > 0 ? Math.Abs((h.Magnitude / reference) - 1) : 0;
         if (top is not null)
         {
-            evaluation.Record(stageId, new Figure("gain error at the band top", error, "%").AtMost(accuracy));
+            evaluation.Record(stageId, FigureKinds.BandTopGainError.Of(error).AtMost(accuracy));
         }
 
         bool short_ = required is { } r && (bandwidth ?? double.PositiveInfinity) < r;
@@ -103,7 +103,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
             ["gain-error"] = top is { } f
                 ? $"; gain at {Say.Hertz(f)} is off by {Say.Percent(error)} ({Say.Percent(accuracy)} allowed{(error > accuracy ? $", {Say.Percent(error - accuracy)} over" : string.Empty)})"
                 : string.Empty,
-        }, new Figure("closed-loop bandwidth", bandwidth ?? sweep.Frequencies[^1], "Hz"), new Figure("gain error at the band top", error, "%"), new Figure("accuracy", accuracy, "1"));
+        }, FigureKinds.ClosedLoopBandwidth.Of(bandwidth ?? sweep.Frequencies[^1]), FigureKinds.BandTopGainError.Of(error), FigureKinds.Accuracy.Of(accuracy));
     }
 
     private static Complex[] Response(AcResult result, Func<int, Complex> input, string output)

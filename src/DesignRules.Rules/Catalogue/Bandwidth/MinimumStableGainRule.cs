@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
@@ -12,7 +13,7 @@ namespace DesignRules.Rules.Catalogue.Bandwidth;
 /// </summary>
 internal sealed class MinimumStableGainRule : Rule
 {
-    public override string Id => "DR503";
+    public override RuleId Id => RuleIds.MinimumStableGain;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -30,7 +31,7 @@ internal sealed class MinimumStableGainRule : Rule
                 {
                     if (minimum > 1 && chain.Succeeded)
                     {
-                        evaluation.Report("DR702", amp.Stage.Id.Value, amp.PartSpan, new Dictionary<string, string>
+                        evaluation.Report(RuleIds.UncheckedRequirement, amp.Stage.Id.Value, amp.PartSpan, new Dictionary<string, string>
                         {
                             ["requirement"] = $"minimum stable gain {Say.Ratio(minimum)}",
                             ["target"] = $"amplifier `{amp.Stage.Id.Value}.{amp.Slot}`",
@@ -43,7 +44,7 @@ internal sealed class MinimumStableGainRule : Rule
 
                 if (double.IsFinite(noiseGain.Value))
                 {
-                    evaluation.Record(amp.Stage.Id.Value, $"noise gain {amp.Slot}", noiseGain.Value, "1");
+                    evaluation.Record(amp.Stage.Id.Value, FigureKinds.NoiseGain.Of(amp.Slot, noiseGain.Value));
                 }
             }
 
@@ -57,7 +58,7 @@ internal sealed class MinimumStableGainRule : Rule
                 ["amplifier"] = $"{amp.Stage.Id.Value}.{amp.Slot}",
                 ["gain"] = Say.Ratio(noiseGain.Value),
                 ["limit"] = Say.Ratio(minimum),
-            }, new Figure("noise gain", noiseGain.Value, "1"), new Figure("minimum stable gain", minimum, "1"));
+            }, FigureKinds.NoiseGain.Of(amp.Slot, noiseGain.Value), FigureKinds.MinimumStableGain.Of(minimum));
         }
     }
 }

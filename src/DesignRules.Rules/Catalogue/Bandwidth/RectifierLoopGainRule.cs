@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
@@ -16,7 +17,7 @@ internal sealed class RectifierLoopGainRule : Rule
     /// <summary>The forward current the diode drop is taken at, A.</summary>
     private const double DiodeCurrent = 1e-3;
 
-    public override string Id => "DR502";
+    public override RuleId Id => RuleIds.RectifierLoopGain;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -56,10 +57,10 @@ internal sealed class RectifierLoopGainRule : Rule
         var minSignal = stage.Stage.Requirements.MinSignal?.Value.Value;
         double signal = (minSignal ?? inputLevel) * gain;
         double relative = signal > 0 ? outputError / signal : double.PositiveInfinity;
-        evaluation.Record(stageId, $"loop gain at the band top {amp.Slot}", loopGain, "1");
+        evaluation.Record(stageId, FigureKinds.LoopGain.Of(amp.Slot, loopGain));
         evaluation.Judged(stageId, "min-signal", Id);
         double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
-        evaluation.Record(stageId, new Figure("rectifier error at the band top", relative, "%").AtMost(accuracy));
+        evaluation.Record(stageId, FigureKinds.RectifierError.Of(relative).AtMost(accuracy));
         if (relative <= accuracy)
         {
             return;
@@ -74,7 +75,7 @@ internal sealed class RectifierLoopGainRule : Rule
             ["signal"] = Say.Volts(signal),
             ["limit"] = Say.Percent(accuracy),
             ["margin"] = Say.Percent(relative - accuracy),
-        }, new Figure("loop gain at the band top", loopGain, "1"), new Figure("rectifier error at the band top", relative, "%"), new Figure("accuracy", accuracy, "1"));
+        }, FigureKinds.LoopGain.Of(amp.Slot, loopGain), FigureKinds.RectifierError.Of(relative), FigureKinds.Accuracy.Of(accuracy));
     }
 
     /// <summary>The amplifiers whose output drives a diode of the stage (the rectifying loops), each with that diode.</summary>

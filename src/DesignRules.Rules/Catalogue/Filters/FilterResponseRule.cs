@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Filters;
 
@@ -10,36 +11,36 @@ namespace DesignRules.Rules.Catalogue.Filters;
 /// </summary>
 internal sealed class FilterResponseRule : Rule
 {
-    public override string Id => "DR530";
+    public override RuleId Id => RuleIds.FilterResponse;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
         foreach (var stage in FilterStage.Of(evaluation))
         {
             var measured = stage.Measured(evaluation);
-            evaluation.Record(stage.Id, new Figure("ideal f0", stage.Ideal.F0, "Hz"));
-            evaluation.Record(stage.Id, new Figure("ideal Q", stage.Ideal.Q, "1"));
+            evaluation.Record(stage.Id, FigureKinds.IdealF0.Of(stage.Ideal.F0));
+            evaluation.Record(stage.Id, FigureKinds.IdealQ.Of(stage.Ideal.Q));
             if (measured is null)
             {
                 continue;
             }
 
-            if (double.IsFinite(measured.LowerMinus3Db)) evaluation.Record(stage.Id, new Figure("lower −3 dB frequency", measured.LowerMinus3Db, "Hz"));
-            if (double.IsFinite(measured.UpperMinus3Db)) evaluation.Record(stage.Id, new Figure("upper −3 dB frequency", measured.UpperMinus3Db, "Hz"));
+            if (double.IsFinite(measured.LowerMinus3Db)) evaluation.Record(stage.Id, FigureKinds.LowerMinus3Db.Of(measured.LowerMinus3Db));
+            if (double.IsFinite(measured.UpperMinus3Db)) evaluation.Record(stage.Id, FigureKinds.UpperMinus3Db.Of(measured.UpperMinus3Db));
             var judged = stage.Targets().ToDictionary(t => t.Name, StringComparer.Ordinal);
-            foreach (var (name, value, unit) in new[] { ("f0", measured.F0, "Hz"), ("Q", measured.Q, "1"), ("pass-band gain", measured.PassbandGain, "1") })
+            foreach (var (name, value, kinds) in new[] { ("f0", measured.F0, stage.Ideal.Shape == Blocks.FilterShape.BandPass ? FilterFigureKinds.Centre : FilterFigureKinds.F0), ("Q", measured.Q, FilterFigureKinds.Q), ("pass-band gain", measured.PassbandGain, FilterFigureKinds.PassbandGain) })
             {
                 var key = name == "f0" && stage.Ideal.Shape == Blocks.FilterShape.BandPass ? "centre frequency" : name;
                 if (!judged.TryGetValue(key, out var t))
                 {
-                    evaluation.Record(stage.Id, new Figure($"measured {key}", value, unit));
+                    evaluation.Record(stage.Id, kinds.Measured.Of(value));
                     continue;
                 }
 
                 double target = FilterStage.Magnitude(t.Target), within = t.Target.Within.Value.Value;
                 double error = Math.Abs((value / target) - 1);
-                evaluation.Record(stage.Id, new Figure($"measured {key}", value, unit));
-                evaluation.Record(stage.Id, new Figure($"{key} deviation", error, "%").AtMost(within));
+                evaluation.Record(stage.Id, kinds.Measured.Of(value));
+                evaluation.Record(stage.Id, kinds.Deviation.Of(error).AtMost(within));
                 evaluation.Judged(stage.Id, t.Key, Id);
                 if (error <= within)
                 {
@@ -56,7 +57,7 @@ internal sealed class FilterResponseRule : Rule
                     ["within"] = Say.Percent(within),
                     ["error"] = Say.Percent(error),
                     ["margin"] = Say.Percent(error - within),
-                }, new Figure($"measured {key}", value, unit), new Figure($"{key} deviation", error, "%").AtMost(within));
+                }, kinds.Measured.Of(value), kinds.Deviation.Of(error).AtMost(within));
             }
         }
     }

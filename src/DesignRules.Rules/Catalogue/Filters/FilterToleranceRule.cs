@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Catalogue.Filters;
@@ -9,7 +10,7 @@ namespace DesignRules.Rules.Catalogue.Filters;
 /// </summary>
 internal sealed class FilterToleranceRule : Rule
 {
-    public override string Id => "DR410";
+    public override RuleId Id => RuleIds.FilterTolerance;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -32,11 +33,11 @@ internal sealed class FilterToleranceRule : Rule
                 };
                 double error = Math.Max(Math.Abs((range.Low / target) - 1), Math.Abs((range.High / target) - 1));
                 double yield = tolerance.YieldWithin(s => t.Key switch { "q" => s.Q, "passband-gain" => s.Gain, _ => s.F0 }, target, within);
-                string unit = t.Key is "q" or "passband-gain" ? "1" : "Hz";
-                evaluation.Record(stage.Id, new Figure($"worst-case {t.Name} low", range.Low, unit));
-                evaluation.Record(stage.Id, new Figure($"worst-case {t.Name} high", range.High, unit));
-                evaluation.Record(stage.Id, new Figure($"worst-case {t.Name} deviation", error, "%").AtMost(within));
-                if (double.IsFinite(yield)) evaluation.Record(stage.Id, new Figure($"Monte Carlo share of {t.Name} within", yield, "%"));
+                var kinds = FilterFigureKinds.For(t.Key);
+                evaluation.Record(stage.Id, kinds.WorstLow.Of(range.Low));
+                evaluation.Record(stage.Id, kinds.WorstHigh.Of(range.High));
+                evaluation.Record(stage.Id, kinds.WorstDeviation.Of(error).AtMost(within));
+                if (double.IsFinite(yield)) evaluation.Record(stage.Id, kinds.ShareWithin.Of(yield));
                 evaluation.Judged(stage.Id, t.Key, Id);
                 if (error <= within)
                 {
@@ -55,7 +56,7 @@ internal sealed class FilterToleranceRule : Rule
                     ["target"] = t.Say(target),
                     ["within"] = Say.Percent(within),
                     ["error"] = Say.Percent(error),
-                }, new Figure($"worst-case {t.Name} deviation", error, "%").AtMost(within));
+                }, kinds.WorstDeviation.Of(error).AtMost(within));
             }
         }
     }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Filters;
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Filters;
 /// </summary>
 internal sealed class StopbandAttenuationRule : Rule
 {
-    public override string Id => "DR531";
+    public override RuleId Id => RuleIds.StopbandAttenuation;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -27,7 +28,7 @@ internal sealed class StopbandAttenuationRule : Rule
                 continue;
             }
 
-            evaluation.Record(stage.Id, new Figure("stop-band attenuation", attenuation, "1").AtLeast(required));
+            evaluation.Record(stage.Id, FigureKinds.StopbandAttenuation.Of(attenuation).AtLeast(required));
             evaluation.Judged(stage.Id, "stopband", Id);
             if (attenuation >= required)
             {
@@ -41,7 +42,7 @@ internal sealed class StopbandAttenuationRule : Rule
                 ["frequency"] = Say.Hertz(frequency),
                 ["required"] = Say.Decibels(required),
                 ["margin"] = (20 * Math.Log10(required / attenuation)).ToString("0.#", System.Globalization.CultureInfo.InvariantCulture) + " dB",
-            }, new Figure("stop-band attenuation", attenuation, "1").AtLeast(required));
+            }, FigureKinds.StopbandAttenuation.Of(attenuation).AtLeast(required));
         }
     }
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Quantities;
 using DesignRules.Rules.Evaluation;
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Hygiene;
 /// </summary>
 internal sealed class CapacitorPreferredValueRule : Rule
 {
-    public override string Id => "DR710";
+    public override RuleId Id => RuleIds.PreferredCapacitorValue;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -35,7 +36,7 @@ internal sealed class CapacitorPreferredValueRule : Rule
                 ["value"] = Farads(value),
                 ["series"] = series.Name,
                 ["nearest"] = Farads(nearest),
-            }, new Figure("value", value, "F"), new Figure("nearest preferred value", nearest, "F"));
+            }, FigureKinds.CapacitorValue.Of(value), FigureKinds.NearestPreferredCapacitorValue.Of(nearest));
         }
     }
 

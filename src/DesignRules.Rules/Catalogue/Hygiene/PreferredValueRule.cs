@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Quantities;
 using DesignRules.Rules.Evaluation;
 
@@ -6,7 +7,7 @@ namespace DesignRules.Rules.Catalogue.Hygiene;
 /// <summary>DR701: every resistor value belongs to the E-series the design declares (IEC 60063).</summary>
 internal sealed class PreferredValueRule : Rule
 {
-    public override string Id => "DR701";
+    public override RuleId Id => RuleIds.PreferredValue;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -30,7 +31,7 @@ internal sealed class PreferredValueRule : Rule
                 ["value"] = Say.Ohms(resistor.Value),
                 ["series"] = series.Name,
                 ["nearest"] = Say.Ohms(nearest),
-            }, new Figure("value", resistor.Value, "Ω"), new Figure("nearest preferred value", nearest, "Ω"));
+            }, FigureKinds.ResistorValue.Of(resistor.Value), FigureKinds.NearestPreferredValue.Of(nearest));
         }
     }
 }

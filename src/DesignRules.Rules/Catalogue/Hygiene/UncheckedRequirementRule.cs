@@ -9,7 +9,7 @@ namespace DesignRules.Rules.Catalogue.Hygiene;
 /// </summary>
 internal sealed class UncheckedRequirementRule : Rule
 {
-    public override string Id => "DR702";
+    public override RuleId Id => RuleIds.UncheckedRequirement;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

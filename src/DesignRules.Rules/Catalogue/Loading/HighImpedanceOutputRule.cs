@@ -17,7 +17,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class HighImpedanceOutputRule : Rule
 {
-    public override string Id => "DR303";
+    public override RuleId Id => RuleIds.HighImpedanceOutput;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -50,7 +50,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         {
             var stage = probes[stageId];
             double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
-            evaluation.Record(stageId, new Figure("output error while the diode is off", error, "%").AtMost(accuracy));
+            evaluation.Record(stageId, FigureKinds.DiodeOffError.Of(error).AtMost(accuracy));
             if (error <= accuracy)
             {
                 continue;
@@ -62,7 +62,7 @@ internal sealed class HighImpedanceOutputRule : Rule
                 ["error"] = Say.Percent(error),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, new Figure("output error while the diode is off", error, "%"), new Figure("accuracy", accuracy, "1"));
+            }, FigureKinds.DiodeOffError.Of(error), FigureKinds.Accuracy.Of(accuracy));
         }
     }
 
@@ -120,7 +120,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         return stage.Diodes.FirstOrDefault(d => d.Anode == stage.OutputNode || d.Cathode == stage.OutputNode);
     }
 
-    private static double Deviation(ElaboratedChain chain, Simulation.TransientResult result, StageProbe stage, DiodeProbe diode, bool held)
+    private static double Deviation(ElaboratedChain chain, Simulation.Results.TransientResult result, StageProbe stage, DiodeProbe diode, bool held)
     {
         var (start, end) = TransientRuns.Window(chain, result);
         var time = result.Time;
@@ -128,7 +128,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         var cathode = result.Voltage(diode.Cathode);
         var output = result.Voltage(stage.OutputNode);
         var inPlus = result.Voltage(stage.InputNode);
-        var inMinus = Simulation.Circuit.IsReference(stage.ReferenceInputNode) ? null : result.Voltage(stage.ReferenceInputNode);
+        var inMinus = Simulation.Circuits.Circuit.IsReference(stage.ReferenceInputNode) ? null : result.Voltage(stage.ReferenceInputNode);
         double temperature = chain.Options.Temperature;
         var current = new double[time.Count];
         double peakCurrent = 0, fullScale = 0;

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
@@ -11,15 +12,15 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class HoldFillingRule : Rule
 {
-    public override string Id => "DR305";
+    public override RuleId Id => RuleIds.HoldCapacitorFilling;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
         foreach (var (stageId, filling) in HoldFilling.Of(evaluation).OrderBy(f => f.Key, StringComparer.Ordinal))
         {
             double limit = filling.Amplifier.Part.OutputCurrent.Value.Value;
-            evaluation.Record(stageId, new Figure("hold charge current demanded", filling.Demand, "A").AtMost(limit));
-            evaluation.Record(stageId, "held value rise per period", filling.RisePerPeriod, "V");
+            evaluation.Record(stageId, FigureKinds.HoldChargeCurrent.Of(filling.Demand).AtMost(limit));
+            evaluation.Record(stageId, FigureKinds.HeldRisePerPeriod.Of(filling.RisePerPeriod));
             var span = filling.Stage.Stage is BlockStage block && block.Values.TryGetValue(filling.Capacitor.Name, out var value)
                 ? value.Value.Span : filling.Capacitor.Span;
             evaluation.Report(Id, stageId, span, new Dictionary<string, string>
@@ -30,8 +31,8 @@ internal sealed class HoldFillingRule : Rule
                 ["demand"] = Say.Amps(filling.Demand),
                 ["amplifier"] = filling.Amplifier.ElementId,
                 ["limit"] = Say.Amps(limit),
-            }, new Figure("hold charge current demanded", filling.Demand, "A"), new Figure("amplifier output current", limit, "A"),
-               new Figure("held value rise per period", filling.RisePerPeriod, "V"));
+            }, FigureKinds.HoldChargeCurrent.Of(filling.Demand), FigureKinds.HoldAmplifierCurrent.Of(limit),
+               FigureKinds.HeldRisePerPeriod.Of(filling.RisePerPeriod));
         }
     }
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using System.Numerics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
@@ -15,7 +16,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class InterstageLoadingRule : Rule
 {
-    public override string Id => "DR304";
+    public override RuleId Id => RuleIds.InterstageLoading;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -61,7 +62,7 @@ internal sealed class InterstageLoadingRule : Rule
                 accuracy = Math.Min(accuracy, StageFacts.Accuracy(evaluation, Id, stages[k + 1].Stage));
             }
 
-            evaluation.Record(stage.StageId, new Figure("loading loss at the output", worst.Error, "%").AtMost(accuracy));
+            evaluation.Record(stage.StageId, FigureKinds.InterstageLoss.Of(worst.Error).AtMost(accuracy));
 
             if (worst.Error <= accuracy)
             {
@@ -79,8 +80,8 @@ internal sealed class InterstageLoadingRule : Rule
                 ["error"] = Say.Percent(worst.Error),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(worst.Error - accuracy),
-            }, new Figure("loading loss", worst.Error, "1"), new Figure("accuracy", accuracy, "1"),
-                new Figure("output impedance", worst.OutputImpedance.Magnitude, "Ω"), new Figure("input impedance", worst.InputImpedance.Magnitude, "Ω"));
+            }, FigureKinds.InterstageLoss.Of(worst.Error), FigureKinds.Accuracy.Of(accuracy),
+                FigureKinds.OutputImpedance.Of(worst.OutputImpedance.Magnitude), FigureKinds.InputImpedance.Of(worst.InputImpedance.Magnitude));
         }
     }
 

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 
@@ -12,7 +13,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class OutputCurrentRule : Rule
 {
-    public override string Id => "DR301";
+    public override RuleId Id => RuleIds.OutputCurrent;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -52,7 +53,7 @@ internal sealed class OutputCurrentRule : Rule
             double rating = amp.Part.OutputCurrent.Value.Value;
             double derating = evaluation.Threshold(Id, "derating", stageId);
             double limit = rating * derating;
-            evaluation.Record(stageId, new Figure($"peak output current {amp.Slot}", peak, "A").AtMost(limit));
+            evaluation.Record(stageId, FigureKinds.OutputCurrent.Of(amp.Slot, peak).AtMost(limit));
             if (peak <= limit)
             {
                 continue;
@@ -69,8 +70,8 @@ internal sealed class OutputCurrentRule : Rule
                 ["limit"] = $"{Say.Amps(limit)} ({Say.Percent(derating)})",
                 ["margin"] = Say.Amps(peak - limit),
                 ["consequence"] = consequence,
-            }, new Figure("peak output current", peak, "A"), new Figure("derated output current", limit, "A"),
-               new Figure("delivered output current", demand.Delivered, "A"));
+            }, FigureKinds.OutputCurrent.Of(amp.Slot, peak), FigureKinds.DeratedOutputCurrent.Of(limit),
+               FigureKinds.DeliveredOutputCurrent.Of(demand.Delivered));
         }
     }
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 using DesignRules.Simulation;
@@ -14,7 +15,7 @@ namespace DesignRules.Rules.Catalogue.Loading;
 /// </summary>
 internal sealed class SourceImpedanceRule : Rule
 {
-    public override string Id => "DR302";
+    public override RuleId Id => RuleIds.SourceImpedance;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -83,7 +84,7 @@ internal sealed class SourceImpedanceRule : Rule
 
         var stageId = first.StageId;
         double accuracy = StageFacts.Accuracy(evaluation, Id, first.Stage);
-        evaluation.Record(stageId, new Figure("source loading loss", error, "%").AtMost(accuracy));
+        evaluation.Record(stageId, FigureKinds.SourceLoadingLoss.Of(error).AtMost(accuracy));
         if (error <= accuracy)
         {
             return;
@@ -97,7 +98,7 @@ internal sealed class SourceImpedanceRule : Rule
             ["error"] = Say.Percent(error),
             ["limit"] = Say.Percent(accuracy),
             ["margin"] = Say.Percent(error - accuracy),
-        }, new Figure("source loading loss", error, "%"), new Figure("accuracy", accuracy, "1"));
+        }, FigureKinds.SourceLoadingLoss.Of(error), FigureKinds.Accuracy.Of(accuracy));
     }
 
     private static bool Split(SmallSignal small) => !Circuit.IsReference(small.Chain.Stages[0].ReferenceInputNode);

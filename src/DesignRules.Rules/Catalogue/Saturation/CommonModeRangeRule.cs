@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class CommonModeRangeRule : Rule
 {
-    public override string Id => "DR203";
+    public override RuleId Id => RuleIds.CommonModeRange;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -44,7 +45,7 @@ internal sealed class CommonModeRangeRule : Rule
         foreach (var x in order.Select(n => worst[n]))
         {
             var a = x.Amplifier;
-            evaluation.Record(a.Stage.StageId, new Figure($"input common-mode margin {a.Probe.Slot}", -x.Over, "V").AtLeast(0));
+            evaluation.Record(a.Stage.StageId, FigureKinds.CommonModeMargin.Of(a.Probe.Slot, -x.Over).AtLeast(0));
             if (x.Over <= 0)
             {
                 continue;
@@ -57,7 +58,7 @@ internal sealed class CommonModeRangeRule : Rule
                 ["limit"] = Say.Volts(x.Limit),
                 ["rail"] = x.Rail,
                 ["margin"] = Say.Volts(x.Over),
-            }, new Figure("input extreme", x.Extreme, "V"), new Figure("common-mode limit", x.Limit, "V"));
+            }, FigureKinds.InputExtreme.Of(x.Extreme), FigureKinds.CommonModeLimit.Of(x.Limit));
         }
     }
 

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class DifferentialInputRule : Rule
 {
-    public override string Id => "DR204";
+    public override RuleId Id => RuleIds.DifferentialInput;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -31,7 +32,7 @@ internal sealed class DifferentialInputRule : Rule
 
         foreach (var a in order.Select(n => worst[n]))
         {
-            var peak = new Figure($"peak differential input {a.Probe.Slot}", a.PeakDifferentialInput, "V");
+            var peak = FigureKinds.DifferentialInput.Of(a.Probe.Slot, a.PeakDifferentialInput);
             evaluation.Record(a.Stage.StageId, a.Probe.Part.MaxDifferentialInput is { } maximum ? peak.AtMost(maximum.Value.Value) : peak);
             if (a.Probe.Part.MaxDifferentialInput is not { } rating || a.PeakDifferentialInput <= rating.Value.Value)
             {
@@ -43,7 +44,7 @@ internal sealed class DifferentialInputRule : Rule
                 ["amplifier"] = a.Name,
                 ["vd"] = Say.Volts(a.PeakDifferentialInput),
                 ["limit"] = Say.Volts(rating.Value.Value),
-            }, new Figure("peak differential input", a.PeakDifferentialInput, "V"), new Figure("maximum differential input", rating.Value.Value, "V"));
+            }, FigureKinds.DifferentialInput.Of(a.Probe.Slot, a.PeakDifferentialInput), FigureKinds.MaximumDifferentialInput.Of(rating.Value.Value));
         }
     }
 }

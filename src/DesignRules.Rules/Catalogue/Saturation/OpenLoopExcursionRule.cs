@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class OpenLoopExcursionRule : Rule
 {
-    public override string Id => "DR202";
+    public override RuleId Id => RuleIds.OpenLoopExcursion;
 
     /// <summary>An output within this distance of a swing limit counts as having run to it, V.</summary>
     private const double AtLimit = 0.05;
@@ -48,9 +49,9 @@ internal sealed class OpenLoopExcursionRule : Rule
         {
             var a = x.Amplifier;
             var stageId = a.Stage.StageId;
-            evaluation.Record(stageId, $"open-loop excursion {a.Probe.Slot}", x.Excursion, "V");
+            evaluation.Record(stageId, FigureKinds.OpenLoopExcursion.Of(a.Probe.Slot, x.Excursion));
             double limit = evaluation.Threshold(Id, "max-fraction", stageId);
-            evaluation.Record(stageId, new Figure($"recovery time {a.Probe.Slot}", x.Recovery, "s").AtMost(limit / x.Frequency));
+            evaluation.Record(stageId, FigureKinds.RecoveryTime.Of(a.Probe.Slot, x.Recovery).AtMost(limit / x.Frequency));
             if (x.Fraction <= limit)
             {
                 continue;
@@ -64,8 +65,8 @@ internal sealed class OpenLoopExcursionRule : Rule
                 ["frequency"] = Say.Hertz(x.Frequency),
                 ["fraction"] = Say.Percent(x.Fraction),
                 ["limit"] = Say.Percent(limit),
-            }, new Figure("open-loop excursion", x.Excursion, "V"), new Figure("recovery time", x.Recovery, "s"),
-               new Figure("recovery fraction of period", x.Fraction, "1"), new Figure("allowed fraction", limit, "1"));
+            }, FigureKinds.OpenLoopExcursion.Of(a.Probe.Slot, x.Excursion), FigureKinds.RecoveryTime.Of(a.Probe.Slot, x.Recovery),
+               FigureKinds.RecoveryFraction.Of(x.Fraction), FigureKinds.AllowedRecoveryFraction.Of(limit));
         }
     }
 

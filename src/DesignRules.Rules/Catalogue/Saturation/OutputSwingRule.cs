@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 using DesignRules.Rules.Evaluation.SlewSaturation;
@@ -14,7 +15,7 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class OutputSwingRule : Rule
 {
-    public override string Id => "DR201";
+    public override RuleId Id => RuleIds.OutputSwing;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -55,7 +56,7 @@ internal sealed class OutputSwingRule : Rule
             var a = s.Amplifier;
             // The room left to the swing limit, judged against the margin threshold (a clipping output has none left).
             double room = s.Clips ? 0 : s.Rail == "positive" ? s.Limit - s.Extreme : s.Extreme - s.Limit;
-            evaluation.Record(a.Stage.StageId, new Figure($"output swing margin {a.Probe.Slot}", room, "V").AtLeast(s.Margin));
+            evaluation.Record(a.Stage.StageId, FigureKinds.SwingMargin.Of(a.Probe.Slot, room).AtLeast(s.Margin));
             if (s.Over <= 0 && !s.Clips)
             {
                 continue;
@@ -85,7 +86,7 @@ internal sealed class OutputSwingRule : Rule
                 ["limit"] = $"{Say.Volts(s.WithMargin)} ({Say.Volts(s.Limit)} less {Say.Volts(s.Margin)} margin)",
                 ["rail"] = s.Rail,
                 ["margin"] = s.Clips ? "the output clips" : $"{Say.Volts(s.Over)} over",
-            }, new Figure("output extreme", s.Extreme, "V"), new Figure("swing limit", s.Limit, "V"), new Figure("offset shift", s.Offset, "V"));
+            }, FigureKinds.OutputExtreme.Of(s.Extreme), FigureKinds.SwingLimit.Of(s.Limit), FigureKinds.OffsetShift.Of(s.Offset));
         }
     }
 

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -10,14 +11,14 @@ namespace DesignRules.Rules.Catalogue.Saturation;
 /// </summary>
 internal sealed class SingleSupplyBiasRule : Rule
 {
-    public override string Id => "DR205";
+    public override RuleId Id => RuleIds.SingleSupplyBias;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var design = evaluation.Design;
         foreach (var s in SingleSupply.Stages(evaluation))
         {
-            evaluation.Record(s.Stage.StageId, new Figure("single-supply input headroom", s.Minimum - s.Limit, "V").AtLeast(0));
+            evaluation.Record(s.Stage.StageId, FigureKinds.SingleSupplyHeadroom.Of(s.Minimum - s.Limit).AtLeast(0));
             if (!s.NeedsBias)
             {
                 continue;
@@ -30,7 +31,7 @@ internal sealed class SingleSupplyBiasRule : Rule
                 ["stage"] = s.Stage.StageId,
                 ["extreme"] = Say.Volts(s.Minimum),
                 ["limit"] = Say.Volts(s.Limit),
-            }, new Figure("input minimum", s.Minimum, "V"), new Figure("usable input minimum", s.Limit, "V"));
+            }, FigureKinds.InputMinimum.Of(s.Minimum), FigureKinds.UsableInputMinimum.Of(s.Limit));
         }
     }
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
@@ -13,7 +14,7 @@ namespace DesignRules.Rules.Catalogue.Slew;
 /// </summary>
 internal sealed class FullPowerBandwidthRule : Rule
 {
-    public override string Id => "DR101";
+    public override RuleId Id => RuleIds.FullPowerBandwidth;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -36,7 +37,7 @@ internal sealed class FullPowerBandwidthRule : Rule
             double limit = frequency * evaluation.Threshold(Id, "min-ratio", stageId);
             if (double.IsFinite(fpbw))
             {
-                evaluation.Record(stageId, new Figure($"full-power bandwidth {a.Probe.Slot}", fpbw, "Hz").AtLeast(limit));
+                evaluation.Record(stageId, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtLeast(limit));
             }
 
             if (fpbw >= limit)
@@ -54,9 +55,9 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
-            }, new Figure("full-power bandwidth", fpbw, "Hz"), new Figure("required full-power bandwidth", limit, "Hz"),
-               new Figure("peak excursion", peak, "V"), new Figure("slew rate", a.SlewSlower, "V/s"),
-               new Figure("steepest slope demanded", 2 * Math.PI * shape.Factor * frequency * peak, "V/s"));
+            }, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
+               FigureKinds.PeakExcursion.Of(peak), FigureKinds.SlewRate.Of(a.SlewSlower),
+               FigureKinds.SteepestSlope.Of(2 * Math.PI * shape.Factor * frequency * peak));
         }
     }
 }

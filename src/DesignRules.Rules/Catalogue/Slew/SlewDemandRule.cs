@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Slew;
 /// </summary>
 internal sealed class SlewDemandRule : Rule
 {
-    public override string Id => "DR102";
+    public override RuleId Id => RuleIds.SlewDemand;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -56,7 +57,7 @@ internal sealed class SlewDemandRule : Rule
         foreach (var d in order.Select(n => worst[n]))
         {
             var a = d.Amplifier;
-            var demanded = new Figure($"slew demanded at {a.Node}", d.Rate, "V/s");
+            var demanded = FigureKinds.SlewDemand.Of(a.Node, d.Rate);
             evaluation.Record(a.Stage.StageId, d.Event is { } judged ? demanded.AtMost(judged.Rising ? a.SlewRising : a.SlewFalling) : demanded);
             if (d.Event is not { } e || d.Ratio <= 1)
             {
@@ -74,8 +75,8 @@ internal sealed class SlewDemandRule : Rule
                 ["window"] = Say.Seconds(time),
                 ["slew"] = Say.Slew(slew),
                 ["margin"] = Say.Slew(d.Rate - slew),
-            }, new Figure("slew demanded", d.Rate, "V/s"), new Figure("slew rate", slew, "V/s"),
-               new Figure("slewing swing", e.Swing, "V"), new Figure("time allowed", time, "s"));
+            }, FigureKinds.SlewDemand.Of(a.Node, d.Rate), FigureKinds.SlewRate.Of(slew),
+               FigureKinds.SlewingSwing.Of(e.Swing), FigureKinds.SlewWindow.Of(time));
         }
     }
 

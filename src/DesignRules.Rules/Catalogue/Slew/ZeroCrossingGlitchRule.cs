@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.SlewSaturation;
 
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Slew;
 /// </summary>
 internal sealed class ZeroCrossingGlitchRule : Rule
 {
-    public override string Id => "DR103";
+    public override RuleId Id => RuleIds.ZeroCrossingGlitch;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -53,7 +54,7 @@ internal sealed class ZeroCrossingGlitchRule : Rule
         foreach (var stageId in order)
         {
             var g = worst[stageId];
-            evaluation.Record(stageId, new Figure("zero-crossing glitch", g.Measured.Width, "s").AtMost(g.Limit));
+            evaluation.Record(stageId, FigureKinds.Glitch.Of(g.Measured.Width).AtMost(g.Limit));
             evaluation.Judged(stageId, "glitch", Id);
             if (g.Ratio <= 1)
             {
@@ -69,8 +70,8 @@ internal sealed class ZeroCrossingGlitchRule : Rule
                 ["swing"] = Say.Volts(g.Event?.Swing ?? 0),
                 ["limit"] = Say.Seconds(g.Limit),
                 ["margin"] = Say.Seconds(g.Measured.Width - g.Limit),
-            }, new Figure("zero-crossing glitch", g.Measured.Width, "s"), new Figure("allowed glitch", g.Limit, "s"),
-               new Figure("error band", g.Measured.Tolerance, "V"), new Figure("slewing swing", g.Event?.Swing ?? 0, "V"));
+            }, FigureKinds.Glitch.Of(g.Measured.Width), FigureKinds.AllowedGlitch.Of(g.Limit),
+               FigureKinds.GlitchErrorBand.Of(g.Measured.Tolerance), FigureKinds.SlewingSwing.Of(g.Event?.Swing ?? 0));
         }
     }
 

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 
@@ -10,10 +11,10 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class DiodeForwardCurrentRule : Rule
 {
-    public override string Id => "DR603";
+    public override RuleId Id => RuleIds.DiodeForwardCurrent;
 
     public override void Evaluate(DesignEvaluation evaluation) =>
-        DiodeStress.Evaluate(evaluation, Id, "peak forward current", (chain, result, diode) =>
+        DiodeStress.Evaluate(evaluation, Id, FigureKinds.DiodeForwardCurrent, FigureKinds.DeratedForwardCurrent, (chain, result, diode) =>
         {
             var (start, end) = TransientRuns.Window(chain, result);
             var anode = DiodeStress.Voltages(result, diode.Anode);
@@ -29,5 +30,5 @@ internal sealed class DiodeForwardCurrentRule : Rule
 
             // The model's current rises with the voltage, so the largest voltage gives the peak current.
             return DiodeConduction.ForwardCurrent(diode.Model, forward, chain.Options.Temperature);
-        }, d => d.Part.ForwardCurrentRating.Value.Value, "A", Say.Amps, "current");
+        }, d => d.Part.ForwardCurrentRating.Value.Value, Say.Amps, "current");
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 
@@ -9,10 +10,10 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class DiodeReverseVoltageRule : Rule
 {
-    public override string Id => "DR602";
+    public override RuleId Id => RuleIds.DiodeReverseVoltage;
 
     public override void Evaluate(DesignEvaluation evaluation) =>
-        DiodeStress.Evaluate(evaluation, Id, "peak reverse voltage", (chain, result, diode) =>
+        DiodeStress.Evaluate(evaluation, Id, FigureKinds.DiodeReverseVoltage, FigureKinds.DeratedReverseVoltage, (chain, result, diode) =>
         {
             var (start, end) = TransientRuns.Window(chain, result);
             var anode = DiodeStress.Voltages(result, diode.Anode);
@@ -27,5 +28,5 @@ internal sealed class DiodeReverseVoltageRule : Rule
             }
 
             return peak;
-        }, d => d.Part.ReverseVoltageRating.Value.Value, "V", Say.Volts, "voltage");
+        }, d => d.Part.ReverseVoltageRating.Value.Value, Say.Volts, "voltage");
 }

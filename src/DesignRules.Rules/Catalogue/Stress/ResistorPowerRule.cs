@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
@@ -12,7 +13,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class ResistorPowerRule : Rule
 {
-    public override string Id => "DR601";
+    public override RuleId Id => RuleIds.ResistorPower;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -27,7 +28,7 @@ internal sealed class ResistorPowerRule : Rule
             foreach (var r in stage.Components.Where(c => c.Kind == ElementKind.Resistor && power.ContainsKey(c.ElementId)))
             {
                 double p = power[r.ElementId];
-                var figure = new Figure($"power in {r.Name}", p, "W");
+                var figure = FigureKinds.ResistorPower.Of(r.Name, p);
                 if (r.ResistorFamily is not { } family)
                 {
                     evaluation.Record(stage.StageId, figure);
@@ -51,7 +52,7 @@ internal sealed class ResistorPowerRule : Rule
                     ["derating"] = Say.Percent(derating),
                     ["limit"] = Say.Watts(limit),
                     ["margin"] = Say.Watts(p - limit),
-                }, new Figure("resistor power", p, "W"), new Figure("derated power", limit, "W"));
+                }, FigureKinds.ResistorPower.Of(r.Name, p), FigureKinds.DeratedPower.Of(limit));
             }
         }
     }
@@ -136,6 +137,6 @@ internal sealed class ResistorPowerRule : Rule
 
     private static double Square(double v) => v * v;
 
-    private static double[] Voltages(Simulation.TransientResult result, string node) =>
-        Simulation.Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
+    private static double[] Voltages(Simulation.Results.TransientResult result, string node) =>
+        Simulation.Circuits.Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Catalogue.Stress;
@@ -5,7 +6,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// <summary>DR604: the supply span against each amplifier's allowed span, the maximum derated.</summary>
 internal sealed class SupplySpanRule : Rule
 {
-    public override string Id => "DR604";
+    public override RuleId Id => RuleIds.SupplySpan;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -29,7 +30,7 @@ internal sealed class SupplySpanRule : Rule
                 ["minimum"] = Say.Volts(minimum),
                 ["maximum"] = Say.Volts(maximum),
                 ["limit"] = span < minimum ? $"at least {Say.Volts(minimum)}" : $"{Say.Volts(limit)} ({Say.Percent(derating)} of the maximum)",
-            }, new Figure("supply span", span, "V"), new Figure("allowed span", span < minimum ? minimum : limit, "V"));
+            }, FigureKinds.SupplySpan.Of(span), FigureKinds.AllowedSupplySpan.Of(span < minimum ? minimum : limit));
         }
     }
 }

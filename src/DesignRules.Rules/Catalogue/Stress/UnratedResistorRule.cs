@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 
@@ -9,7 +10,7 @@ namespace DesignRules.Rules.Catalogue.Stress;
 /// </summary>
 internal sealed class UnratedResistorRule : Rule
 {
-    public override string Id => "DR605";
+    public override RuleId Id => RuleIds.UnratedResistor;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -32,7 +33,7 @@ internal sealed class UnratedResistorRule : Rule
                     ["component"] = r.ElementId,
                     ["power"] = double.IsNaN(p) ? "an unknown power" : Say.Watts(p),
                     ["hint"] = hint,
-                }, double.IsNaN(p) ? [] : [new Figure("resistor power", p, "W")]);
+                }, double.IsNaN(p) ? [] : [FigureKinds.ResistorPower.Of(r.Name, p)]);
             }
         }
     }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
@@ -14,7 +15,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class AverageTransferRule : Rule
 {
-    public override string Id => "DR407";
+    public override RuleId Id => RuleIds.AverageTransfer;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -56,14 +57,14 @@ internal sealed class AverageTransferRule : Rule
             }
 
             string id = stage.Id.Value;
-            evaluation.Record(id, "averaged level", l.Measured, "V");
-            evaluation.Record(id, "ideal averaged level", l.Ideal, "V");
+            evaluation.Record(id, FigureKinds.AveragedLevel.Of(l.Measured));
+            evaluation.Record(id, FigureKinds.IdealAveragedLevel.Of(l.Ideal));
             if (double.IsNaN(l.Error))
             {
                 continue;
             }
 
-            evaluation.Record(id, "average transfer error", l.Error, "%");
+            evaluation.Record(id, FigureKinds.AverageError.Of(l.Error));
             evaluation.Judged(id, "accuracy", Id);
             evaluation.Judged(id, "transfer", Id);
             if (stage.Requirements.Accuracy is not { } accuracy || l.Error <= accuracy.Value.Value)
@@ -80,7 +81,7 @@ internal sealed class AverageTransferRule : Rule
                 ["error"] = Say.Percent(l.Error),
                 ["limit"] = Say.Percent(accuracy.Value.Value),
                 ["margin"] = Say.Percent(l.Error - accuracy.Value.Value),
-            }, new Figure("averaged level", l.Measured, "V"), new Figure("ideal averaged level", l.Ideal, "V"), new Figure("average transfer error", l.Error, "%"));
+            }, FigureKinds.AveragedLevel.Of(l.Measured), FigureKinds.IdealAveragedLevel.Of(l.Ideal), FigureKinds.AverageError.Of(l.Error));
         }
     }
 

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
 
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class CommonModeRejectionRule : Rule
 {
-    public override string Id => "DR403";
+    public override RuleId Id => RuleIds.CommonModeRejection;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -31,11 +32,11 @@ internal sealed class CommonModeRejectionRule : Rule
             var required = stage.Stage.Requirements.CommonModeRejection;
             if (double.IsFinite(cmrr))
             {
-                var rejection = new Figure("worst-case common-mode rejection", cmrr, "1");
+                var rejection = FigureKinds.CommonModeRejection.Of(cmrr);
                 evaluation.Record(id, required is { } atLeast ? rejection.AtLeast(atLeast.Value.Value) : rejection);
             }
 
-            evaluation.Record(id, new Figure("common-mode output error", error, "V").AtMost(limit));
+            evaluation.Record(id, FigureKinds.CommonModeError.Of(error).AtMost(limit));
             evaluation.Judged(id, "cmrr", Id);
             bool rejectsTooLittle = required is { } r && cmrr < r.Value.Value;
             if (!(error > limit) && !rejectsTooLittle)
@@ -54,13 +55,13 @@ internal sealed class CommonModeRejectionRule : Rule
                 : shift;
             var figures = new List<Figure>
             {
-                new("worst-case common-mode rejection", cmrr, "1"),
-                new("common-mode output error", error, "V"),
-                new("allowed error", limit, "V"),
+                FigureKinds.CommonModeRejection.Of(cmrr),
+                FigureKinds.CommonModeError.Of(error),
+                FigureKinds.AllowedCommonModeError.Of(limit),
             };
             if (required is not null)
             {
-                figures.Add(new Figure("required common-mode rejection", required.Value.Value, "1"));
+                figures.Add(FigureKinds.RequiredCommonModeRejection.Of(required.Value.Value));
             }
 
             evaluation.Report(Id, id, ToleranceAnalyses.Target(dominant, fallback), new Dictionary<string, string>

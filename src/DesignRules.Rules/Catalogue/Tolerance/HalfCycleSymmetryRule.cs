@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
@@ -7,7 +8,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// <summary>DR404: the worst-case mismatch of an absolute-value stage's two half-cycle gains against its accuracy.</summary>
 internal sealed class HalfCycleSymmetryRule : Rule
 {
-    public override string Id => "DR404";
+    public override RuleId Id => RuleIds.HalfCycleSymmetry;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -23,7 +24,7 @@ internal sealed class HalfCycleSymmetryRule : Rule
             double scale = Math.Abs(analysis.Target.SlopePositive);
             double mismatch = analysis.Mismatch.Magnitude / scale;
             if (double.IsNaN(mismatch)) continue;
-            var figure = new Figure("worst-case half-cycle mismatch", mismatch, "%");
+            var figure = FigureKinds.HalfCycleMismatch.Of(mismatch);
             evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed ? figure.AtMost(allowed) : figure);
             if (ToleranceAnalyses.Accuracy(stage) is not { } accuracy || mismatch <= accuracy)
             {
@@ -37,7 +38,7 @@ internal sealed class HalfCycleSymmetryRule : Rule
                 ["error"] = Say.Percent(mismatch),
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
-            }, new Figure("worst-case half-cycle mismatch", mismatch, "%"), new Figure("accuracy", accuracy, "1"));
+            }, FigureKinds.HalfCycleMismatch.Of(mismatch), FigureKinds.Accuracy.Of(accuracy));
         }
     }
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using System.Globalization;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class MonteCarloYieldRule : Rule
 {
-    public override string Id => "DR402";
+    public override RuleId Id => RuleIds.MonteCarloYield;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -54,11 +55,11 @@ internal static class YieldFigures
 {
     public static Figure[] Of(YieldEstimate e) =>
     [
-        new("Monte Carlo yield", e.Yield, "1"),
-        new("yield lower bound", e.Lower, "1"),
-        new("yield upper bound", e.Upper, "1"),
-        new("confidence level", e.Confidence, "1"),
-        new("samples", e.Samples, "1"),
-        new("required yield", e.Required, "1"),
+        FigureKinds.Yield.Of(e.Yield),
+        FigureKinds.YieldLower.Of(e.Lower),
+        FigureKinds.YieldUpper.Of(e.Upper),
+        FigureKinds.YieldConfidence.Of(e.Confidence),
+        FigureKinds.Samples.Of(e.Samples),
+        FigureKinds.RequiredYield.Of(e.Required),
     ];
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
 
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class OutputOffsetRule : Rule
 {
-    public override string Id => "DR405";
+    public override RuleId Id => RuleIds.OutputOffset;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -21,7 +22,7 @@ internal sealed class OutputOffsetRule : Rule
             if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
             double offset = analysis.OutputOffset;
             if (double.IsNaN(offset)) continue;
-            var figure = new Figure("worst-case output offset", offset, "V");
+            var figure = FigureKinds.OutputOffset.Of(offset);
             evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
             evaluation.Judged(id, "output-offset", Id);
             if (stage.Stage.Requirements.OutputOffset is not { } required || offset <= required.Value.Value)
@@ -42,7 +43,7 @@ internal sealed class OutputOffsetRule : Rule
                 ["offset"] = Say.Volts(offset),
                 ["limit"] = Say.Volts(required.Value.Value),
                 ["cause"] = dominant is null ? "the nominal circuit" : dominant.What,
-            }, new Figure("worst-case output offset", offset, "V"), new Figure("allowed output offset", required.Value.Value, "V"));
+            }, FigureKinds.OutputOffset.Of(offset), FigureKinds.AllowedOutputOffset.Of(required.Value.Value));
         }
     }
 }

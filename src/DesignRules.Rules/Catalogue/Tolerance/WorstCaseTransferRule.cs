@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
@@ -10,7 +11,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class WorstCaseTransferRule : Rule
 {
-    public override string Id => "DR401";
+    public override RuleId Id => RuleIds.WorstCaseTransfer;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
@@ -22,7 +23,7 @@ internal sealed class WorstCaseTransferRule : Rule
             var (error, level) = analysis.TransferError;
             if (double.IsNaN(error)) continue;
             // An average is judged over time (ripple, settling), which this DC analysis does not see: no limit for it here.
-            var transferError = new Figure("worst-case transfer error", error, "%");
+            var transferError = FigureKinds.WorstCaseTransferError.Of(error);
             evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed && analysis.Target.Kind != TransferKind.Average ? transferError.AtMost(allowed) : transferError);
             if (analysis.Target.Kind != TransferKind.Average)
             {
@@ -33,14 +34,14 @@ internal sealed class WorstCaseTransferRule : Rule
 
             if (analysis.Target.IsLinear && double.IsFinite(analysis.Gain.Low))
             {
-                evaluation.Record(id, "nominal gain", analysis.Nominal.Gain, "1");
-                evaluation.Record(id, "worst-case gain low", analysis.Gain.Low, "1");
-                evaluation.Record(id, "worst-case gain high", analysis.Gain.High, "1");
+                evaluation.Record(id, FigureKinds.NominalGain.Of(analysis.Nominal.Gain));
+                evaluation.Record(id, FigureKinds.WorstCaseGainLow.Of(analysis.Gain.Low));
+                evaluation.Record(id, FigureKinds.WorstCaseGainHigh.Of(analysis.Gain.High));
             }
 
             if (analysis.Metric.Dynamic is { } hold)
             {
-                evaluation.Record(id, "held value deviation (nominal transient)", hold.Magnitude, "V");
+                evaluation.Record(id, FigureKinds.HeldDeviation.Of(hold.Magnitude));
             }
 
             // An average is judged over time (ripple, settling), which this DC analysis does not see.
@@ -63,8 +64,8 @@ internal sealed class WorstCaseTransferRule : Rule
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, [new Figure("worst-case transfer error", error, "%"), new Figure("accuracy", accuracy, "1"),
-                .. analysis.Metric.Dynamic is { } held ? [new Figure("hold droop", held.High - held.Low, "V")] : Array.Empty<Figure>()]);
+            }, [FigureKinds.WorstCaseTransferError.Of(error), FigureKinds.Accuracy.Of(accuracy),
+                .. analysis.Metric.Dynamic is { } held ? [FigureKinds.HoldDroop.Of(held.High - held.Low)] : Array.Empty<Figure>()]);
         }
     }
 }

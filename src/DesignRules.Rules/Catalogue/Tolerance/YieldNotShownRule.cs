@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using System.Globalization;
 using DesignRules.Loading;
 using DesignRules.Rules.Evaluation;
@@ -11,7 +12,7 @@ namespace DesignRules.Rules.Catalogue.Tolerance;
 /// </summary>
 internal sealed class YieldNotShownRule : Rule
 {
-    public override string Id => "DR406";
+    public override RuleId Id => RuleIds.YieldNotShown;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {

@@ -7,8 +7,8 @@ namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
 internal static class DiodeStress
 {
     public static void Evaluate(
-        DesignEvaluation evaluation, string ruleId, string figureName, Func<ElaboratedChain, TransientResult, DiodeProbe, double> measure,
-        Func<DiodeProbe, double> rating, string unit, Func<double, string> say, string placeholder)
+        DesignEvaluation evaluation, DesignRules.Diagnostics.RuleId ruleId, FigureKind figure, FigureKind derated, Func<ElaboratedChain, TransientResult, DiodeProbe, double> measure,
+        Func<DiodeProbe, double> rating, Func<double, string> say, string placeholder)
     {
         var worst = new Dictionary<string, (double Value, StageProbe Stage, DiodeProbe Diode)>(StringComparer.Ordinal);
         foreach (var (_, chain, result) in TransientRuns.Of(evaluation))
@@ -31,7 +31,7 @@ internal static class DiodeStress
             double rated = rating(diode);
             double derating = evaluation.Threshold(ruleId, "derating", stage.StageId);
             double limit = rated * derating;
-            evaluation.Record(stage.StageId, new Figure($"{figureName} {diode.Slot}", value, unit).AtMost(limit));
+            evaluation.Record(stage.StageId, figure.Of(diode.Slot, value).AtMost(limit));
             if (value <= limit)
             {
                 continue;
@@ -45,7 +45,7 @@ internal static class DiodeStress
                 ["derating"] = Say.Percent(derating),
                 ["limit"] = say(limit),
                 ["margin"] = say(value - limit),
-            }, new Figure(figureName, value, unit), new Figure("derated rating", limit, unit));
+            }, figure.Of(diode.Slot, value), derated.Of(limit));
         }
     }
 

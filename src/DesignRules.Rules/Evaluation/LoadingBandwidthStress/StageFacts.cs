@@ -17,7 +17,7 @@ internal static class StageFacts
     };
 
     /// <summary>The stage's stated accuracy, else the rule's default-accuracy threshold.</summary>
-    public static double Accuracy(DesignEvaluation evaluation, string ruleId, Stage stage) =>
+    public static double Accuracy(DesignEvaluation evaluation, DesignRules.Diagnostics.RuleId ruleId, Stage stage) =>
         stage.Requirements.Accuracy?.Value.Value ?? evaluation.Threshold(ruleId, "default-accuracy", stage.Id.Value);
 
     /// <summary>True for stages that rectify (a precision rectifier: its transfer passes one or both half-cycles).</summary>

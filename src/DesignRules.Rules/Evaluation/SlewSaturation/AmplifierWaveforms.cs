@@ -240,7 +240,7 @@ internal static class AmplifierWaveforms
         Circuit.IsReference(node) || !transient.HasNode(node) ? new double[count] : transient.Voltage(node);
 
     /// <summary>The highest frequency in a source waveform (a sum's fastest term), Hz; null when it has none.</summary>
-    internal static double? HighestFrequency(Simulation.Waveform waveform) => waveform switch
+    internal static double? HighestFrequency(Simulation.Waveforms.Waveform waveform) => waveform switch
     {
         SineWaveform s => s.Frequency,
         TriangleWaveform t => t.Frequency,

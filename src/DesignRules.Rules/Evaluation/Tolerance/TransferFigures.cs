@@ -18,7 +18,7 @@ internal sealed record TransferTarget(TransferKind Kind, double SlopePositive, d
     public static TransferTarget Of(StageProbe stage)
     {
         var ideal = stage.Transfer;
-        double offset = DesignRules.Simulation.Circuit.IsReference(stage.ReferenceInputNode) ? ideal.Offset : 0;
+        double offset = DesignRules.Simulation.Circuits.Circuit.IsReference(stage.ReferenceInputNode) ? ideal.Offset : 0;
         var kind = stage.Stage.Requirements.Transfer?.Value ?? ideal.Kind;
         if (stage.Stage.Requirements.Gain is { } gain && ideal.Kind == TransferKind.Gain)
         {

@@ -239,7 +239,7 @@ internal sealed class WorstCaseAnalysis
         // that moves the output at the bias level up, and every one at the sign that moves it down. Superposition at
         // nominal resistors misses the cross terms (bias current × resistor mismatch, which a compensation resistor
         // cancels only at nominal values); every combined run is a feasible point of the variable box, so it only widens.
-        var combined = CombinedCorners(variables, corners, singles, figures, nominal, plan.ZeroIndex);
+        var combined = CombinedCorners(variables, corners, singles, figures, plan.ZeroIndex);
         var combinedRuns = Evaluate(design, baseline, variables, plan, combined, maxDegreeOfParallelism);
         double superposedOffset = deviations[plan.ZeroIndex].Magnitude;
         foreach (var f in combinedRuns.Where(t => t.Succeeded).Select(t => StageFigures.Of(t, target, plan)))
@@ -279,7 +279,7 @@ internal sealed class WorstCaseAnalysis
     /// </summary>
     private static List<Variation> CombinedCorners(
         ToleranceVariables variables, List<Variation> corners, List<(int Resistor, int Amplifier, string Kind, int Diode, int Plus, int Minus)> singles,
-        StageFigures?[] figures, StageFigures nominal, int bias)
+        StageFigures?[] figures, int bias)
     {
         var sources = singles.Where(s => s.Resistor < 0 && figures[s.Plus] is not null && figures[s.Minus] is not null)
             .Select(s => (s.Amplifier, s.Kind, s.Diode, Sign: figures[s.Plus]!.Deviations[bias] >= figures[s.Minus]!.Deviations[bias] ? 1.0 : -1.0))

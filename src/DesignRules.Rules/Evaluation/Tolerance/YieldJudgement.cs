@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
@@ -21,7 +22,7 @@ namespace DesignRules.Rules.Evaluation.Tolerance;
 internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield MonteCarlo, WorstCaseAnalysis Analysis)
 {
     /// <summary>The yield rule whose thresholds (min-yield, confidence) both yield rules use.</summary>
-    public const string ThresholdRule = "DR402";
+    public static readonly RuleId ThresholdRule = RuleIds.MonteCarloYield;
 
     /// <summary>
     /// The judgement of a stage, computed once per design; null when the stage has no accuracy requirement or its
@@ -80,13 +81,13 @@ internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield Mo
             estimate = estimate with { SamplesNeeded = ClopperPearson.SamplesToShow(estimate.Yield, required, confidence) };
         }
 
-        evaluation.Record(id, new Figure("Monte Carlo yield", estimate.Yield, "%").AtLeast(required));
-        evaluation.Record(id, "Monte Carlo yield lower bound", estimate.Lower, "%");
-        evaluation.Record(id, "Monte Carlo yield upper bound", estimate.Upper, "%");
-        evaluation.Record(id, "yield confidence level", estimate.Confidence, "%");
-        evaluation.Record(id, "required yield", required, "%");
-        evaluation.Record(id, "Monte Carlo samples", monteCarlo.Samples, "1");
-        if (monteCarlo.Unsolved > 0) evaluation.Record(id, "Monte Carlo unsolved samples", monteCarlo.Unsolved, "1");
+        evaluation.Record(id, FigureKinds.Yield.Of(estimate.Yield).AtLeast(required));
+        evaluation.Record(id, FigureKinds.YieldLower.Of(estimate.Lower));
+        evaluation.Record(id, FigureKinds.YieldUpper.Of(estimate.Upper));
+        evaluation.Record(id, FigureKinds.YieldConfidence.Of(estimate.Confidence));
+        evaluation.Record(id, FigureKinds.RequiredYield.Of(required));
+        evaluation.Record(id, FigureKinds.Samples.Of(monteCarlo.Samples));
+        if (monteCarlo.Unsolved > 0) evaluation.Record(id, FigureKinds.UnsolvedSamples.Of(monteCarlo.Unsolved));
         evaluation.RecordYield(estimate);
         evaluation.RecordDistribution(id, new SampleDistribution(
             "transfer error (%)", "%", monteCarlo.Errors.Where(double.IsFinite).Select(e => e * 100).ToArray(), null, accuracy * 100)
