@@ -121,5 +121,5 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
         return new DcTransfer(inputs, outputs, shift, null, chain);
     }
 
-    private static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);
+    internal static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);
 }

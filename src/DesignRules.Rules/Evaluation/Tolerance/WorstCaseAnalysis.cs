@@ -36,6 +36,12 @@ internal sealed class WorstCaseAnalysis
 
     public required TransferPlan Plan { get; init; }
 
+    /// <summary>
+    /// The stage's chain compiled once with every variable nominal: <c>Circuit.Measure(variation)</c> gives the DC transfer
+    /// at any corner (<see cref="ToleranceVariables.Nominal"/> with some variables set to ±1) or sample, warm-started.
+    /// </summary>
+    public required ToleranceCircuit Circuit { get; init; }
+
     public required TransferTarget Target { get; init; }
 
     public required AccuracyMetric Metric { get; init; }
@@ -152,11 +158,12 @@ internal sealed class WorstCaseAnalysis
             singles.Add((-1, -1, "diode", d, plus, plus + 1));
         }
 
-        var first = Evaluate(design, baseline, variables, plan, runs, maxDegreeOfParallelism);
+        var circuit = ToleranceCircuit.Of(design, baseline, variables, plan);
+        var first = Evaluate(circuit, runs, maxDegreeOfParallelism);
         var nominalTransfer = first[0];
         if (!nominalTransfer.Succeeded)
         {
-            return Empty(stage, variables, plan, target, nominalTransfer);
+            return Empty(stage, variables, plan, target, circuit, nominalTransfer);
         }
 
         var metric = AccuracyMetric.Of(target, nominalTransfer, dynamic);
@@ -198,7 +205,7 @@ internal sealed class WorstCaseAnalysis
             }
         }
 
-        var cornerRuns = Evaluate(design, baseline, variables, plan, corners, maxDegreeOfParallelism);
+        var cornerRuns = Evaluate(circuit, corners, maxDegreeOfParallelism);
         var cornerFigures = cornerRuns.Where(t => t.Succeeded).Select(t => StageFigures.Of(t, target, plan)).ToList();
         cornerFigures.Add(nominal);
 
@@ -234,6 +241,7 @@ internal sealed class WorstCaseAnalysis
             Stage = stage,
             Variables = variables,
             Plan = plan,
+            Circuit = circuit,
             Target = target,
             Metric = metric,
             Nominal = nominal,
@@ -251,13 +259,17 @@ internal sealed class WorstCaseAnalysis
     }
 
     /// <summary>Runs the variations side by side; results are in the order of <paramref name="runs"/>.</summary>
-    internal static DcTransfer[] Evaluate(Design design, ElaborationOptions baseline, ToleranceVariables variables, TransferPlan plan, IReadOnlyList<Variation> runs, int maxDegreeOfParallelism)
+    /// <remarks>A run with every variable nominal is the circuit's cold nominal solve itself.</remarks>
+    internal static DcTransfer[] Evaluate(ToleranceCircuit circuit, IReadOnlyList<Variation> runs, int maxDegreeOfParallelism)
     {
         var results = new DcTransfer[runs.Count];
         Parallel.For(0, runs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism },
-            i => results[i] = DcTransfer.Measure(design, variables.Options(baseline, runs[i]), plan));
+            i => results[i] = IsNominal(runs[i]) ? circuit.Nominal : circuit.Measure(runs[i]));
         return results;
     }
+
+    private static bool IsNominal(Variation v) =>
+        v.Resistors.All(u => u == 0) && v.Offsets.All(u => u == 0) && v.Biases.All(u => u == 0) && v.Diodes.All(u => u == 0) && v.OffsetCurrents.All(u => u == 0);
 
     private static IEnumerable<Func<StageFigures, double>> Fields(StageFigures nominal)
     {
@@ -272,12 +284,12 @@ internal sealed class WorstCaseAnalysis
         yield return f => f.CommonModeShift;
     }
 
-    private static WorstCaseAnalysis Empty(StageProbe stage, ToleranceVariables variables, TransferPlan plan, TransferTarget target, DcTransfer failed)
+    private static WorstCaseAnalysis Empty(StageProbe stage, ToleranceVariables variables, TransferPlan plan, TransferTarget target, ToleranceCircuit circuit, DcTransfer failed)
     {
         var nothing = new StageFigures(new double[plan.Levels.Length], double.NaN, double.NaN, 0, double.PositiveInfinity);
         return new WorstCaseAnalysis
         {
-            Stage = stage, Variables = variables, Plan = plan, Target = target,
+            Stage = stage, Variables = variables, Plan = plan, Circuit = circuit, Target = target,
             Metric = new AccuracyMetric([], double.NaN, null, 0), Nominal = nothing,
             Deviations = new Interval[plan.Levels.Length], Gain = Interval.Point(double.NaN), Mismatch = Interval.Point(double.NaN),
             CommonModeShift = Interval.Point(0), WorstCommonModeRejection = double.PositiveInfinity, Corners = 0, BySensitivity = false,
