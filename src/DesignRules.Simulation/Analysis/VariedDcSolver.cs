@@ -70,7 +70,7 @@ public sealed class VariedDcSolver
         solver = new NewtonSolver(compiled, limits);
         devices = compiled.Devices.ToDictionary(d => d.Id, StringComparer.Ordinal);
         int n = compiled.Layout.Size;
-        chord = new DenseLu<double>(n);
+        chord = new DenseLu<double>(n, compiled.Ordering);
         residual = new double[n];
         tolerance = new double[n];
         for (int i = 0; i < n; i++)
@@ -239,22 +239,14 @@ public sealed class VariedDcSolver
         for (int iteration = 0; iteration < MaxChordIterations; iteration++)
         {
             Load();
-            var a = system.Matrix;
-            var b = system.Rhs;
             if (!chordValid)
             {
-                Array.Copy(a, chord.Matrix, a.Length);
+                chord.CopyMatrixFrom(system);
                 if (chord.Factor() >= 0) return false;
                 chordValid = true;
             }
 
-            for (int r = 0; r < n; r++)
-            {
-                double sum = b[r];
-                int row = r * n;
-                for (int c = 0; c < n; c++) sum -= a[row + c] * x[c];
-                residual[r] = sum;
-            }
+            system.Residual(x, residual);
 
             Array.Copy(residual, chord.Rhs, n);
             chord.Solve();
