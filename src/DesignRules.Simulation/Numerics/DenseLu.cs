@@ -16,7 +16,7 @@ internal sealed class DenseLu<T>
     where T : struct, INumberBase<T>
 {
     /// <summary>Largest order stored dense; above it a system with an ordering is banded.</summary>
-    public const int DenseLimit = 80;
+    public const int DenseLimit = 32;
 
     private readonly int[] rowOfStep;
     private readonly double[] columnScale;
