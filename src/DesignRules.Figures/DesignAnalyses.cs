@@ -1,21 +1,48 @@
 using DesignRules.Elaboration;
+using DesignRules.Figures.LoadingBandwidthStress;
+using DesignRules.Figures.SlewSaturation;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures;
 
 /// <summary>
-/// The analyses of one design, each run at most once and shared by every rule that needs it: the nominal chain
-/// and its transient at each end of the band, the DC operating point, and the AC sweep.
+/// Where the analyses of one design report what they could not do: a failed analysis (DR920 in the rules) and a
+/// transient that did not reach its periodic steady state (DR925). The rules' evaluation implements it, so the figures
+/// layer computes and the rules layer judges and reports.
 /// </summary>
-internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo)
+internal interface IAnalysisFailures
+{
+    /// <summary>An analysis of <paramref name="chain"/> failed.</summary>
+    void Failed(string analysis, SimulationFailure failure, ElaboratedChain chain);
+
+    /// <summary>The transient at <paramref name="end"/> did not settle within its bounds.</summary>
+    void Unsettled(BandEnd end, SettledTransient steady);
+}
+
+/// <summary>
+/// The named analyses of one design, each computed at most once, on first use, and shared by every rule that needs it:
+/// the nominal chain and its settled transient at each band end, the DC operating point, the AC sweep, the amplifier
+/// waveforms, the single-supply bias, the offset corners, the small-signal loading, the output-current demand, and per
+/// stage the worst case and the Monte Carlo of its DC transfer. Not thread-safe: one design is evaluated on one thread.
+/// </summary>
+internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo, IAnalysisFailures failures)
 {
     private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
     private readonly Dictionary<BandEnd, ElaboratedChain> settledChains = [];
     private readonly Dictionary<BandEnd, SettledTransient> transients = [];
+    private readonly Dictionary<BandEnd, BandWaveforms?> waveforms = [];
+    private readonly Dictionary<BandEnd, IReadOnlyDictionary<string, AmplifierDemand>> demands = [];
+    private readonly Dictionary<int, LoadingBandwidthStress.Loading?> loadings = [];
+    private readonly Dictionary<string, WorstCaseAnalysis> worstCases = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, MonteCarloYield> monteCarlos = new(StringComparer.Ordinal);
     private readonly Dictionary<string, object> shared = new(StringComparer.Ordinal);
     private OperatingPointResult? operatingPoint;
     private AcResult? ac;
+    private Lazy<SmallSignal?>? smallSignal;
+    private IReadOnlyList<SingleSupplyBias>? singleSupply;
+    private OffsetShift.Corners? offsetCorners;
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -23,8 +50,8 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public Design Design { get; } = design;
 
     /// <summary>
-    /// Any further analysis, computed once under <paramref name="key"/> and shared by every rule that asks for it
-    /// (e.g. "tolerance:rect" for a stage's worst-case corners).
+    /// A value the rules layer computes once per design under <paramref name="key"/> (a judgement, not a figure: the
+    /// figures have named members above).
     /// </summary>
     public T Shared<T>(string key, Func<T> compute)
         where T : notnull
@@ -37,6 +64,64 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
         return (T)value;
     }
+
+    /// <summary>Reports a failed analysis to the rules layer (DR920).</summary>
+    public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain) => failures.Failed(analysis, failure, chain);
+
+    /// <summary>
+    /// True when the transient at <paramref name="end"/> reached its periodic steady state; otherwise reports it (DR925)
+    /// and returns false, so that no figure is measured on an unsettled signal.
+    /// </summary>
+    public bool IsSettled(BandEnd end)
+    {
+        var steady = Steady(end);
+        if (!steady.Settled) failures.Unsettled(end, steady);
+        return steady.Settled;
+    }
+
+    /// <summary>Every amplifier measured in the settled transient at <paramref name="end"/> (null when it cannot be run).</summary>
+    public BandWaveforms? Waveforms(BandEnd end) =>
+        waveforms.TryGetValue(end, out var w) ? w : waveforms[end] = AmplifierWaveforms.Compute(this, end);
+
+    /// <summary>The stages of a single-supply design that need a bias level (empty for a split supply).</summary>
+    public IReadOnlyList<SingleSupplyBias> SingleSupplyStages => singleSupply ??= SingleSupply.Compute(this);
+
+    /// <summary>The DC operating points with every amplifier's offset at nominal, +maximum and −maximum.</summary>
+    public OffsetShift.Corners OffsetCorners => offsetCorners ??= OffsetShift.Compute(this);
+
+    /// <summary>The AC sweep over the source's band with its band frequencies (null when it cannot be run).</summary>
+    public SmallSignal? SmallSignal => (smallSignal ??= new Lazy<SmallSignal?>(() => LoadingBandwidthStress.SmallSignal.Compute(this), LazyThreadSafetyMode.None)).Value;
+
+    /// <summary>The loading between stage <paramref name="stageIndex"/>'s output and what it drives.</summary>
+    public LoadingBandwidthStress.Loading? LoadingAt(int stageIndex) =>
+        loadings.TryGetValue(stageIndex, out var l) ? l : loadings[stageIndex] = SmallSignal?.ComputeLoading(this, stageIndex);
+
+    /// <summary>The output current each amplifier is asked for in the transient at <paramref name="end"/>, by element id.</summary>
+    public IReadOnlyDictionary<string, AmplifierDemand> OutputCurrentDemand(BandEnd end) =>
+        demands.TryGetValue(end, out var d) ? d : demands[end] = LoadingBandwidthStress.OutputCurrentDemand.Compute(this, end);
+
+    /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
+    public IReadOnlyList<StageProbe> Stages
+    {
+        get
+        {
+            var chain = Chain(BandEnd.Top);
+            return chain.Succeeded ? chain.Stages : [];
+        }
+    }
+
+    /// <summary>
+    /// The extreme-value worst case of a stage's DC transfer. Its <see cref="WorstCaseAnalysis.Circuit"/> is the stage's
+    /// chain compiled once: <c>Circuit.Measure(variation)</c> solves any further corner warm.
+    /// </summary>
+    public WorstCaseAnalysis WorstCase(StageProbe stage) =>
+        worstCases.TryGetValue(stage.StageId, out var w) ? w
+        : worstCases[stage.StageId] = WorstCaseAnalysis.Run(Design, Chain(BandEnd.Top), stage, HoldDeviation(stage));
+
+    /// <summary>The seeded Monte Carlo of a stage's DC transfer with the rule-set's settings.</summary>
+    public MonteCarloYield MonteCarloOf(StageProbe stage) =>
+        monteCarlos.TryGetValue(stage.StageId, out var m) ? m
+        : monteCarlos[stage.StageId] = MonteCarloYield.Run(Design, Chain(BandEnd.Top).Options, WorstCase(stage), MonteCarlo);
 
     /// <summary>The band ends a time-domain rule should look at: both ends of a band, or the single frequency once.</summary>
     public IReadOnlyList<BandEnd> BandEnds =>
@@ -97,6 +182,51 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     {
         var chain = RawChain(BandEnd.Top);
         return ac ??= Simulate.AcSweep(chain.Circuit, AcSweepPlan(chain));
+    }
+
+    /// <summary>
+    /// For a peak stage: the range of (held output − input peak) over the measured periods of the nominal transient at
+    /// each band end, V; null for other stages or when no transient could be run.
+    /// </summary>
+    private Interval? HoldDeviation(StageProbe stage)
+    {
+        if (TransferTarget.Of(stage).Kind != TransferKind.Peak || !IsPeriodic)
+        {
+            return null;
+        }
+
+        Interval? range = null;
+        foreach (var end in BandEnds)
+        {
+            var chain = Chain(end);
+            var result = Transient(end);
+            var probe = chain.Stage(stage.StageId);
+            if (!result.Succeeded || probe is null)
+            {
+                if (result.Failure is { } failure) ReportFailure("transient", failure, chain);
+                continue;
+            }
+
+            if (!IsSettled(end))
+            {
+                continue;
+            }
+
+            var time = result.Time;
+            var input = result.Voltage(probe.InputNode);
+            var output = result.Voltage(probe.OutputNode);
+            double peak = double.NegativeInfinity;
+            for (int i = 0; i < time.Count; i++) if (time[i] >= chain.Window.MeasureFrom) peak = Math.Max(peak, input[i]);
+            if (!double.IsFinite(peak)) continue;
+            for (int i = 0; i < time.Count; i++)
+            {
+                if (time[i] < chain.Window.MeasureFrom) continue;
+                double d = output[i] - peak;
+                range = range is { } r ? r.Include(d) : Interval.Point(d);
+            }
+        }
+
+        return range;
     }
 
     private static AcSweep AcSweepPlan(ElaboratedChain chain)

@@ -2,7 +2,9 @@ using BenchmarkDotNet.Attributes;
 using DesignRules.Elaboration;
 using DesignRules.Loading;
 using DesignRules.Model;
+using DesignRules.Figures;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Rules.Evaluation.Tolerance;
 using DesignRules.Simulation;
 

@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+namespace DesignRules.Figures.LoadingBandwidthStress;
 
 /// <summary>What one amplifier's output asked for and got at one band end.</summary>
 /// <param name="Demanded">Peak current the circuit demands of the output (from the run without current limits), A.</param>
@@ -25,22 +25,20 @@ internal sealed record AmplifierDemand(double Demanded, double Delivered, bool C
 /// </summary>
 internal static class OutputCurrentDemand
 {
-    private sealed record Holder(IReadOnlyDictionary<string, AmplifierDemand> Value);
-
     /// <summary>Per amplifier element id, what its output asked for and got at <paramref name="end"/> (empty when the chain cannot be simulated).</summary>
-    public static IReadOnlyDictionary<string, AmplifierDemand> At(DesignEvaluation evaluation, BandEnd end) =>
-        evaluation.Analyses.Shared($"loading:output-current-demand:{end}", () => new Holder(Compute(evaluation, end))).Value;
+    public static IReadOnlyDictionary<string, AmplifierDemand> At(DesignAnalyses analyses, BandEnd end) =>
+        analyses.OutputCurrentDemand(end);
 
-    private static Dictionary<string, AmplifierDemand> Compute(DesignEvaluation evaluation, BandEnd end)
+    internal static Dictionary<string, AmplifierDemand> Compute(DesignAnalyses analyses, BandEnd end)
     {
         var demands = new Dictionary<string, AmplifierDemand>(StringComparer.Ordinal);
-        var chain = evaluation.Analyses.Chain(end);
+        var chain = analyses.Chain(end);
         if (!chain.Succeeded)
         {
             return demands;
         }
 
-        var nominal = evaluation.Analyses.Transient(end);
+        var nominal = analyses.Transient(end);
         if (!nominal.Succeeded || nominal.Time.Count < 2)
         {
             return demands;
@@ -53,7 +51,7 @@ internal static class OutputCurrentDemand
         if (limited.Values.Any(m => m.CurrentLimited))
         {
             // Same design, same options, only the output current limits removed; a failure leaves the delivered figures.
-            var free = ChainElaborator.Elaborate(evaluation.Design, chain.Options with { OutputCurrentLimits = false });
+            var free = ChainElaborator.Elaborate(analyses.Design, chain.Options with { OutputCurrentLimits = false });
             if (free.Succeeded)
             {
                 var run = Simulate.Transient(free.Circuit, chain.Window.ToOptions());

@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>
 /// Amplifiers whose feedback loop opens by design (a diode in the loop turns off for part of each cycle), and what it

@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>
 /// Where a stage's DC transfer is measured: the source emf replaced by DC levels (zero, the waveform's lowest and highest

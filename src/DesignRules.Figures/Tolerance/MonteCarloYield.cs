@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>
 /// The random numbers of one Monte Carlo sample, derived from (seed, stage, sample index) alone: a SplitMix64 mix of the

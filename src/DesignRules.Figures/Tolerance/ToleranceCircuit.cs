@@ -3,7 +3,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>
 /// The chain of one stage's tolerance analysis, elaborated once with every variable at its nominal value and compiled

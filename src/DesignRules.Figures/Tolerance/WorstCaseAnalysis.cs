@@ -3,7 +3,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>What one variable of a stage adds to a figure, and where in the design it is written.</summary>
 /// <param name="What">How a message names it ("resistor rf", "amplifier u1 offset").</param>

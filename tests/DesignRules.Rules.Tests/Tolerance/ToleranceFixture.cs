@@ -1,7 +1,9 @@
 using DesignRules.Elaboration;
 using DesignRules.Loading;
 using DesignRules.Model;
+using DesignRules.Figures;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Tests.Tolerance;

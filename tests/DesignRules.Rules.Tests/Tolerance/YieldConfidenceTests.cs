@@ -1,5 +1,6 @@
 using DesignRules.Diagnostics;
 using DesignRules.Model;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Rules.Evaluation.Tolerance;
 using MathNet.Numerics.Distributions;
 

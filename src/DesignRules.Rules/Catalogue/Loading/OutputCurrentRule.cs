@@ -18,7 +18,7 @@ internal sealed class OutputCurrentRule : Rule
         var peaks = new Dictionary<string, (AmplifierDemand Demand, Elaboration.StageProbe Stage, Elaboration.AmplifierProbe Amplifier)>(StringComparer.Ordinal);
         foreach (var (end, chain, _) in TransientRuns.Of(evaluation))
         {
-            var demands = OutputCurrentDemand.At(evaluation, end);
+            var demands = OutputCurrentDemand.At(evaluation.Analyses, end);
             foreach (var stage in chain.Stages)
             {
                 foreach (var amp in stage.Amplifiers)

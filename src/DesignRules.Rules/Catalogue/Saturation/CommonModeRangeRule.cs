@@ -1,5 +1,4 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -16,7 +15,7 @@ internal sealed class CommonModeRangeRule : Rule
     {
         var worst = new Dictionary<string, Excess>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses))
         {
             foreach (var a in band.Amplifiers)
             {
@@ -25,7 +24,7 @@ internal sealed class CommonModeRangeRule : Rule
                 double top = Math.Max(a.PlusMaximum, a.MinusMaximum), bottom = Math.Min(a.PlusMinimum, a.MinusMinimum);
                 var upper = new Excess(a, "positive", top, high, top - high);
                 var lower = new Excess(a, "negative", bottom, low, low - bottom);
-                var current = upper.Over >= lower.Over || SingleSupply.NeedsBias(evaluation, a.Stage.StageId) ? upper : lower;
+                var current = upper.Over >= lower.Over || SingleSupply.NeedsBias(evaluation.Analyses, a.Stage.StageId) ? upper : lower;
                 if (!worst.TryGetValue(a.Name, out var previous))
                 {
                     order.Add(a.Name);

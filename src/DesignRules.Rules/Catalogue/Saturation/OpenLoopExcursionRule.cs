@@ -1,5 +1,4 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -20,7 +19,7 @@ internal sealed class OpenLoopExcursionRule : Rule
     {
         var worst = new Dictionary<string, OpenLoopRun>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation).Where(b => b.IsPeriodic))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).Where(b => b.IsPeriodic))
         {
             foreach (var a in band.Amplifiers.Where(a => OpenLoop.ByDesign(a.Stage, a.Probe)))
             {

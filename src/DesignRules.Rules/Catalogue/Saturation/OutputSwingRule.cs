@@ -1,6 +1,5 @@
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -18,13 +17,13 @@ internal sealed class OutputSwingRule : Rule
     {
         var worst = new Dictionary<string, Swing>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses))
         {
-            var demands = OutputCurrentDemand.At(evaluation, band.End);
+            var demands = OutputCurrentDemand.At(evaluation.Analyses, band.End);
             foreach (var a in band.Amplifiers.Where(a => !OpenLoop.ByDesign(a.Stage, a.Probe)))
             {
                 double margin = evaluation.Threshold(Id, "margin", a.Stage.StageId);
-                var (up, down) = OffsetShift.Of(evaluation, a);
+                var (up, down) = OffsetShift.Of(evaluation.Analyses, a);
 
                 // An output the engine held at a limit clips whatever the offset; the drop across the output resistance
                 // may keep the pin itself a little inside the limit, so the flag decides, on the side it is nearer to.

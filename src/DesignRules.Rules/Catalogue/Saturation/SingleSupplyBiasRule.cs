@@ -1,5 +1,4 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -15,7 +14,7 @@ internal sealed class SingleSupplyBiasRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var design = evaluation.Design;
-        foreach (var s in SingleSupply.Stages(evaluation))
+        foreach (var s in SingleSupply.Stages(evaluation.Analyses))
         {
             evaluation.Record(s.Stage.StageId, new Figure("single-supply input headroom", s.Minimum - s.Limit, "V").AtLeast(0));
             if (!s.NeedsBias)

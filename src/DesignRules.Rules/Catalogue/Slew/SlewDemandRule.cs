@@ -1,5 +1,4 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Slew;
 
@@ -17,7 +16,7 @@ internal sealed class SlewDemandRule : Rule
     {
         var worst = new Dictionary<string, Demand>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation).Where(b => b.IsPeriodic))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).Where(b => b.IsPeriodic))
         {
             foreach (var a in band.Amplifiers)
             {
