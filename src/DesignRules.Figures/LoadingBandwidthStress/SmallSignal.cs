@@ -70,7 +70,7 @@ internal sealed class SmallSignal
 
     /// <summary>The differential voltage of a stage's input (input node minus its reference input node).</summary>
     public static Complex InputVoltage(AcResult result, StageProbe stage, int index) =>
-        result.Voltage(stage.InputNode)[index] - (Circuit.IsReference(stage.ReferenceInputNode) ? Complex.Zero : result.Voltage(stage.ReferenceInputNode)[index]);
+        result.Voltage(stage.InputNode)[index] - result.Voltage(stage.ReferenceInputNode)[index];
 
     /// <summary>
     /// The loading between a stage's output node and whatever is connected to it downstream (the next stage, or the load):
@@ -92,7 +92,7 @@ internal sealed class SmallSignal
         }
 
         // The test current is the only stimulus of this sweep, so every node voltage is the change it causes.
-        Complex Delta(string n, int i) => Circuit.IsReference(n) ? Complex.Zero : result.Voltage(n)[i];
+        Complex Delta(string n, int i) => result.Voltage(n)[i];
         var points = new List<LoadingPoint>();
         for (int i = 0; i < Result.Frequencies.Count; i++)
         {

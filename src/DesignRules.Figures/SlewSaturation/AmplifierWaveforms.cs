@@ -218,7 +218,7 @@ internal static class AmplifierWaveforms
     }
 
     private static double[] Voltage(TransientResult transient, string node, int count) =>
-        Circuit.IsReference(node) || !transient.HasNode(node) ? new double[count] : transient.Voltage(node);
+        !transient.HasNode(node) ? new double[count] : transient.Voltage(node);
 
     /// <summary>The highest frequency in a source waveform (a sum's fastest term), Hz; null when it has none.</summary>
     internal static double? HighestFrequency(Simulation.Waveform waveform) => waveform switch

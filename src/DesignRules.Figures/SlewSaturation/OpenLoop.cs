@@ -53,9 +53,7 @@ internal static class OpenLoop
             return 0;
         }
 
-        var m = diode.Model;
-        double thermal = PhysicalConstants.ThermalVoltage(PhysicalConstants.DefaultTemperature);
-        return (m.EmissionCoefficient * thermal * Math.Log(1 + (DiodeCurrent / m.SaturationCurrent))) + (DiodeCurrent * m.SeriesResistance);
+        return diode.Model.ForwardVoltage(DiodeCurrent, PhysicalConstants.DefaultTemperature);
     }
 
     /// <summary>

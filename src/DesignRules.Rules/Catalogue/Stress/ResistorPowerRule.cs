@@ -109,5 +109,5 @@ internal sealed class ResistorPowerRule : Rule
     private static double Square(double v) => v * v;
 
     private static double[] Voltages(Simulation.TransientResult result, string node) =>
-        Simulation.Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
+        result.Voltage(node);
 }

@@ -87,37 +87,12 @@ internal static class TransientRuns
     }
 }
 
-/// <summary>The forward current of the engine's diode model at a given terminal voltage (Shockley law plus series resistance).</summary>
+/// <summary>The forward current and voltage of the engine's diode law (<see cref="DiodeModel"/>), for the stress rules.</summary>
 internal static class DiodeConduction
 {
     /// <summary>Current at terminal voltage <paramref name="v"/> (anode − cathode), A; 0 for v ≤ 0 (reverse currents are not forward stress).</summary>
-    public static double ForwardCurrent(DiodeModel model, double v, double temperature)
-    {
-        if (!(v > 0))
-        {
-            return 0;
-        }
-
-        double nvt = model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature);
-        double isat = model.SaturationCurrent;
-        if (!(model.SeriesResistance > 0))
-        {
-            return isat * double.ExpM1(Math.Min(v / nvt, 700));
-        }
-
-        // v = nvt·ln(1 + i/isat) + i·rs is increasing in i: bisect on [0, v/rs] (bounded, 200 halvings at most).
-        double lo = 0, hi = v / model.SeriesResistance;
-        for (int k = 0; k < 200 && hi - lo > 1e-15 * Math.Max(hi, 1e-12); k++)
-        {
-            double mid = 0.5 * (lo + hi);
-            double vm = (nvt * Math.Log(1 + (mid / isat))) + (mid * model.SeriesResistance);
-            if (vm > v) hi = mid; else lo = mid;
-        }
-
-        return 0.5 * (lo + hi);
-    }
+    public static double ForwardCurrent(DiodeModel model, double v, double temperature) => model.ForwardCurrent(v, temperature);
 
     /// <summary>Forward voltage at a forward current, V.</summary>
-    public static double ForwardVoltage(DiodeModel model, double current, double temperature) =>
-        (model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature) * Math.Log(1 + (current / model.SaturationCurrent))) + (current * model.SeriesResistance);
+    public static double ForwardVoltage(DiodeModel model, double current, double temperature) => model.ForwardVoltage(current, temperature);
 }
