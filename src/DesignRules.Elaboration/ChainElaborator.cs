@@ -117,6 +117,7 @@ public static class ChainElaborator
             Problems = chain.Problems,
             ElementSpans = chain.ElementSpans,
             NodeSpans = chain.NodeSpans,
+            StepSpan = SourceWaveforms.FastestSpan(source.Waveform, options.BandEnd),
         };
     }
 

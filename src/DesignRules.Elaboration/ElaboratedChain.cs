@@ -83,6 +83,9 @@ public sealed record ElaboratedChain
 
     internal IReadOnlyDictionary<string, SourceSpan> NodeSpans { get; init; } = new Dictionary<string, SourceSpan>();
 
+    /// <summary>Where the source's fastest frequency is written: the value that sets a transient's step count.</summary>
+    internal SourceSpan? StepSpan { get; init; }
+
     /// <summary>The stage with this id, or null.</summary>
     /// <param name="stageId">Stage id.</param>
     public StageProbe? Stage(string stageId) => Stages.FirstOrDefault(s => s.StageId == stageId);
@@ -102,6 +105,14 @@ public sealed record ElaboratedChain
     public SourceSpan Locate(SimulationFailure failure)
     {
         ArgumentNullException.ThrowIfNull(failure);
+
+        // A transient that ran out of steps, or whose step shrank to nothing, with no element to blame was set off by the
+        // ratio of its run to its step: point at the fastest source frequency, the value that sets the step.
+        if (failure.Kind is FailureKind.BudgetSpent or FailureKind.StepShrank && failure.ElementId is null && failure.Node is null && StepSpan is { } step)
+        {
+            return step;
+        }
+
         return failure.ElementId is not null && ElementSpans.ContainsKey(failure.ElementId) ? Locate(failure.ElementId) : Locate(failure.Node);
     }
 }

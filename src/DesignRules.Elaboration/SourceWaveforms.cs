@@ -22,6 +22,25 @@ internal static class SourceWaveforms
     public static IEnumerable<double> Frequencies(ModelWaveform w, BandEnd end) =>
         w.Kind == WaveformKind.Sum ? w.Components.SelectMany(c => Frequencies(c, end)) : Frequency(w, end) is { } f ? [f] : [];
 
+    /// <summary>
+    /// Where the fastest test frequency of a waveform is written (a component's <c>frequency:</c>, or the band whose end is
+    /// tested): the value that sets a transient's largest step, and so its step count; null for DC.
+    /// </summary>
+    public static Diagnostics.SourceSpan? FastestSpan(ModelWaveform w, BandEnd end)
+    {
+        var candidates = w.Kind == WaveformKind.Sum ? w.Components : [w];
+        Diagnostics.SourceSpan? span = null;
+        double fastest = 0;
+        foreach (var c in candidates)
+        {
+            if (c.Kind == WaveformKind.Sum || Frequency(c, end) is not { } f || !(f > fastest)) continue;
+            fastest = f;
+            span = c.Frequency?.Span ?? c.Band?.Span;
+        }
+
+        return span;
+    }
+
     /// <summary>The engine waveform; <paramref name="frequencyScale"/> multiplies every frequency.</summary>
     public static Waveform Convert(ModelWaveform w, BandEnd end, double amplitudeScale, double frequencyScale)
     {

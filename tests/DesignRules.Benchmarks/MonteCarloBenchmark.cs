@@ -2,7 +2,9 @@ using BenchmarkDotNet.Attributes;
 using DesignRules.Elaboration;
 using DesignRules.Loading;
 using DesignRules.Model;
+using DesignRules.Figures;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Benchmarks;
@@ -44,7 +46,7 @@ public class MonteCarloBenchmark
         int solved = 0;
         foreach (var (design, options, worstCase) in stages)
         {
-            var result = MonteCarloYield.Run(design, options, worstCase, settings);
+            var result = MonteCarloYield.Run(worstCase, settings);
             solved += result.Samples - result.Unsolved;
         }
 

@@ -292,6 +292,77 @@ public sealed class HostileInputTests : IDisposable
     }
 
     [Fact]
+    public void A_chain_at_the_stage_limit_is_checked_and_one_stage_more_is_refused()
+    {
+        // DesignLimits.MaxStages = 32: the longest chain accepted runs to its end (within the suite's time and heap caps).
+        static string Chain(int count) => Design().Split("stages:")[0] + "stages:\n" + string.Concat(Enumerable.Range(0, count).Select(i =>
+            $"  - {{ id: s{i}, block: follower, amplifier: jfet-input-15v }}\n"));
+        WriteDesign(Chain(32), "at-limit.yaml");
+        var run = Check(".");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("0 error(s)", run.Output, StringComparison.Ordinal);
+
+        WriteDesign(Chain(33), "over-limit.yaml");
+        run = Check(".");
+        Assert.Equal(1, run.ExitCode);
+        Assert.Contains("error DR912: The chain of 33 stages", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_netlist_ladder_at_the_element_limit_is_checked()
+    {
+        // DesignLimits.MaxNetlistElements = 400: a 400-resistor ladder (solved as a band) runs to its end.
+        var ladder = new StringBuilder();
+        for (var i = 0; i < 200; i++)
+        {
+            ladder.Append($"        - {{ id: rs{i}, type: resistor, value: 100, between: [n{i}, n{i + 1}] }}\n");
+            ladder.Append($"        - {{ id: rp{i}, type: resistor, value: 100k, between: [n{i + 1}, ground] }}\n");
+        }
+
+        WriteDesign("""
+            design: { id: ladder, title: Ladder }
+            supplies: { positive: 15 V, negative: -15 V }
+            source: { waveform: sine, amplitude: 1 V, frequency: 1 kHz }
+            load: { resistance: 10k }
+            stages:
+              - id: net
+                netlist:
+                  input: n0
+                  output: n200
+                  elements:
+
+            """ + ladder, "ladder.yaml");
+        var run = Check(".");
+        Assert.True(run.ExitCode is 0 or 1, run.ToString());
+        Assert.DoesNotContain("DR990", run.Output, StringComparison.Ordinal);
+        Assert.DoesNotContain("DR912", run.Output, StringComparison.Ordinal);
+        Assert.DoesNotContain("DR920", run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_transient_that_runs_out_of_steps_is_located_at_the_frequency_that_set_its_step()
+    {
+        // A 1 GHz component beside a 1 Hz one asks for more steps than the bound allows: the finding points at the
+        // 1 GHz frequency (line 7 of the file), not at the design id.
+        WriteDesign("""
+            design: { id: far-apart, title: Far apart }
+            supplies: { positive: 15 V, negative: -15 V }
+            source:
+              waveform: sum
+              components:
+                - { waveform: sine, amplitude: 1 V, frequency: 1 Hz }
+                - { waveform: sine, amplitude: 1 mV, frequency: 1 GHz }
+            load: { resistance: 10k }
+            stages:
+              - { id: g, block: inverting, amplifier: jfet-input-15v, values: { rin: 10k, rf: 10k } }
+
+            """, "far-apart.yaml");
+        var run = Check(".");
+        Assert.Equal(1, run.ExitCode);
+        Assert.Matches(@"far-apart\.yaml\(7,\d+(,\d+,\d+)?\): error DR920: ", run.Output);
+    }
+
+    [Fact]
     public void A_sum_of_ten_thousand_components_and_a_thousand_node_ladder_are_refused_at_load()
     {
         var components = string.Join(", ", Enumerable.Repeat("{ waveform: sine, amplitude: 1 mV, frequency: 1 kHz }", 10_000));

@@ -1,4 +1,5 @@
 using DesignRules.Diagnostics;
+using DesignRules.Figures;
 using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Tests;

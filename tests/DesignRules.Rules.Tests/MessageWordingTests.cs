@@ -3,6 +3,7 @@ using System.Text.RegularExpressions;
 using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Loading;
+using DesignRules.Figures;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Simulation;
 

@@ -11,7 +11,7 @@ namespace DesignRules.Rules.Evaluation;
 /// Everything the rules see of one design: the model, the analyses (each run at most once, on first use), the
 /// effective levels and thresholds, and the place findings are reported to.
 /// </summary>
-internal sealed class DesignEvaluation
+internal sealed class DesignEvaluation : IAnalysisFailures
 {
     private readonly List<Finding> findings = [];
     private readonly HashSet<(string, string, string)> judged = [];
@@ -24,7 +24,7 @@ internal sealed class DesignEvaluation
     {
         Design = design;
         this.ruleSet = ruleSet;
-        Analyses = new DesignAnalyses(design, ruleSet.MonteCarlo);
+        Analyses = new DesignAnalyses(design, ruleSet.MonteCarlo, this);
     }
 
     public Design Design { get; }
@@ -178,14 +178,12 @@ internal sealed class DesignEvaluation
     /// (at the design: what did not settle is the whole chain's state) and returns false, so that no rule judges an
     /// unsettled signal.
     /// </summary>
-    public bool IsSettled(BandEnd end)
-    {
-        var steady = Analyses.Steady(end);
-        if (steady.Settled)
-        {
-            return true;
-        }
+    public bool IsSettled(BandEnd end) => Analyses.IsSettled(end);
 
+    void IAnalysisFailures.Failed(string analysis, SimulationFailure failure, ElaboratedChain chain) => ReportFailure(analysis, failure, chain);
+
+    void IAnalysisFailures.Unsettled(BandEnd end, SettledTransient steady)
+    {
         var rule = RuleCatalogue.Default[RuleIds.TransientNotSettled];
         var message = rule.Render([Design.Id.Value, end == BandEnd.Top ? "the top of the band" : "the bottom of the band",
             steady.Periods.ToString(CultureInfo.InvariantCulture), steady.Node ?? "?", Say.Volts(steady.Drift)]);
@@ -196,8 +194,6 @@ internal sealed class DesignEvaluation
                 findings.Add(new Finding(RuleIds.TransientNotSettled, rule.Title, Severity.Error, message, Design.Id.Span, rule.HelpPage, Design.Id.Value, null, null, []));
             }
         }
-
-        return false;
     }
 
     private static RuleLevel ToLevel(Severity severity) => severity switch

@@ -11,7 +11,7 @@ internal static class AcAnalysis
     public static AcResult Run(CompiledCircuit compiled, double[] operatingPoint, AcSweep sweep, SolverLimits limits, OperatingPointResult op)
     {
         var layout = compiled.Layout;
-        var context = new AcLoadContext(layout.Size)
+        var context = new AcLoadContext(layout.Size, compiled.Ordering)
         {
             JunctionShunt = limits.JunctionShunt, Temperature = compiled.Temperature, Stimulus = sweep.Source, StimulusAmplitude = sweep.Amplitude,
         };

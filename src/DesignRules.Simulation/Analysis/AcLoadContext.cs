@@ -3,10 +3,10 @@ using System.Numerics;
 namespace DesignRules.Simulation.Analysis;
 
 /// <summary>The complex MNA system of an AC small-signal point, linearised at the operating point held in <see cref="X"/>.</summary>
-internal sealed class AcLoadContext(int size)
+internal sealed class AcLoadContext(int size, BandOrdering? ordering = null, HashSet<(int, int)>? record = null)
 {
-    /// <summary>Complex matrix and right-hand side.</summary>
-    public DenseLu<Complex> System { get; } = new(size);
+    /// <summary>Complex matrix and right-hand side (or, in a recording context, only the positions loaded).</summary>
+    public DenseLu<Complex> System { get; } = record is null ? new(size, ordering) : DenseLu<Complex>.Recorder(size, record);
 
     /// <summary>Operating point.</summary>
     public double[] X { get; } = new double[size];
@@ -23,7 +23,7 @@ internal sealed class AcLoadContext(int size)
     /// <summary>Adds <paramref name="value"/> at (row, column) unless either is the reference.</summary>
     public void Add(int row, int column, Complex value)
     {
-        if (row >= 0 && column >= 0) System.Matrix[(row * System.Size) + column] += value;
+        if (row >= 0 && column >= 0) System.Add(row, column, value);
     }
 
     /// <summary>Adds to the right-hand side unless the row is the reference.</summary>

@@ -6,10 +6,10 @@ namespace DesignRules.Simulation.Analysis;
 /// integration coefficients. Rows are Kirchhoff current laws (sum of currents leaving the node = 0) or the
 /// element's own branch/state equation; the system reads A·x = b.
 /// </summary>
-internal sealed class LoadContext(int size, int stateCount)
+internal sealed class LoadContext(int size, int stateCount, BandOrdering? ordering = null, HashSet<(int, int)>? record = null)
 {
-    /// <summary>Matrix and right-hand side.</summary>
-    public DenseLu<double> System { get; } = new(size);
+    /// <summary>Matrix and right-hand side (or, in a recording context, only the positions loaded).</summary>
+    public DenseLu<double> System { get; } = record is null ? new(size, ordering) : DenseLu<double>.Recorder(size, record);
 
     /// <summary>Present Newton guess (linearisation point).</summary>
     public double[] X { get; } = new double[size];
@@ -66,7 +66,7 @@ internal sealed class LoadContext(int size, int stateCount)
     /// <summary>Adds <paramref name="value"/> at (row, column) unless either is the reference.</summary>
     public void Add(int row, int column, double value)
     {
-        if (row >= 0 && column >= 0) System.Matrix[(row * System.Size) + column] += value;
+        if (row >= 0 && column >= 0) System.Add(row, column, value);
     }
 
     /// <summary>Adds to the right-hand side unless the row is the reference.</summary>

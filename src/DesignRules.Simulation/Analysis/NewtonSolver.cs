@@ -27,7 +27,7 @@ internal sealed class NewtonSolver
         Circuit = circuit;
         Limits = limits;
         var layout = circuit.Layout;
-        Context = new LoadContext(layout.Size, layout.StateCount)
+        Context = new LoadContext(layout.Size, layout.StateCount, circuit.Ordering)
         {
             JunctionShunt = limits.JunctionShunt,
             Temperature = circuit.Temperature,
@@ -74,7 +74,7 @@ internal sealed class NewtonSolver
             {
                 for (int i = 0; i < n; i++)
                 {
-                    if (isNode[i]) system.Matrix[(i * n) + i] += shunt;
+                    if (isNode[i]) system.Add(i, i, shunt);
                 }
             }
 

@@ -9,7 +9,14 @@ internal sealed class CompiledCircuit
         Devices = devices;
         Temperature = temperature;
         Amplifiers = devices.OfType<AmplifierDevice>().ToArray();
+        Ordering = layout.Size > DenseLu<double>.DenseLimit ? Order(layout, devices) : null;
     }
+
+    /// <summary>
+    /// The renumbering that makes a large system a narrow band (null for a small one, solved dense): computed from the
+    /// positions every device loads in DC, transient and AC, so one ordering serves every analysis.
+    /// </summary>
+    public BandOrdering? Ordering { get; }
 
     public CircuitLayout Layout { get; }
 
@@ -39,6 +46,21 @@ internal sealed class CompiledCircuit
         var devices = new Device[circuit.Elements.Count];
         for (int i = 0; i < devices.Length; i++) devices[i] = circuit.Elements[i].Compile(layout);
         return (new CompiledCircuit(layout, devices, circuit.Temperature), null);
+    }
+
+    private static BandOrdering Order(CircuitLayout layout, Device[] devices)
+    {
+        var pattern = new HashSet<(int, int)>();
+        var context = new LoadContext(layout.Size, layout.StateCount, null, pattern) { Mode = AnalysisMode.Dc };
+        foreach (var device in devices) device.Load(context);
+        context.Mode = AnalysisMode.Transient;
+        context.Alpha = 1;
+        foreach (var device in devices) device.Load(context);
+        var ac = new AcLoadContext(layout.Size, null, pattern) { Omega = 1 };
+        foreach (var device in devices) device.LoadAc(ac);
+        foreach (var device in devices) device.Reset();
+        for (int i = 0; i < layout.Size; i++) pattern.Add((i, i));
+        return BandOrdering.Compute(layout.Size, pattern);
     }
 
     /// <summary>Finds a node with no DC path to the reference (union–find over the elements' DC paths).</summary>

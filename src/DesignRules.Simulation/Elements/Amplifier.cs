@@ -114,7 +114,8 @@ internal sealed class AmplifierParameters
 /// </summary>
 internal sealed class AmplifierDevice(string id, AmplifierParameters parameters, AmplifierNodes nodes) : Device(id)
 {
-    public AmplifierParameters Parameters { get; } = parameters;
+    /// <summary>The model's derived constants; a tolerance run replaces them (offset, bias currents) in place.</summary>
+    public AmplifierParameters Parameters { get; set; } = parameters;
 
     public AmplifierNodes Nodes { get; } = nodes;
 

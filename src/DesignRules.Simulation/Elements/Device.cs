@@ -19,4 +19,12 @@ internal abstract class Device(string id)
     public virtual void Reset()
     {
     }
+
+    /// <summary>
+    /// Called before a solve that starts from a known solution <paramref name="x"/> (a warm start): iteration memory is
+    /// set to agree with it, so that the first iteration is not limited as if it jumped from zero.
+    /// </summary>
+    public virtual void Prime(double[] x)
+    {
+    }
 }

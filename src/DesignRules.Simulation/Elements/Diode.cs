@@ -37,6 +37,19 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
 
     public override void Reset() => lastVoltage = 0;
 
+    public override void Prime(double[] x) => lastVoltage = (junction >= 0 ? x[junction] : 0) - (cathode >= 0 ? x[cathode] : 0);
+
+    /// <summary>Is in A; a tolerance run changes it in place (a forward-voltage spread) instead of compiling again.</summary>
+    public double SaturationCurrent
+    {
+        get => model.SaturationCurrent;
+        set
+        {
+            model = model with { SaturationCurrent = value };
+            cachedTemperature = double.NaN;
+        }
+    }
+
     public override void Load(LoadContext context)
     {
         Prepare(context.Temperature);

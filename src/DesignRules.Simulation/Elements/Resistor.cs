@@ -15,6 +15,13 @@ internal sealed record ResistorDefinition(string Id, string A, string B, double 
 /// <summary>Compiled resistor: conductance G = 1/R.</summary>
 internal sealed class ResistorDevice(string id, int a, int b, double conductance) : Device(id)
 {
+    /// <summary>G = 1/R; a tolerance run changes it in place instead of compiling the circuit again.</summary>
+    public double Conductance
+    {
+        get => conductance;
+        set => conductance = value;
+    }
+
     public override void Load(LoadContext context) => context.Conductance(a, b, conductance);
 
     public override void LoadAc(AcLoadContext context) => context.Admittance(a, b, conductance);

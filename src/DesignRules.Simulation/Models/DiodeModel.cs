@@ -30,6 +30,47 @@ public sealed record DiodeModel
     /// <summary>Reverse current at V = −BV, in A (typical 1 µA).</summary>
     public double BreakdownCurrent { get; init; } = 1e-6;
 
+    /// <summary>
+    /// Forward voltage at a forward current <paramref name="current"/> (A) and temperature (K): the Shockley law solved
+    /// for the junction voltage, n·V_T·ln(1 + I/Is), plus the series-resistance drop I·Rs. The one closed form of the
+    /// law every figure uses; the engine's device stamps the same law (with breakdown and the solver's junction shunt).
+    /// </summary>
+    /// <param name="current">Forward current, A.</param>
+    /// <param name="temperature">Temperature, K.</param>
+    public double ForwardVoltage(double current, double temperature) =>
+        (EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature) * Math.Log(1 + (current / SaturationCurrent))) + (current * SeriesResistance);
+
+    /// <summary>
+    /// Forward current at a terminal voltage <paramref name="voltage"/> (anode − cathode, V) and temperature (K); 0 for
+    /// v ≤ 0 (reverse current is not forward conduction). With series resistance the law is implicit in the current and is
+    /// solved by bisection on [0, v/Rs] (its voltage is increasing in the current; at most 200 halvings).
+    /// </summary>
+    /// <param name="voltage">Terminal voltage, V.</param>
+    /// <param name="temperature">Temperature, K.</param>
+    public double ForwardCurrent(double voltage, double temperature)
+    {
+        if (!(voltage > 0))
+        {
+            return 0;
+        }
+
+        double nvt = EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature);
+        if (!(SeriesResistance > 0))
+        {
+            return SaturationCurrent * double.ExpM1(Math.Min(voltage / nvt, 700));
+        }
+
+        double lo = 0, hi = voltage / SeriesResistance;
+        for (int k = 0; k < 200 && hi - lo > 1e-15 * Math.Max(hi, 1e-12); k++)
+        {
+            double mid = 0.5 * (lo + hi);
+            double vm = (nvt * Math.Log(1 + (mid / SaturationCurrent))) + (mid * SeriesResistance);
+            if (vm > voltage) hi = mid; else lo = mid;
+        }
+
+        return 0.5 * (lo + hi);
+    }
+
     internal string? Validate()
     {
         if (!(SaturationCurrent > 0) || !double.IsFinite(SaturationCurrent)) return "diode saturation current must be positive";

@@ -4,34 +4,75 @@ using System.Runtime.CompilerServices;
 namespace DesignRules.Simulation.Numerics;
 
 /// <summary>
-/// In-place dense LU factorisation with partial (row) pivoting on a flat row-major matrix, allocation-free after
-/// construction. The engine factors a fresh matrix at every Newton iteration, so it keeps its own buffers
-/// instead of creating new matrix objects. Works for real and complex matrices.
+/// In-place LU factorisation with partial (row) pivoting, allocation-free after construction (the engine factors a fresh
+/// matrix at every Newton iteration, so it keeps its own buffers). Small systems are stored dense (flat row-major);
+/// a large one is stored as a band after a bandwidth-reducing renumbering (<see cref="BandOrdering"/>): row pivoting
+/// within the band (as in LINPACK's banded factorisation) widens the upper band by the lower bandwidth, and an entry
+/// loaded outside the band widens the band, so any pattern is solved exactly. Unknowns keep their own numbers in every
+/// call: the renumbering is internal. Works for real and complex matrices.
 /// </summary>
 /// <typeparam name="T">double or <see cref="Complex"/>.</typeparam>
 internal sealed class DenseLu<T>
     where T : struct, INumberBase<T>
 {
+    /// <summary>Largest order stored dense; above it a system with an ordering is banded.</summary>
+    public const int DenseLimit = 32;
+
     private readonly int[] rowOfStep;
     private readonly double[] columnScale;
+    private readonly BandOrdering? ordering;
+    private readonly T[] work;
+    private readonly HashSet<(int, int)>? recorded;
+    private int lower;
+    private int upper;
+    private int width;
 
-    public DenseLu(int size)
+    public DenseLu(int size, BandOrdering? ordering = null)
     {
         Size = size;
-        Matrix = new T[size * size];
-        Rhs = new T[size];
         rowOfStep = new int[size];
         columnScale = new double[size];
+        Rhs = new T[size];
+        this.ordering = ordering;
+        work = ordering is null ? [] : new T[size];
+        if (ordering is null)
+        {
+            Matrix = new T[size * size];
+        }
+        else
+        {
+            lower = ordering.Lower;
+            upper = ordering.Upper;
+            width = (2 * lower) + upper + 1;
+            Matrix = new T[size * width];
+        }
+    }
+
+    private DenseLu(int size, HashSet<(int, int)> recorded)
+    {
+        Size = size;
+        rowOfStep = [];
+        columnScale = [];
+        work = [];
+        Rhs = new T[size];
+        Matrix = [];
+        this.recorded = recorded;
     }
 
     /// <summary>Order of the system.</summary>
     public int Size { get; }
 
-    /// <summary>Row-major matrix; overwritten by the factors.</summary>
-    public T[] Matrix { get; }
+    /// <summary>True when the system is stored as a band.</summary>
+    public bool IsBanded => ordering is not null;
+
+    /// <summary>The storage (row-major dense, or the band); overwritten by the factors. Copy it only between systems of one ordering.</summary>
+    public T[] Matrix { get; private set; }
 
     /// <summary>Right-hand side; overwritten by the solution in <see cref="Solve"/>.</summary>
     public T[] Rhs { get; }
+
+    /// <summary>A system that only records where entries are added (to compute an ordering), storing nothing.</summary>
+    public static DenseLu<T> Recorder(int size, HashSet<(int, int)> into) => new(size, into);
 
     /// <summary>Zeroes matrix and right-hand side.</summary>
     public void Clear()
@@ -40,8 +81,86 @@ internal sealed class DenseLu<T>
         Array.Clear(Rhs);
     }
 
+    /// <summary>Adds <paramref name="value"/> at (row, column), both unknowns (not the reference).</summary>
+    public void Add(int row, int column, T value)
+    {
+        if (recorded is not null)
+        {
+            recorded.Add((row, column));
+            return;
+        }
+
+        if (ordering is null)
+        {
+            Matrix[(row * Size) + column] += value;
+            return;
+        }
+
+        int r = ordering.NewOf[row], c = ordering.NewOf[column];
+        int d = c - r;
+        if (d < -lower || d > upper) Widen(Math.Max(lower, -d), Math.Max(upper, d));
+        Matrix[(r * width) + d + lower] += value;
+    }
+
+    /// <summary>rhs − A·x, with the matrix as loaded (before <see cref="Factor"/>), into <paramref name="result"/>.</summary>
+    public void Residual(T[] x, T[] result)
+    {
+        int n = Size;
+        if (ordering is null)
+        {
+            for (int r = 0; r < n; r++)
+            {
+                T sum = Rhs[r];
+                int row = r * n;
+                for (int c = 0; c < n; c++) sum -= Matrix[row + c] * x[c];
+                result[r] = sum;
+            }
+
+            return;
+        }
+
+        for (int r = 0; r < n; r++)
+        {
+            int old = ordering.OldOf[r];
+            T sum = Rhs[old];
+            int row = r * width;
+            int from = Math.Max(0, r - lower), to = Math.Min(n - 1, r + upper);
+            for (int c = from; c <= to; c++) sum -= Matrix[row + c - r + lower] * x[ordering.OldOf[c]];
+            result[old] = sum;
+        }
+    }
+
+    /// <summary>Copies the loaded matrix of <paramref name="other"/> (a system of the same order and ordering).</summary>
+    public void CopyMatrixFrom(DenseLu<T> other)
+    {
+        if (other.Matrix.Length != Matrix.Length)
+        {
+            lower = other.lower;
+            upper = other.upper;
+            width = other.width;
+            Matrix = new T[other.Matrix.Length];
+        }
+
+        Array.Copy(other.Matrix, Matrix, Matrix.Length);
+    }
+
     /// <summary>Factors the matrix in place. Returns −1 on success or the index of the unknown (column) found singular.</summary>
-    public int Factor()
+    public int Factor() => ordering is null ? FactorDense() : FactorBand();
+
+    /// <summary>Solves with the factors; the solution replaces <see cref="Rhs"/>.</summary>
+    public void Solve()
+    {
+        if (ordering is null)
+        {
+            SolveDense();
+        }
+        else
+        {
+            SolveBand();
+        }
+    }
+
+    private int FactorDense()
     {
         int n = Size;
         var a = Matrix;
@@ -95,8 +214,7 @@ internal sealed class DenseLu<T>
         return -1;
     }
 
-    /// <summary>Solves with the factors; the solution replaces <see cref="Rhs"/>.</summary>
-    public void Solve()
+    private void SolveDense()
     {
         int n = Size;
         var a = Matrix;
@@ -122,6 +240,118 @@ internal sealed class DenseLu<T>
             for (int c = r + 1; c < n; c++) sum -= a[rowBase + c] * b[c];
             b[r] = sum / a[rowBase + r];
         }
+    }
+
+    /// <summary>
+    /// Banded elimination with row interchanges (LINPACK's banded scheme): row r holds columns r − lower … r + upper + lower
+    /// at offsets 0 … width − 1; the multipliers of step k stay in column k of the rows below it; a swap exchanges only
+    /// columns k onwards, and the solve applies the interchanges step by step.
+    /// </summary>
+    private int FactorBand()
+    {
+        int n = Size, kl = lower, ku = upper, w = width;
+        var a = Matrix;
+        for (int c = 0; c < n; c++) columnScale[c] = 0;
+        for (int r = 0; r < n; r++)
+        {
+            int from = Math.Max(0, r - kl), to = Math.Min(n - 1, r + ku);
+            for (int c = from; c <= to; c++)
+            {
+                double m = Magnitude(a[(r * w) + c - r + kl]);
+                if (m > columnScale[c]) columnScale[c] = m;
+            }
+        }
+
+        for (int k = 0; k < n; k++)
+        {
+            int last = Math.Min(n - 1, k + kl);
+            int pivotRow = k;
+            double best = Magnitude(a[(k * w) + kl]);
+            for (int r = k + 1; r <= last; r++)
+            {
+                double m = Magnitude(a[(r * w) + k - r + kl]);
+                if (m > best)
+                {
+                    best = m;
+                    pivotRow = r;
+                }
+            }
+
+            if (!(best > 1e-14 * columnScale[k]) || !double.IsFinite(best)) return ordering!.OldOf[k];
+            rowOfStep[k] = pivotRow;
+            int right = Math.Min(n - 1, k + ku + kl);
+            if (pivotRow != k)
+            {
+                for (int c = k; c <= right; c++)
+                {
+                    ref T x = ref a[(k * w) + c - k + kl];
+                    ref T y = ref a[(pivotRow * w) + c - pivotRow + kl];
+                    (x, y) = (y, x);
+                }
+            }
+
+            T pivot = a[(k * w) + kl];
+            for (int r = k + 1; r <= last; r++)
+            {
+                int rowBase = (r * w) - r + kl;
+                T factor = a[rowBase + k];
+                if (T.IsZero(factor)) continue;
+                factor /= pivot;
+                a[rowBase + k] = factor;
+                int pivotBase = (k * w) - k + kl;
+                for (int c = k + 1; c <= right; c++) a[rowBase + c] -= factor * a[pivotBase + c];
+            }
+        }
+
+        return -1;
+    }
+
+    private void SolveBand()
+    {
+        int n = Size, kl = lower, ku = upper, w = width;
+        var a = Matrix;
+        var b = work;
+        var order = ordering!;
+        for (int i = 0; i < n; i++) b[i] = Rhs[order.OldOf[i]];
+        for (int k = 0; k < n; k++)
+        {
+            int p = rowOfStep[k];
+            if (p != k) (b[k], b[p]) = (b[p], b[k]);
+            T bk = b[k];
+            if (T.IsZero(bk)) continue;
+            int last = Math.Min(n - 1, k + kl);
+            for (int r = k + 1; r <= last; r++) b[r] -= a[(r * w) + k - r + kl] * bk;
+        }
+
+        for (int r = n - 1; r >= 0; r--)
+        {
+            T sum = b[r];
+            int rowBase = (r * w) - r + kl;
+            int right = Math.Min(n - 1, r + ku + kl);
+            for (int c = r + 1; c <= right; c++) sum -= a[rowBase + c] * b[c];
+            b[r] = sum / a[rowBase + r];
+        }
+
+        for (int i = 0; i < n; i++) Rhs[order.OldOf[i]] = b[i];
+    }
+
+    /// <summary>Re-lays the band for wider bandwidths, keeping the entries loaded so far.</summary>
+    private void Widen(int newLower, int newUpper)
+    {
+        int n = Size, newWidth = (2 * newLower) + newUpper + 1;
+        var band = new T[n * newWidth];
+        for (int r = 0; r < n; r++)
+        {
+            for (int d = -lower; d <= upper + lower; d++)
+            {
+                band[(r * newWidth) + d + newLower] = Matrix[(r * width) + d + lower];
+            }
+        }
+
+        lower = newLower;
+        upper = newUpper;
+        width = newWidth;
+        Matrix = band;
     }
 
     private static double Magnitude(T value) => typeof(T) == typeof(double)

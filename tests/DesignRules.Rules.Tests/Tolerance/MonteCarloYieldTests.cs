@@ -53,11 +53,11 @@ public sealed class MonteCarloYieldTests
     [Fact]
     public void Uniform_draws_stay_within_the_tolerance_and_normal_draws_within_three_sigma()
     {
-        var random = DesignRules.Rules.Evaluation.Tolerance.SampleDraws.For(1, "amp", 0);
+        var random = DesignRules.Figures.Tolerance.SampleDraws.For(1, "amp", 0);
         for (int i = 0; i < 10_000; i++)
         {
-            Assert.InRange(DesignRules.Rules.Evaluation.Tolerance.SampleDraws.Unit(random, ToleranceDistribution.Normal), -1, 1);
-            Assert.InRange(DesignRules.Rules.Evaluation.Tolerance.SampleDraws.Unit(random, ToleranceDistribution.Uniform), -1, 1);
+            Assert.InRange(DesignRules.Figures.Tolerance.SampleDraws.Unit(random, ToleranceDistribution.Normal), -1, 1);
+            Assert.InRange(DesignRules.Figures.Tolerance.SampleDraws.Unit(random, ToleranceDistribution.Uniform), -1, 1);
         }
     }
 }

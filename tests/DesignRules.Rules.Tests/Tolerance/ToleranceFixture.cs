@@ -1,7 +1,9 @@
 using DesignRules.Elaboration;
 using DesignRules.Loading;
 using DesignRules.Model;
+using DesignRules.Figures;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Tests.Tolerance;
@@ -29,6 +31,6 @@ internal static class ToleranceFixture
     {
         var (evaluation, stage) = Load(name);
         var worstCase = ToleranceAnalyses.WorstCase(evaluation, stage);
-        return MonteCarloYield.Run(evaluation.Design, evaluation.Analyses.Chain(BandEnd.Top).Options, worstCase, settings, threads);
+        return MonteCarloYield.Run(worstCase, settings, threads);
     }
 }

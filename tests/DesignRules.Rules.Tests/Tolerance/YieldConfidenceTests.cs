@@ -1,5 +1,6 @@
 using DesignRules.Diagnostics;
 using DesignRules.Model;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Rules.Evaluation.Tolerance;
 using MathNet.Numerics.Distributions;
 
@@ -207,11 +208,10 @@ public sealed class YieldConfidenceTests
         var settings = new MonteCarloSettings(600, 3, ToleranceDistribution.Uniform);
         var (evaluation, stage) = ToleranceFixture.Load("yield-near-99p5.yaml");
         var worstCase = ToleranceAnalyses.WorstCase(evaluation, stage);
-        var options = evaluation.Analyses.Chain(DesignRules.Elaboration.BandEnd.Top).Options;
 
-        var whole = MonteCarloYield.Run(evaluation.Design, options, worstCase, settings, 0, 600, maxDegreeOfParallelism: 1);
-        var batched = MonteCarloYield.Run(evaluation.Design, options, worstCase, settings, 0, 250, maxDegreeOfParallelism: 2)
-            .Append(MonteCarloYield.Run(evaluation.Design, options, worstCase, settings, 250, 350, maxDegreeOfParallelism: -1));
+        var whole = MonteCarloYield.Run(worstCase, settings, 0, 600, maxDegreeOfParallelism: 1);
+        var batched = MonteCarloYield.Run(worstCase, settings, 0, 250, maxDegreeOfParallelism: 2)
+            .Append(MonteCarloYield.Run(worstCase, settings, 250, 350, maxDegreeOfParallelism: -1));
 
         Assert.Equal(whole.Errors, batched.Errors);
     }

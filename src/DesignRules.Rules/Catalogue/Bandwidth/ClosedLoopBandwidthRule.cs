@@ -21,7 +21,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var top = SourceSignal.TopFrequency(evaluation.Design.Source.Waveform);
-        var small = SmallSignal.Of(evaluation);
+        var small = SmallSignal.Of(evaluation.Analyses);
         if (small is null)
         {
             return;

@@ -16,7 +16,7 @@ internal sealed class HoldFillingRule : Rule
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        foreach (var (stageId, filling) in HoldFilling.Of(evaluation).OrderBy(f => f.Key, StringComparer.Ordinal))
+        foreach (var (stageId, filling) in evaluation.Analyses.FillingHolds.OrderBy(f => f.Key, StringComparer.Ordinal))
         {
             double limit = filling.Amplifier.Part.OutputCurrent.Value.Value;
             evaluation.Record(stageId, FigureKinds.HoldChargeCurrent.Of(filling.Demand).AtMost(limit));

@@ -20,7 +20,7 @@ internal sealed class InterstageLoadingRule : Rule
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var small = SmallSignal.Of(evaluation);
+        var small = SmallSignal.Of(evaluation.Analyses);
         if (small is null)
         {
             return;
@@ -36,7 +36,7 @@ internal sealed class InterstageLoadingRule : Rule
                 continue; // a diode-switched output has no small-signal output impedance worth the name at its bias point (DR303)
             }
 
-            var loading = small.LoadingAt(evaluation, k);
+            var loading = evaluation.Analyses.LoadingAt(k);
             if (loading is null)
             {
                 continue;

@@ -18,8 +18,8 @@ internal sealed class OutputCurrentRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var peaks = new Dictionary<string, (AmplifierDemand Demand, Elaboration.StageProbe Stage, Elaboration.AmplifierProbe Amplifier, ToleranceCorner? Corner)>(StringComparer.Ordinal);
-        var runs = TransientRuns.Of(evaluation).Select(r => (Corner: (ToleranceCorner?)null, r.Chain, Demands: OutputCurrentDemand.At(evaluation, r.End)))
-            .Concat(OutputCurrentDemand.AtCorners(evaluation).Select(c => ((ToleranceCorner?)c.Corner, c.Chain, c.Demands)));
+        var runs = TransientRuns.Of(evaluation).Select(r => (Corner: (ToleranceCorner?)null, r.Chain, Demands: OutputCurrentDemand.At(evaluation.Analyses, r.End)))
+            .Concat(evaluation.Analyses.CornerDemands.Select(c => ((ToleranceCorner?)c.Corner, c.Chain, c.Demands)));
         foreach (var (corner, chain, demands) in runs)
         {
             foreach (var stage in chain.Stages)
@@ -39,7 +39,7 @@ internal sealed class OutputCurrentRule : Rule
             }
         }
 
-        var filling = HoldFilling.Of(evaluation);
+        var filling = evaluation.Analyses.FillingHolds;
         foreach (var (id, (demand, stage, amp, corner)) in peaks.OrderBy(p => p.Key, StringComparer.Ordinal))
         {
             // The amplifier charging a hold capacitor that is still filling: DR305 reports the charge current it needs.

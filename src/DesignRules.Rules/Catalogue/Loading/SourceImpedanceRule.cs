@@ -26,7 +26,7 @@ internal sealed class SourceImpedanceRule : Rule
             return;
         }
 
-        var small = SmallSignal.Of(evaluation);
+        var small = SmallSignal.Of(evaluation.Analyses);
         if (small is null || small.Chain.Stages.Count == 0)
         {
             return;

@@ -1,6 +1,5 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -18,8 +17,8 @@ internal sealed class CommonModeRangeRule : Rule
     {
         var worst = new Dictionary<string, Excess>(StringComparer.Ordinal);
         var order = new List<string>();
-        var runs = AmplifierWaveforms.AtEveryEnd(evaluation).Select(b => (Corner: (ToleranceCorner?)null, Band: b))
-            .Concat(AmplifierWaveforms.AtCorners(evaluation).Select(c => ((ToleranceCorner?)c.Corner, c.Band)));
+        var runs = AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).Select(b => (Corner: (ToleranceCorner?)null, Band: b))
+            .Concat(evaluation.Analyses.CornerWaveforms.Select(c => ((ToleranceCorner?)c.Corner, c.Band)));
         foreach (var (corner, band) in runs)
         {
             foreach (var a in band.Amplifiers)
@@ -29,7 +28,7 @@ internal sealed class CommonModeRangeRule : Rule
                 double top = Math.Max(a.PlusMaximum, a.MinusMaximum), bottom = Math.Min(a.PlusMinimum, a.MinusMinimum);
                 var upper = new Excess(a, "positive", top, high, top - high, corner);
                 var lower = new Excess(a, "negative", bottom, low, low - bottom, corner);
-                var current = upper.Over >= lower.Over || SingleSupply.NeedsBias(evaluation, a.Stage.StageId) ? upper : lower;
+                var current = upper.Over >= lower.Over || SingleSupply.NeedsBias(evaluation.Analyses, a.Stage.StageId) ? upper : lower;
                 if (!worst.TryGetValue(a.Name, out var previous))
                 {
                     order.Add(a.Name);

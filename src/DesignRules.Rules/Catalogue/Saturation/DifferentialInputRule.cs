@@ -1,6 +1,5 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -17,7 +16,7 @@ internal sealed class DifferentialInputRule : Rule
     {
         var worst = new Dictionary<string, AmplifierWaveform>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var a in AmplifierWaveforms.AtEveryEnd(evaluation).SelectMany(b => b.Amplifiers))
+        foreach (var a in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).SelectMany(b => b.Amplifiers))
         {
             if (!worst.TryGetValue(a.Name, out var previous))
             {

@@ -1,6 +1,5 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -21,7 +20,7 @@ internal sealed class OpenLoopExcursionRule : Rule
     {
         var worst = new Dictionary<string, OpenLoopRun>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation).Where(b => b.IsPeriodic))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).Where(b => b.IsPeriodic))
         {
             foreach (var a in band.Amplifiers.Where(a => OpenLoop.ByDesign(a.Stage, a.Probe)))
             {

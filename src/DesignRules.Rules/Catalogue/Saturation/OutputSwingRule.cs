@@ -1,7 +1,6 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -21,14 +20,14 @@ internal sealed class OutputSwingRule : Rule
     {
         var worst = new Dictionary<string, Swing>(StringComparer.Ordinal);
         var order = new List<string>();
-        var runs = AmplifierWaveforms.AtEveryEnd(evaluation).Select(b => (Corner: (ToleranceCorner?)null, Band: b, Demands: OutputCurrentDemand.At(evaluation, b.End)))
-            .Concat(AmplifierWaveforms.AtCorners(evaluation).Select(c => ((ToleranceCorner?)c.Corner, c.Band, OutputCurrentDemand.AtCorner(evaluation, c.Band.Chain))));
+        var runs = AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).Select(b => (Corner: (ToleranceCorner?)null, Band: b, Demands: OutputCurrentDemand.At(evaluation.Analyses, b.End)))
+            .Concat(evaluation.Analyses.CornerWaveforms.Select(c => ((ToleranceCorner?)c.Corner, c.Band, OutputCurrentDemand.AtCorner(evaluation.Analyses, c.Band.Chain))));
         foreach (var (corner, band, demands) in runs)
         {
             foreach (var a in band.Amplifiers.Where(a => !OpenLoop.ByDesign(a.Stage, a.Probe)))
             {
                 double margin = evaluation.Threshold(Id, "margin", a.Stage.StageId);
-                var (up, down) = OffsetShift.Of(evaluation, a);
+                var (up, down) = OffsetShift.Of(evaluation.Analyses, a);
 
                 // An output the engine held at a limit clips whatever the offset; the drop across the output resistance
                 // may keep the pin itself a little inside the limit, so the flag decides, on the side it is nearer to.

@@ -1,6 +1,5 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Saturation;
 
@@ -16,7 +15,7 @@ internal sealed class SingleSupplyBiasRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var design = evaluation.Design;
-        foreach (var s in SingleSupply.Stages(evaluation))
+        foreach (var s in SingleSupply.Stages(evaluation.Analyses))
         {
             evaluation.Record(s.Stage.StageId, FigureKinds.SingleSupplyHeadroom.Of(s.Minimum - s.Limit).AtLeast(0));
             if (!s.NeedsBias)

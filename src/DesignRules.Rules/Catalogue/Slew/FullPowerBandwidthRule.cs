@@ -1,7 +1,6 @@
 using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Slew;
 
@@ -18,7 +17,7 @@ internal sealed class FullPowerBandwidthRule : Rule
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        if (AmplifierWaveforms.At(evaluation, BandEnd.Top) is not { IsPeriodic: true, Frequency: { } frequency } band)
+        if (AmplifierWaveforms.At(evaluation.Analyses, BandEnd.Top) is not { IsPeriodic: true, Frequency: { } frequency } band)
         {
             return;
         }

@@ -1,6 +1,5 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.SlewSaturation;
 
 namespace DesignRules.Rules.Catalogue.Slew;
 
@@ -18,10 +17,10 @@ internal sealed class ZeroCrossingGlitchRule : Rule
     {
         var worst = new Dictionary<string, Glitch>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation).Where(b => b.IsPeriodic))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation.Analyses).Where(b => b.IsPeriodic))
         {
             double frequency = band.Frequency!.Value;
-            foreach (var stage in band.Chain.Stages.Where(ZeroCrossingGlitch.IsRectifying))
+            foreach (var stage in band.Chain.Stages.Where(StageProperties.IsRectifying))
             {
                 var requirements = stage.Stage.Requirements;
                 double fraction = requirements.Accuracy?.Value.Value ?? evaluation.Threshold(Id, "band", stage.StageId);

@@ -99,7 +99,7 @@ internal sealed class ResistorPowerRule : Rule
             }
 
             // The same at every resistor-tolerance corner, with each resistor at its corner value.
-            foreach (var run in ToleranceCorners.Runs(evaluation))
+            foreach (var run in evaluation.Analyses.CornerRuns)
             {
                 var (start, end) = TransientRuns.Window(run.Chain, run.Transient);
                 foreach (var r in run.Chain.Stages.SelectMany(s => s.Components).Where(c => c.Kind == ElementKind.Resistor))
@@ -138,5 +138,5 @@ internal sealed class ResistorPowerRule : Rule
     private static double Square(double v) => v * v;
 
     private static double[] Voltages(Simulation.Results.TransientResult result, string node) =>
-        Simulation.Circuits.Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
+        result.Voltage(node);
 }

@@ -50,5 +50,5 @@ internal static class DiodeStress
     }
 
     public static double[] Voltages(TransientResult result, string node) =>
-        Circuit.IsReference(node) ? new double[result.Time.Count] : result.Voltage(node);
+        result.Voltage(node);
 }

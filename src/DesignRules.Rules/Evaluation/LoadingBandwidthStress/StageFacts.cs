@@ -24,26 +24,6 @@ internal static class StageFacts
     public static bool IsRectifier(StageProbe probe) => StageProperties.IsRectifying(probe);
 }
 
-/// <summary>Frequencies and amplitude of the design's source, read from the model.</summary>
-internal static class SourceSignal
-{
-    /// <summary>The highest frequency the source is tested at (band top, own frequency, or a sum's highest); null for DC.</summary>
-    public static double? TopFrequency(Model.Waveform w) => w.Kind switch
-    {
-        WaveformKind.Dc => null,
-        WaveformKind.Sum => w.Components.Select(TopFrequency).Where(f => f is not null).Max(),
-        _ => w.Band?.Value.High.Value ?? w.Frequency?.Value.Value,
-    };
-
-    /// <summary>The peak amplitude of the source (the sum of a sum's components; the level of a DC source).</summary>
-    public static double Amplitude(Model.Waveform w) => w.Kind switch
-    {
-        WaveformKind.Dc => Math.Abs(w.Offset?.Value.Value ?? 0),
-        WaveformKind.Sum => w.Components.Sum(Amplitude),
-        _ => Math.Abs(w.Amplitude?.Value.Value ?? 0),
-    };
-}
-
 /// <summary>The transients of a design at each band end, with failures reported once (DR920) and skipped.</summary>
 internal static class TransientRuns
 {
@@ -74,18 +54,7 @@ internal static class TransientRuns
     }
 
     /// <summary>The measurement window: the last whole periods after start-up, or the window after start-up for a DC source.</summary>
-    public static (double Start, double End) Window(ElaboratedChain chain, TransientResult result)
-    {
-        double end = result.Time[^1];
-        double from = Math.Min(chain.Window.MeasureFrom, end);
-        if (chain.Period is not { } period || !(period > 0))
-        {
-            return (from, end);
-        }
-
-        int periods = (int)Math.Floor(((end - from) / period) + 1e-9);
-        return periods < 1 ? (from, end) : (end - (periods * period), end);
-    }
+    public static (double Start, double End) Window(ElaboratedChain chain, TransientResult result) => MeasurementWindow.Of(chain, result);
 
     /// <summary>Average of f(sample) over [start, end] by the trapezoidal rule on the transient's own time points.</summary>
     public static double Average(IReadOnlyList<double> time, Func<int, double> f, double start, double end)
@@ -107,37 +76,12 @@ internal static class TransientRuns
     }
 }
 
-/// <summary>The forward current of the engine's diode model at a given terminal voltage (Shockley law plus series resistance).</summary>
+/// <summary>The forward current and voltage of the engine's diode law (<see cref="DiodeModel"/>), for the stress rules.</summary>
 internal static class DiodeConduction
 {
     /// <summary>Current at terminal voltage <paramref name="v"/> (anode − cathode), A; 0 for v ≤ 0 (reverse currents are not forward stress).</summary>
-    public static double ForwardCurrent(DiodeModel model, double v, double temperature)
-    {
-        if (!(v > 0))
-        {
-            return 0;
-        }
-
-        double nvt = model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature);
-        double isat = model.SaturationCurrent;
-        if (!(model.SeriesResistance > 0))
-        {
-            return isat * double.ExpM1(Math.Min(v / nvt, 700));
-        }
-
-        // v = nvt·ln(1 + i/isat) + i·rs is increasing in i: bisect on [0, v/rs] (bounded, 200 halvings at most).
-        double lo = 0, hi = v / model.SeriesResistance;
-        for (int k = 0; k < 200 && hi - lo > 1e-15 * Math.Max(hi, 1e-12); k++)
-        {
-            double mid = 0.5 * (lo + hi);
-            double vm = (nvt * Math.Log(1 + (mid / isat))) + (mid * model.SeriesResistance);
-            if (vm > v) hi = mid; else lo = mid;
-        }
-
-        return 0.5 * (lo + hi);
-    }
+    public static double ForwardCurrent(DiodeModel model, double v, double temperature) => model.ForwardCurrent(v, temperature);
 
     /// <summary>Forward voltage at a forward current, V.</summary>
-    public static double ForwardVoltage(DiodeModel model, double current, double temperature) =>
-        (model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature) * Math.Log(1 + (current / model.SaturationCurrent))) + (current * model.SeriesResistance);
+    public static double ForwardVoltage(DiodeModel model, double current, double temperature) => model.ForwardVoltage(current, temperature);
 }

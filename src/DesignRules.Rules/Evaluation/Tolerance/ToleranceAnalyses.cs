@@ -5,26 +5,20 @@ using DesignRules.Model;
 namespace DesignRules.Rules.Evaluation.Tolerance;
 
 /// <summary>
-/// The tolerance analyses of a design's stages, each computed once and shared by the 4xx rules through
-/// <see cref="DesignAnalyses.Shared{T}"/>: the extreme-value worst case of every stage and, for stages with an accuracy
+/// The tolerance analyses of a design's stages, each computed once by the figures layer (<see cref="DesignAnalyses"/>)
+/// and shared by the 4xx rules: the extreme-value worst case of every stage and, for stages with an accuracy
 /// requirement, the seeded Monte Carlo yield.
 /// </summary>
 internal static class ToleranceAnalyses
 {
     /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
-    public static IReadOnlyList<StageProbe> Stages(DesignEvaluation evaluation)
-    {
-        var chain = evaluation.Analyses.Chain(BandEnd.Top);
-        return chain.Succeeded ? chain.Stages : [];
-    }
+    public static IReadOnlyList<StageProbe> Stages(DesignEvaluation evaluation) => evaluation.Analyses.Stages;
 
-    public static WorstCaseAnalysis WorstCase(DesignEvaluation evaluation, StageProbe stage) =>
-        evaluation.Analyses.Shared($"tolerance:worst-case:{stage.StageId}", () =>
-            WorstCaseAnalysis.Run(evaluation.Design, evaluation.Analyses.Chain(BandEnd.Top), stage, HoldDeviation(evaluation, stage)));
+    /// <summary>The stage's worst case, computed once by the figures layer.</summary>
+    public static WorstCaseAnalysis WorstCase(DesignEvaluation evaluation, StageProbe stage) => evaluation.Analyses.WorstCase(stage);
 
-    public static MonteCarloYield MonteCarlo(DesignEvaluation evaluation, StageProbe stage) =>
-        evaluation.Analyses.Shared($"tolerance:monte-carlo:{stage.StageId}", () =>
-            MonteCarloYield.Run(evaluation.Design, evaluation.Analyses.Chain(BandEnd.Top).Options, WorstCase(evaluation, stage), evaluation.MonteCarlo));
+    /// <summary>The stage's Monte Carlo, computed once by the figures layer.</summary>
+    public static MonteCarloYield MonteCarlo(DesignEvaluation evaluation, StageProbe stage) => evaluation.Analyses.MonteCarloOf(stage);
 
     /// <summary>Reports a failed run of the stage's analysis (DR920); true when the analysis has no figures at all.</summary>
     public static bool ReportFailure(DesignEvaluation evaluation, WorstCaseAnalysis analysis)
@@ -39,57 +33,6 @@ internal static class ToleranceAnalyses
 
     /// <summary>The accuracy a stage states, if any (peak and average included).</summary>
     public static double? Accuracy(StageProbe stage) => stage.Stage.Requirements.Accuracy?.Value.Value;
-
-    /// <summary>
-    /// For a peak stage: the range of (held output − input peak) over the measured periods of the nominal transient at
-    /// each band end, V; null for other stages or when no transient could be run.
-    /// </summary>
-    private static Interval? HoldDeviation(DesignEvaluation evaluation, StageProbe stage)
-    {
-        if (TransferTarget.Of(stage).Kind != TransferKind.Peak || !evaluation.Analyses.IsPeriodic)
-        {
-            return null;
-        }
-
-        // A hold still filling is not drooping: DR305 reports it, and its held value is not judged as droop.
-        if (LoadingBandwidthStress.HoldFilling.Of(evaluation).ContainsKey(stage.StageId))
-        {
-            return null;
-        }
-
-        Interval? range = null;
-        foreach (var end in evaluation.Analyses.BandEnds)
-        {
-            var chain = evaluation.Analyses.Chain(end);
-            var result = evaluation.Analyses.Transient(end);
-            var probe = chain.Stage(stage.StageId);
-            if (!result.Succeeded || probe is null)
-            {
-                if (result.Failure is { } failure) evaluation.ReportFailure("transient", failure, chain);
-                continue;
-            }
-
-            if (!evaluation.IsSettled(end))
-            {
-                continue;
-            }
-
-            var time = result.Time;
-            var input = result.Voltage(probe.InputNode);
-            var output = result.Voltage(probe.OutputNode);
-            double peak = double.NegativeInfinity;
-            for (int i = 0; i < time.Count; i++) if (time[i] >= chain.Window.MeasureFrom) peak = Math.Max(peak, input[i]);
-            if (!double.IsFinite(peak)) continue;
-            for (int i = 0; i < time.Count; i++)
-            {
-                if (time[i] < chain.Window.MeasureFrom) continue;
-                double d = output[i] - peak;
-                range = range is { } r ? r.Include(d) : Interval.Point(d);
-            }
-        }
-
-        return range;
-    }
 
     /// <summary>
     /// The variable that adds most to a figure and a breakdown by group as a fraction of <paramref name="scale"/>

@@ -70,7 +70,7 @@ internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield Mo
                 break;
             }
 
-            var more = MonteCarloYield.Run(evaluation.Design, evaluation.Analyses.Chain(BandEnd.Top).Options, analysis, settings,
+            var more = MonteCarloYield.Run(analysis, settings,
                 monteCarlo.Samples, Math.Min(batch, cap - monteCarlo.Samples));
             monteCarlo = monteCarlo.Append(more);
         }

@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
-namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+namespace DesignRules.Figures.LoadingBandwidthStress;
 
 /// <summary>A peak stage whose hold capacitor is still filling in the measured periods.</summary>
 /// <param name="Stage">The stage.</param>
@@ -23,28 +23,23 @@ internal static class HoldFilling
     /// <summary>A rise of the held value per period above this fraction of the input's peak is filling (common practice: a tenth of the 1 % accuracy class).</summary>
     public const double RiseFraction = 1e-3;
 
-    private sealed record Holder(IReadOnlyDictionary<string, FillingHold> Value);
-
-    /// <summary>The filling peak stages at the top band end, by stage id (empty for a DC source).</summary>
-    public static IReadOnlyDictionary<string, FillingHold> Of(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("loading:hold-filling", () => new Holder(Compute(evaluation))).Value;
-
-    private static Dictionary<string, FillingHold> Compute(DesignEvaluation evaluation)
+    /// <summary>The filling peak stages at the top band end, by stage id (empty for a DC source); see <see cref="DesignAnalyses.FillingHolds"/>.</summary>
+    internal static Dictionary<string, FillingHold> Compute(DesignAnalyses analyses)
     {
         var found = new Dictionary<string, FillingHold>(StringComparer.Ordinal);
-        if (!evaluation.Analyses.IsPeriodic)
+        if (!analyses.IsPeriodic)
         {
             return found;
         }
 
-        var chain = evaluation.Analyses.Chain(BandEnd.Top);
-        var result = evaluation.Analyses.Transient(BandEnd.Top);
+        var chain = analyses.Chain(BandEnd.Top);
+        var result = analyses.Transient(BandEnd.Top);
         if (!chain.Succeeded || !result.Succeeded || chain.Period is not { } period || result.Time.Count < 2)
         {
             return found;
         }
 
-        var (start, end) = TransientRuns.Window(chain, result);
+        var (start, end) = MeasurementWindow.Of(chain, result);
         int periods = (int)Math.Floor(((end - start) / period) + 1e-9);
         if (periods < 2)
         {

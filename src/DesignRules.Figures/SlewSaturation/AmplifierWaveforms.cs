@@ -1,7 +1,8 @@
 using DesignRules.Elaboration;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>
 /// Measures every amplifier of a design in the shared transient of a band end, once, for the slew (1xx) and saturation
@@ -24,51 +25,45 @@ internal static class AmplifierWaveforms
     /// <summary>Events smaller than this are numerical noise, V.</summary>
     private const double SmallestEvent = 1e-3;
 
-    private sealed record Holder(BandWaveforms? Value);
-
-    /// <summary>The measurements at <paramref name="end"/>, or null when the chain cannot be built or simulated.</summary>
-    public static BandWaveforms? At(DesignEvaluation evaluation, BandEnd end) =>
-        evaluation.Analyses.Shared($"slew-saturation:waveforms:{end}", () => new Holder(Compute(evaluation, end))).Value;
+    /// <summary>The measurements at <paramref name="end"/>, or null when the chain cannot be built or simulated (<see cref="DesignAnalyses.Waveforms"/>).</summary>
+    public static BandWaveforms? At(DesignAnalyses analyses, BandEnd end) => analyses.Waveforms(end);
 
     /// <summary>The measurements at every band end the design has (top first), skipping ends that cannot be simulated.</summary>
-    public static IEnumerable<BandWaveforms> AtEveryEnd(DesignEvaluation evaluation) =>
-        evaluation.Analyses.BandEnds.Select(end => At(evaluation, end)).OfType<BandWaveforms>();
+    public static IEnumerable<BandWaveforms> AtEveryEnd(DesignAnalyses analyses) =>
+        analyses.BandEnds.Select(analyses.Waveforms).OfType<BandWaveforms>();
 
-    private static BandWaveforms? Compute(DesignEvaluation evaluation, BandEnd end)
+    internal static BandWaveforms? Compute(DesignAnalyses analyses, BandEnd end)
     {
-        var chain = evaluation.Analyses.Chain(end);
+        var chain = analyses.Chain(end);
         if (!chain.Succeeded)
         {
             return null;
         }
 
-        var transient = evaluation.Analyses.Transient(end);
+        var transient = analyses.Transient(end);
         if (!transient.Succeeded)
         {
-            evaluation.ReportFailure("transient", transient.Failure!, chain);
+            analyses.ReportFailure("transient", transient.Failure!, chain);
             return null;
         }
 
-        if (!evaluation.IsSettled(end))
+        if (!analyses.IsSettled(end))
         {
             return null;
         }
 
-        return Measure(evaluation, end, chain, transient);
+        return Measure(analyses, end, chain, transient);
     }
-
-    private sealed record CornerHolder(IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)> Value);
 
     /// <summary>
     /// The same measurements at every resistor-tolerance corner and band end (<see cref="ToleranceCorners"/>), for the
     /// rules that judge the worst corner.
     /// </summary>
-    public static IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)> AtCorners(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("slew-saturation:waveforms:corners", () => new CornerHolder(ToleranceCorners.Runs(evaluation)
-            .Select(r => (r.Corner, Band: Measure(evaluation, r.End, r.Chain, r.Transient)))
-            .Where(x => x.Band is not null).Select(x => (x.Corner, x.Band!)).ToList())).Value;
+    internal static IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)> AtCorners(DesignAnalyses analyses) =>
+        analyses.CornerRuns.Select(r => (r.Corner, Band: Measure(analyses, r.End, r.Chain, r.Transient)))
+            .Where(x => x.Band is not null).Select(x => (x.Corner, x.Band!)).ToList();
 
-    private static BandWaveforms? Measure(DesignEvaluation evaluation, BandEnd end, ElaboratedChain chain, TransientResult transient)
+    private static BandWaveforms? Measure(DesignAnalyses analyses, BandEnd end, ElaboratedChain chain, TransientResult transient)
     {
         if (transient.Time.Count < 2)
         {
@@ -76,7 +71,7 @@ internal static class AmplifierWaveforms
         }
 
         double from = Math.Min(chain.Window.MeasureFrom, transient.Time[^1]);
-        var named = StageParts.Amplifiers(evaluation.Design).ToList();
+        var named = StageParts.Amplifiers(analyses.Design).ToList();
         double? frequency = chain.Period is null ? null : HighestFrequency(chain.SourceWaveform);
         var amplifiers = new List<AmplifierWaveform>();
         foreach (var stage in chain.Stages)
@@ -237,7 +232,7 @@ internal static class AmplifierWaveforms
     }
 
     private static double[] Voltage(TransientResult transient, string node, int count) =>
-        Circuit.IsReference(node) || !transient.HasNode(node) ? new double[count] : transient.Voltage(node);
+        !transient.HasNode(node) ? new double[count] : transient.Voltage(node);
 
     /// <summary>The highest frequency in a source waveform (a sum's fastest term), Hz; null when it has none.</summary>
     internal static double? HighestFrequency(Simulation.Waveforms.Waveform waveform) => waveform switch

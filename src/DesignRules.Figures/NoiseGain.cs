@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures;
 
 /// <summary>
 /// The noise gain 1/β of each amplifier: from the block's feedback network for a built-in block (textbook: 1 + Zf/Zg,

@@ -2,7 +2,7 @@ using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>A resistor whose value may lie anywhere in nominal·(1 ± tolerance).</summary>
 /// <param name="ElementId">Engine element id, also the value-override key (<c>stage.rf</c>).</param>

@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>
 /// How far each amplifier's output may move from its nominal level when the amplifiers' input offset voltages sit at
@@ -12,10 +12,10 @@ namespace DesignRules.Rules.Evaluation.SlewSaturation;
 /// </summary>
 internal static class OffsetShift
 {
-    private sealed record Corners(OperatingPointResult? Nominal, OperatingPointResult? Positive, OperatingPointResult? Negative);
+    internal sealed record Corners(OperatingPointResult? Nominal, OperatingPointResult? Positive, OperatingPointResult? Negative);
 
     /// <summary>The upward and downward shift (both zero or positive), V.</summary>
-    public static (double Up, double Down) Of(DesignEvaluation evaluation, AmplifierWaveform a)
+    public static (double Up, double Down) Of(DesignAnalyses analyses, AmplifierWaveform a)
     {
         double vos = Math.Abs(a.Probe.Part.OffsetVoltage.Maximum.Value.Value);
         if (a.Stage.Stage is BlockStage)
@@ -24,7 +24,7 @@ internal static class OffsetShift
             return (shift, shift);
         }
 
-        var corners = evaluation.Analyses.Shared("slew-saturation:offset-corners", () => Compute(evaluation));
+        var corners = analyses.OffsetCorners;
         if (corners.Nominal is not { Succeeded: true } nominal)
         {
             return (vos, vos);
@@ -52,14 +52,14 @@ internal static class OffsetShift
         return (up, down);
     }
 
-    private static Corners Compute(DesignEvaluation evaluation)
+    internal static Corners Compute(DesignAnalyses analyses)
     {
         OperatingPointResult? Run(OffsetCorner corner)
         {
-            var chain = ChainElaborator.Elaborate(evaluation.Design, ElaborationOptions.Default with { Offset = corner });
+            var chain = ChainElaborator.Elaborate(analyses.Design, ElaborationOptions.Default with { Offset = corner });
             return chain.Succeeded ? Simulate.OperatingPoint(chain.Circuit) : null;
         }
 
-        return new Corners(evaluation.Analyses.OperatingPoint(), Run(OffsetCorner.MaximumPositive), Run(OffsetCorner.MaximumNegative));
+        return new Corners(analyses.OperatingPoint(), Run(OffsetCorner.MaximumPositive), Run(OffsetCorner.MaximumNegative));
     }
 }

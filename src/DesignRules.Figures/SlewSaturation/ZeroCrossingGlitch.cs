@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>The zero-crossing glitch of one rectifying stage at one band end.</summary>
 /// <param name="Width">Longest time the output stays outside the band around the ideal transfer after an input zero crossing, s.</param>
@@ -32,16 +32,16 @@ internal static class ZeroCrossingGlitch
     /// <summary>Fewest linear points the fit needs; with fewer the fit uses every point at the fit level.</summary>
     private const int FewestLinearPoints = 20;
 
-    /// <summary>True for a stage that rectifies: diodes, and an absolute-value or half-wave transfer.</summary>
-    public static bool IsRectifying(StageProbe stage) => StageProperties.IsRectifying(stage);
-
-    /// <summary>The glitch, or null when the stage does not rectify or the signal is too small to measure.</summary>
+    /// <summary>
+    /// The glitch of a rectifying stage (the rules decide which stages rectify), or null when the source has no frequency
+    /// or the signal is too small to measure.
+    /// </summary>
     /// <param name="band">The band end's waveforms.</param>
     /// <param name="stage">The stage.</param>
     /// <param name="bandFraction">Half-width of the error band as a fraction of the ideal output's peak.</param>
     public static StageGlitch? Of(BandWaveforms band, StageProbe stage, double bandFraction)
     {
-        if (!IsRectifying(stage) || band.Frequency is not { } frequency)
+        if (band.Frequency is not { } frequency)
         {
             return null;
         }

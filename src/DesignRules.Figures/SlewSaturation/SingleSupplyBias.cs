@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>How low a single-supply stage's input signal goes, and how low its amplifiers allow.</summary>
 /// <param name="Stage">The stage.</param>
@@ -20,30 +20,28 @@ internal sealed record SingleSupplyBias(StageProbe Stage, double Minimum, double
 /// <summary>DR205's measurement, shared with DR203 (which leaves the negative side of such stages to DR205).</summary>
 internal static class SingleSupply
 {
-    private sealed record Holder(IReadOnlyList<SingleSupplyBias> Stages);
-
     /// <summary>True when the design runs from a single supply (negative rail 0 V).</summary>
-    public static bool IsSingleSupply(DesignEvaluation evaluation) => evaluation.Design.Supplies.Negative.Value.Value == 0;
+    public static bool IsSingleSupply(DesignAnalyses analyses) => analyses.Design.Supplies.Negative.Value.Value == 0;
 
     /// <summary>Every stage with amplifiers of a single-supply design, with its input minimum and limit; empty otherwise.</summary>
-    public static IReadOnlyList<SingleSupplyBias> Stages(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("slew-saturation:single-supply", () => new Holder(Compute(evaluation))).Stages;
+    public static IReadOnlyList<SingleSupplyBias> Stages(DesignAnalyses analyses) =>
+        analyses.SingleSupplyStages;
 
     /// <summary>True when <paramref name="stageId"/> is a single-supply stage whose signal needs a bias point it lacks.</summary>
-    public static bool NeedsBias(DesignEvaluation evaluation, string stageId) =>
-        Stages(evaluation).Any(s => s.Stage.StageId == stageId && s.NeedsBias);
+    public static bool NeedsBias(DesignAnalyses analyses, string stageId) =>
+        Stages(analyses).Any(s => s.Stage.StageId == stageId && s.NeedsBias);
 
-    private static List<SingleSupplyBias> Compute(DesignEvaluation evaluation)
+    internal static List<SingleSupplyBias> Compute(DesignAnalyses analyses)
     {
         var result = new List<SingleSupplyBias>();
-        if (!IsSingleSupply(evaluation))
+        if (!IsSingleSupply(analyses))
         {
             return result;
         }
 
         var worst = new Dictionary<string, SingleSupplyBias>(StringComparer.Ordinal);
         var order = new List<string>();
-        foreach (var band in AmplifierWaveforms.AtEveryEnd(evaluation))
+        foreach (var band in AmplifierWaveforms.AtEveryEnd(analyses))
         {
             foreach (var stage in band.Chain.Stages.Where(s => s.Amplifiers.Count > 0))
             {

@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures;
 
 /// <summary>
 /// The bounds of the search for a periodic steady state: how close to settled a run must be, and how much may be

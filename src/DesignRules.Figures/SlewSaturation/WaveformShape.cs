@@ -1,6 +1,6 @@
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>
 /// How steep a periodic source waveform is for its size: its steepest slope divided by 2π·f·Vp (f its highest frequency,

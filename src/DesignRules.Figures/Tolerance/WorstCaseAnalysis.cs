@@ -3,7 +3,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>What one variable of a stage adds to a figure, and where in the design it is written.</summary>
 /// <param name="What">How a message names it ("resistor rf", "amplifier u1 offset").</param>
@@ -35,6 +35,12 @@ internal sealed class WorstCaseAnalysis
     public required ToleranceVariables Variables { get; init; }
 
     public required TransferPlan Plan { get; init; }
+
+    /// <summary>
+    /// The stage's chain compiled once with every variable nominal: <c>Circuit.Measure(variation)</c> gives the DC transfer
+    /// at any corner (<see cref="ToleranceVariables.Nominal"/> with some variables set to ±1) or sample, warm-started.
+    /// </summary>
+    public required ToleranceCircuit Circuit { get; init; }
 
     public required TransferTarget Target { get; init; }
 
@@ -159,11 +165,12 @@ internal sealed class WorstCaseAnalysis
             singles.Add((-1, -1, "diode", d, plus, plus + 1));
         }
 
-        var first = Evaluate(design, baseline, variables, plan, runs, maxDegreeOfParallelism);
+        var circuit = ToleranceCircuit.Of(design, baseline, variables, plan);
+        var first = Evaluate(circuit, runs, maxDegreeOfParallelism);
         var nominalTransfer = first[0];
         if (!nominalTransfer.Succeeded)
         {
-            return Empty(stage, variables, plan, target, nominalTransfer);
+            return Empty(stage, variables, plan, target, circuit, nominalTransfer);
         }
 
         var metric = AccuracyMetric.Of(target, nominalTransfer, dynamic);
@@ -205,7 +212,7 @@ internal sealed class WorstCaseAnalysis
             }
         }
 
-        var cornerRuns = Evaluate(design, baseline, variables, plan, corners, maxDegreeOfParallelism);
+        var cornerRuns = Evaluate(circuit, corners, maxDegreeOfParallelism);
         var cornerFigures = cornerRuns.Where(t => t.Succeeded).Select(t => StageFigures.Of(t, target, plan)).ToList();
         cornerFigures.Add(nominal);
 
@@ -240,7 +247,7 @@ internal sealed class WorstCaseAnalysis
         // nominal resistors misses the cross terms (bias current × resistor mismatch, which a compensation resistor
         // cancels only at nominal values); every combined run is a feasible point of the variable box, so it only widens.
         var combined = CombinedCorners(variables, corners, singles, figures, plan.ZeroIndex);
-        var combinedRuns = Evaluate(design, baseline, variables, plan, combined, maxDegreeOfParallelism);
+        var combinedRuns = Evaluate(circuit, combined, maxDegreeOfParallelism);
         double superposedOffset = deviations[plan.ZeroIndex].Magnitude;
         foreach (var f in combinedRuns.Where(t => t.Succeeded).Select(t => StageFigures.Of(t, target, plan)))
         {
@@ -255,6 +262,7 @@ internal sealed class WorstCaseAnalysis
             Stage = stage,
             Variables = variables,
             Plan = plan,
+            Circuit = circuit,
             Target = target,
             Metric = metric,
             Nominal = nominal,
@@ -310,13 +318,17 @@ internal sealed class WorstCaseAnalysis
     }
 
     /// <summary>Runs the variations side by side; results are in the order of <paramref name="runs"/>.</summary>
-    internal static DcTransfer[] Evaluate(Design design, ElaborationOptions baseline, ToleranceVariables variables, TransferPlan plan, IReadOnlyList<Variation> runs, int maxDegreeOfParallelism)
+    /// <remarks>A run with every variable nominal is the circuit's cold nominal solve itself.</remarks>
+    internal static DcTransfer[] Evaluate(ToleranceCircuit circuit, IReadOnlyList<Variation> runs, int maxDegreeOfParallelism)
     {
         var results = new DcTransfer[runs.Count];
         Parallel.For(0, runs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism },
-            i => results[i] = DcTransfer.Measure(design, variables.Options(baseline, runs[i]), plan));
+            i => results[i] = IsNominal(runs[i]) ? circuit.Nominal : circuit.Measure(runs[i]));
         return results;
     }
+
+    private static bool IsNominal(Variation v) =>
+        v.Resistors.All(u => u == 0) && v.Offsets.All(u => u == 0) && v.Biases.All(u => u == 0) && v.Diodes.All(u => u == 0) && v.OffsetCurrents.All(u => u == 0);
 
     private static IEnumerable<Func<StageFigures, double>> Fields(StageFigures nominal)
     {
@@ -331,12 +343,12 @@ internal sealed class WorstCaseAnalysis
         yield return f => f.CommonModeShift;
     }
 
-    private static WorstCaseAnalysis Empty(StageProbe stage, ToleranceVariables variables, TransferPlan plan, TransferTarget target, DcTransfer failed)
+    private static WorstCaseAnalysis Empty(StageProbe stage, ToleranceVariables variables, TransferPlan plan, TransferTarget target, ToleranceCircuit circuit, DcTransfer failed)
     {
         var nothing = new StageFigures(new double[plan.Levels.Length], double.NaN, double.NaN, 0, double.PositiveInfinity);
         return new WorstCaseAnalysis
         {
-            Stage = stage, Variables = variables, Plan = plan, Target = target,
+            Stage = stage, Variables = variables, Plan = plan, Circuit = circuit, Target = target,
             Metric = new AccuracyMetric([], double.NaN, null, 0), Nominal = nothing,
             Deviations = new Interval[plan.Levels.Length], Gain = Interval.Point(double.NaN), Mismatch = Interval.Point(double.NaN),
             CommonModeShift = Interval.Point(0), WorstCommonModeRejection = double.PositiveInfinity, Corners = 0, BySensitivity = false,

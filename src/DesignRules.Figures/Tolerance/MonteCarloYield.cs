@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>
 /// The random numbers of one Monte Carlo sample, derived from (seed, stage, sample index) alone: a SplitMix64 mix of the
@@ -63,8 +63,8 @@ internal static class SampleDraws
 /// <summary>
 /// Seeded Monte Carlo of one stage's DC transfer: every sample draws each resistor (nominal·(1 + u·t)), each amplifier's
 /// offset voltage and bias current (u·maximum) and each diode's forward-voltage shift (u·spread), with u from the
-/// rule-set's distribution (a normal with the extremes at ±3σ, truncated there, by default), elaborates the chain and
-/// measures the stage's transfer error. Samples run in parallel on every core; each sample's numbers depend only on the
+/// rule-set's distribution (a normal with the extremes at ±3σ, truncated there, by default), sets them in the stage's
+/// compiled chain (<see cref="ToleranceCircuit"/>, warm-started from the nominal solution) and measures the stage's transfer error. Samples run in parallel on every core; each sample's numbers depend only on the
 /// seed, the stage and its index, so results are identical whatever the thread count.
 /// </summary>
 /// <param name="Samples">Sample count.</param>
@@ -87,14 +87,14 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
     public MonteCarloYield Append(MonteCarloYield more) =>
         new(Samples + more.Samples, Seed, Distribution, [.. Errors, .. more.Errors], [.. Gains, .. more.Gains]);
 
-    public static MonteCarloYield Run(Design design, ElaborationOptions baseline, WorstCaseAnalysis worstCase, MonteCarloSettings settings, int maxDegreeOfParallelism = -1) =>
-        Run(design, baseline, worstCase, settings, 0, Math.Max(0, settings.Samples), maxDegreeOfParallelism);
+    public static MonteCarloYield Run(WorstCaseAnalysis worstCase, MonteCarloSettings settings, int maxDegreeOfParallelism = -1) =>
+        Run(worstCase, settings, 0, Math.Max(0, settings.Samples), maxDegreeOfParallelism);
 
     /// <summary>
     /// Draws samples <paramref name="first"/> … <paramref name="first"/> + <paramref name="count"/> − 1. Sample i is
     /// the same whichever batch draws it, so a run in batches equals one run of the whole count.
     /// </summary>
-    public static MonteCarloYield Run(Design design, ElaborationOptions baseline, WorstCaseAnalysis worstCase, MonteCarloSettings settings, int first, int count, int maxDegreeOfParallelism = -1)
+    public static MonteCarloYield Run(WorstCaseAnalysis worstCase, MonteCarloSettings settings, int first, int count, int maxDegreeOfParallelism = -1)
     {
         int samples = Math.Max(0, count);
         var variables = worstCase.Variables;
@@ -114,7 +114,7 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
             {
                 if (variables.Amplifiers[k].MaximumOffsetCurrent > 0) v.OffsetCurrents[k] = SampleDraws.Unit(random, settings.Distribution);
             }
-            var transfer = DcTransfer.Measure(design, variables.Options(baseline, v), worstCase.Plan);
+            var transfer = worstCase.Circuit.Measure(v);
             if (!transfer.Succeeded)
             {
                 errors[i] = gains[i] = double.NaN;

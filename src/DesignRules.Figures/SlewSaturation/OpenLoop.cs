@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>
 /// Amplifiers whose feedback loop opens by design (a diode in the loop turns off for part of each cycle), and what it
@@ -53,9 +53,7 @@ internal static class OpenLoop
             return 0;
         }
 
-        var m = diode.Model;
-        double thermal = PhysicalConstants.ThermalVoltage(PhysicalConstants.DefaultTemperature);
-        return (m.EmissionCoefficient * thermal * Math.Log(1 + (DiodeCurrent / m.SaturationCurrent))) + (DiodeCurrent * m.SeriesResistance);
+        return diode.Model.ForwardVoltage(DiodeCurrent, PhysicalConstants.DefaultTemperature);
     }
 
     /// <summary>

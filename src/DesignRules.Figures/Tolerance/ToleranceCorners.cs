@@ -1,9 +1,8 @@
 using System.Globalization;
 using DesignRules.Elaboration;
-using DesignRules.Rules.Evaluation.Tolerance;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>One resistor-tolerance corner of the whole chain: a value per toleranced resistor, and how messages name it.</summary>
 /// <param name="Name">"gain-high corner", "all resistors low", …</param>
@@ -34,22 +33,16 @@ internal sealed record CornerRun(ToleranceCorner Corner, BandEnd End, Elaborated
 /// </summary>
 internal static class ToleranceCorners
 {
-    private sealed record Holder(IReadOnlyList<CornerRun> Runs);
-
-    /// <summary>Every corner's settled run at every band end (none for a DC source or a chain without tolerances).</summary>
-    public static IReadOnlyList<CornerRun> Runs(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("tolerance-corners:runs", () => new Holder(Compute(evaluation))).Runs;
-
-    private static List<CornerRun> Compute(DesignEvaluation evaluation)
+    /// <summary>Every corner's settled run at every band end (none for a DC source or a chain without tolerances); see <see cref="DesignAnalyses.CornerRuns"/>.</summary>
+    internal static List<CornerRun> Compute(DesignAnalyses analyses)
     {
-        var analyses = evaluation.Analyses;
         var nominal = analyses.Chain(BandEnd.Top);
         if (!nominal.Succeeded || !analyses.IsPeriodic)
         {
             return [];
         }
 
-        var corners = Corners(evaluation, nominal);
+        var corners = Corners(analyses, nominal);
         var jobs = corners.SelectMany(c => analyses.BandEnds.Select(e => (Corner: c, End: e))).ToList();
         var baseline = analyses.BandEnds.ToDictionary(e => e, e => analyses.Chain(e).Options);
         var runs = new CornerRun?[jobs.Count];
@@ -57,7 +50,7 @@ internal static class ToleranceCorners
         {
             var (corner, end) = jobs[i];
             var options = baseline[end] with { Values = corner.Values };
-            var chain = ChainElaborator.Elaborate(evaluation.Design, options);
+            var chain = ChainElaborator.Elaborate(analyses.Design, options);
             if (!chain.Succeeded)
             {
                 return;
@@ -73,7 +66,7 @@ internal static class ToleranceCorners
         return runs.OfType<CornerRun>().ToList();
     }
 
-    private static List<ToleranceCorner> Corners(DesignEvaluation evaluation, ElaboratedChain nominal)
+    private static List<ToleranceCorner> Corners(DesignAnalyses analyses, ElaboratedChain nominal)
     {
         var resistors = nominal.Stages.SelectMany(s => s.Components)
             .Where(c => c.Kind == Model.ElementKind.Resistor && c.ResistorFamily is { } f && Math.Abs(f.Tolerance.Value.Value) > 0)
@@ -87,7 +80,7 @@ internal static class ToleranceCorners
         var raises = new Dictionary<string, int>(StringComparer.Ordinal);
         foreach (var stage in nominal.Stages)
         {
-            var analysis = ToleranceAnalyses.WorstCase(evaluation, stage);
+            var analysis = analyses.WorstCase(stage);
             double g = analysis.Nominal.Gain;
             if (!analysis.Target.IsLinear || !double.IsFinite(g) || g == 0)
             {

@@ -2,7 +2,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>
 /// Where a stage's DC transfer is measured: the source emf replaced by DC levels (the waveform's lowest and highest value,
@@ -165,5 +165,5 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
         return new DcTransfer(inputs, outputs, shift, null, chain) { Clipped = clipped };
     }
 
-    private static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);
+    internal static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);
 }

@@ -3,7 +3,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+namespace DesignRules.Figures.LoadingBandwidthStress;
 
 /// <summary>
 /// Small-signal (AC) figures of a design at the frequencies the rules care about: the band-end test frequencies, 1 Hz (the
@@ -30,29 +30,28 @@ internal sealed class SmallSignal
     public IReadOnlyList<double> BandFrequencies { get; }
 
     /// <summary>The shared small-signal sweep of a design; null when the chain could not be built or the analysis failed (reported once).</summary>
-    public static SmallSignal? Of(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("loading-bandwidth-stress:small-signal", () => Compute(evaluation)).Value;
+    public static SmallSignal? Of(DesignAnalyses analyses) =>
+        analyses.SmallSignal;
 
-    private static Holder Compute(DesignEvaluation evaluation)
+    internal static SmallSignal? Compute(DesignAnalyses analyses)
     {
-        var analyses = evaluation.Analyses;
         var chain = analyses.Chain(BandEnd.Top);
         if (!chain.Succeeded)
         {
-            return new Holder(null);
+            return null;
         }
 
         var band = analyses.BandEnds.Select(e => analyses.Chain(e).TestFrequency).OfType<double>().Distinct().Order().ToList();
-        var top = SourceSignal.TopFrequency(evaluation.Design.Source.Waveform);
+        var top = SourceSignal.TopFrequency(analyses.Design.Source.Waveform);
         var frequencies = new[] { Dc, 1.0 }.Concat(band).Concat(top is { } t ? [t] : []).Distinct().Order().ToArray();
         var result = Simulate.AcSweep(chain.Circuit, AcSweep.List(chain.SourceId, frequencies));
         if (!result.Succeeded)
         {
-            evaluation.ReportFailure("AC", result.Failure!, chain);
-            return new Holder(null);
+            analyses.ReportFailure("AC", result.Failure!, chain);
+            return null;
         }
 
-        return new Holder(new SmallSignal(chain, result, band));
+        return new SmallSignal(chain, result, band);
     }
 
     /// <summary>Index of a frequency of the sweep.</summary>
@@ -71,32 +70,29 @@ internal sealed class SmallSignal
 
     /// <summary>The differential voltage of a stage's input (input node minus its reference input node).</summary>
     public static Complex InputVoltage(AcResult result, StageProbe stage, int index) =>
-        result.Voltage(stage.InputNode)[index] - (Circuit.IsReference(stage.ReferenceInputNode) ? Complex.Zero : result.Voltage(stage.ReferenceInputNode)[index]);
+        result.Voltage(stage.InputNode)[index] - result.Voltage(stage.ReferenceInputNode)[index];
 
     /// <summary>
     /// The loading between a stage's output node and whatever is connected to it downstream (the next stage, or the load):
     /// a 1 A AC test current is injected at the node, in a second elaboration of the same chain, and the share of it that
     /// flows into the downstream elements is the loading loss Zout/(Zout + Zin) (current divider); Zin and Zout follow.
     /// </summary>
-    public Loading? LoadingAt(DesignEvaluation evaluation, int stageIndex) =>
-        evaluation.Analyses.Shared($"loading-bandwidth-stress:loading:{stageIndex}", () => new LoadingHolder(ComputeLoading(evaluation, stageIndex))).Value;
-
-    private Loading? ComputeLoading(DesignEvaluation evaluation, int stageIndex)
+    internal Loading? ComputeLoading(DesignAnalyses analyses, int stageIndex)
     {
         var stage = Chain.Stages[stageIndex];
         var node = stage.OutputNode;
-        var tested = ChainElaborator.Elaborate(evaluation.Design, Chain.Options);
+        var tested = ChainElaborator.Elaborate(analyses.Design, Chain.Options);
         const string testId = "loading-test";
         tested.Circuit.AddCurrentSource(testId, Circuit.Ground, node, 0);
         var result = Simulate.AcSweep(tested.Circuit, AcSweep.List(testId, [.. Result.Frequencies]));
         if (!result.Succeeded)
         {
-            evaluation.ReportFailure("AC", result.Failure!, Chain);
+            analyses.ReportFailure("AC", result.Failure!, Chain);
             return null;
         }
 
         // The test current is the only stimulus of this sweep, so every node voltage is the change it causes.
-        Complex Delta(string n, int i) => Circuit.IsReference(n) ? Complex.Zero : result.Voltage(n)[i];
+        Complex Delta(string n, int i) => result.Voltage(n)[i];
         var points = new List<LoadingPoint>();
         for (int i = 0; i < Result.Frequencies.Count; i++)
         {
@@ -118,7 +114,7 @@ internal sealed class SmallSignal
             }
             else
             {
-                var load = evaluation.Design.Load;
+                var load = analyses.Design.Load;
                 into = dv * (Admittance(ElementKind.Resistor, load.Resistance.Value.Value, omega)
                              + (load.Capacitance is { } cl ? Admittance(ElementKind.Capacitor, cl.Value.Value, omega) : Complex.Zero));
             }
@@ -137,9 +133,6 @@ internal sealed class SmallSignal
         _ => Complex.Zero,
     };
 
-    private sealed record Holder(SmallSignal? Value);
-
-    private sealed record LoadingHolder(Loading? Value);
 }
 
 /// <summary>The loading of one stage output at each swept frequency.</summary>

@@ -1,7 +1,7 @@
 using DesignRules.Diagnostics;
 using DesignRules.Model;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures;
 
 /// <summary>An amplifier of a stage as the design names it: slot or element id, part, and where the part is named.</summary>
 internal sealed record StageAmplifier(Stage Stage, string Slot, AmplifierPart Part, SourceSpan PartSpan);

@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>
 /// The transfer a stage is judged against: the required gain when the stage states one, else the ideal transfer computed

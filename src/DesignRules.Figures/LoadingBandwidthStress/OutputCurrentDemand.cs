@@ -1,7 +1,8 @@
+using DesignRules.Figures.Tolerance;
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+namespace DesignRules.Figures.LoadingBandwidthStress;
 
 /// <summary>What one amplifier's output asked for and got at one band end.</summary>
 /// <param name="Demanded">Peak current the circuit demands of the output (from the run without current limits), A.</param>
@@ -25,32 +26,27 @@ internal sealed record AmplifierDemand(double Demanded, double Delivered, bool C
 /// </summary>
 internal static class OutputCurrentDemand
 {
-    private sealed record Holder(IReadOnlyDictionary<string, AmplifierDemand> Value);
-
     /// <summary>Per amplifier element id, what its output asked for and got at <paramref name="end"/> (empty when the chain cannot be simulated).</summary>
-    public static IReadOnlyDictionary<string, AmplifierDemand> At(DesignEvaluation evaluation, BandEnd end) =>
-        evaluation.Analyses.Shared($"loading:output-current-demand:{end}", () => new Holder(Compute(evaluation, end))).Value;
+    public static IReadOnlyDictionary<string, AmplifierDemand> At(DesignAnalyses analyses, BandEnd end) =>
+        analyses.OutputCurrentDemand(end);
 
-    private sealed record CornerHolder(IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)> Value);
-
-    /// <summary>The same at every resistor-tolerance corner and band end (<see cref="ToleranceCorners"/>).</summary>
-    public static IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)> AtCorners(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared("loading:output-current-demand:corners", () => new CornerHolder(ToleranceCorners.Runs(evaluation)
-            .Select(r => (r.Corner, r.Chain, (IReadOnlyDictionary<string, AmplifierDemand>)Of(evaluation.Design, r.Chain, r.Transient))).ToList())).Value;
+    /// <summary>The same at every resistor-tolerance corner and band end (<see cref="DesignAnalyses.CornerRuns"/>).</summary>
+    internal static IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)> AtCorners(DesignAnalyses analyses) =>
+        analyses.CornerRuns.Select(r => (r.Corner, r.Chain, (IReadOnlyDictionary<string, AmplifierDemand>)Of(analyses.Design, r.Chain, r.Transient))).ToList();
 
     /// <summary>The demands of the corner whose chain is <paramref name="chain"/>, if it is one (else empty).</summary>
-    public static IReadOnlyDictionary<string, AmplifierDemand> AtCorner(DesignEvaluation evaluation, ElaboratedChain chain) =>
-        AtCorners(evaluation).FirstOrDefault(c => ReferenceEquals(c.Chain, chain)).Demands ?? new Dictionary<string, AmplifierDemand>();
+    public static IReadOnlyDictionary<string, AmplifierDemand> AtCorner(DesignAnalyses analyses, ElaboratedChain chain) =>
+        analyses.CornerDemands.FirstOrDefault(c => ReferenceEquals(c.Chain, chain)).Demands ?? new Dictionary<string, AmplifierDemand>();
 
-    private static Dictionary<string, AmplifierDemand> Compute(DesignEvaluation evaluation, BandEnd end)
+    internal static Dictionary<string, AmplifierDemand> Compute(DesignAnalyses analyses, BandEnd end)
     {
-        var chain = evaluation.Analyses.Chain(end);
+        var chain = analyses.Chain(end);
         if (!chain.Succeeded)
         {
             return new Dictionary<string, AmplifierDemand>(StringComparer.Ordinal);
         }
 
-        return Of(evaluation.Design, chain, evaluation.Analyses.Transient(end));
+        return Of(analyses.Design, chain, analyses.Transient(end));
     }
 
     private static Dictionary<string, AmplifierDemand> Of(Model.Design design, ElaboratedChain chain, TransientResult nominal)

@@ -2,7 +2,7 @@ using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 
-namespace DesignRules.Rules.Evaluation.Tolerance;
+namespace DesignRules.Figures.Tolerance;
 
 /// <summary>Where the parts of a stage are named in the design file, for findings to point at.</summary>
 internal static class ToleranceSpans

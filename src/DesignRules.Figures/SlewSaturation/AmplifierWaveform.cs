@@ -1,7 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.SlewSaturation;
+namespace DesignRules.Figures.SlewSaturation;
 
 /// <summary>
 /// One slewing event of an amplifier output: a monotone run during which the output moves at (or near) its slew rate,

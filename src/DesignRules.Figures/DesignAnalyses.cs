@@ -1,0 +1,263 @@
+using DesignRules.Elaboration;
+using DesignRules.Figures.LoadingBandwidthStress;
+using DesignRules.Figures.SlewSaturation;
+using DesignRules.Figures.Tolerance;
+using DesignRules.Model;
+using DesignRules.Simulation;
+
+namespace DesignRules.Figures;
+
+/// <summary>
+/// Where the analyses of one design report what they could not do: a failed analysis (DR920 in the rules) and a
+/// transient that did not reach its periodic steady state (DR925). The rules' evaluation implements it, so the figures
+/// layer computes and the rules layer judges and reports.
+/// </summary>
+internal interface IAnalysisFailures
+{
+    /// <summary>An analysis of <paramref name="chain"/> failed.</summary>
+    void Failed(string analysis, SimulationFailure failure, ElaboratedChain chain);
+
+    /// <summary>The transient at <paramref name="end"/> did not settle within its bounds.</summary>
+    void Unsettled(BandEnd end, SettledTransient steady);
+}
+
+/// <summary>
+/// The named analyses of one design, each computed at most once, on first use, and shared by every rule that needs it:
+/// the nominal chain and its settled transient at each band end, the DC operating point, the AC sweep, the amplifier
+/// waveforms, the single-supply bias, the offset corners, the small-signal loading, the output-current demand, and per
+/// stage the worst case and the Monte Carlo of its DC transfer. Not thread-safe: one design is evaluated on one thread.
+/// </summary>
+internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo, IAnalysisFailures failures)
+{
+    private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
+    private readonly Dictionary<BandEnd, ElaboratedChain> settledChains = [];
+    private readonly Dictionary<BandEnd, SettledTransient> transients = [];
+    private readonly Dictionary<BandEnd, BandWaveforms?> waveforms = [];
+    private readonly Dictionary<BandEnd, IReadOnlyDictionary<string, AmplifierDemand>> demands = [];
+    private readonly Dictionary<int, LoadingBandwidthStress.Loading?> loadings = [];
+    private readonly Dictionary<string, WorstCaseAnalysis> worstCases = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, MonteCarloYield> monteCarlos = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, object> shared = new(StringComparer.Ordinal);
+    private OperatingPointResult? operatingPoint;
+    private AcResult? ac;
+    private Lazy<SmallSignal?>? smallSignal;
+    private IReadOnlyList<SingleSupplyBias>? singleSupply;
+    private OffsetShift.Corners? offsetCorners;
+    private IReadOnlyList<CornerRun>? cornerRuns;
+    private IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)>? cornerWaveforms;
+    private IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)>? cornerDemands;
+    private IReadOnlyDictionary<string, FillingHold>? fillingHolds;
+
+    public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
+
+    /// <summary>The design the analyses are of.</summary>
+    public Design Design { get; } = design;
+
+    /// <summary>
+    /// A value the rules layer computes once per design under <paramref name="key"/> (a judgement, not a figure: the
+    /// figures have named members above).
+    /// </summary>
+    public T Shared<T>(string key, Func<T> compute)
+        where T : notnull
+    {
+        if (!shared.TryGetValue(key, out var value))
+        {
+            value = compute();
+            shared[key] = value;
+        }
+
+        return (T)value;
+    }
+
+    /// <summary>Reports a failed analysis to the rules layer (DR920).</summary>
+    public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain) => failures.Failed(analysis, failure, chain);
+
+    /// <summary>
+    /// True when the transient at <paramref name="end"/> reached its periodic steady state; otherwise reports it (DR925)
+    /// and returns false, so that no figure is measured on an unsettled signal.
+    /// </summary>
+    public bool IsSettled(BandEnd end)
+    {
+        var steady = Steady(end);
+        if (!steady.Settled) failures.Unsettled(end, steady);
+        return steady.Settled;
+    }
+
+    /// <summary>Every amplifier measured in the settled transient at <paramref name="end"/> (null when it cannot be run).</summary>
+    public BandWaveforms? Waveforms(BandEnd end) =>
+        waveforms.TryGetValue(end, out var w) ? w : waveforms[end] = AmplifierWaveforms.Compute(this, end);
+
+    /// <summary>The stages of a single-supply design that need a bias level (empty for a split supply).</summary>
+    public IReadOnlyList<SingleSupplyBias> SingleSupplyStages => singleSupply ??= SingleSupply.Compute(this);
+
+    /// <summary>The DC operating points with every amplifier's offset at nominal, +maximum and −maximum.</summary>
+    public OffsetShift.Corners OffsetCorners => offsetCorners ??= OffsetShift.Compute(this);
+
+    /// <summary>The AC sweep over the source's band with its band frequencies (null when it cannot be run).</summary>
+    public SmallSignal? SmallSignal => (smallSignal ??= new Lazy<SmallSignal?>(() => LoadingBandwidthStress.SmallSignal.Compute(this), LazyThreadSafetyMode.None)).Value;
+
+    /// <summary>The loading between stage <paramref name="stageIndex"/>'s output and what it drives.</summary>
+    public LoadingBandwidthStress.Loading? LoadingAt(int stageIndex) =>
+        loadings.TryGetValue(stageIndex, out var l) ? l : loadings[stageIndex] = SmallSignal?.ComputeLoading(this, stageIndex);
+
+    /// <summary>The output current each amplifier is asked for in the transient at <paramref name="end"/>, by element id.</summary>
+    public IReadOnlyDictionary<string, AmplifierDemand> OutputCurrentDemand(BandEnd end) =>
+        demands.TryGetValue(end, out var d) ? d : demands[end] = LoadingBandwidthStress.OutputCurrentDemand.Compute(this, end);
+
+    /// <summary>
+    /// The chain and its settled transient at each resistor-tolerance corner and band end (<see cref="ToleranceCorners"/>),
+    /// for the rules that judge a figure at its worst corner; none for a DC source or a chain without tolerances.
+    /// </summary>
+    public IReadOnlyList<CornerRun> CornerRuns => cornerRuns ??= ToleranceCorners.Compute(this);
+
+    /// <summary>The amplifier waveforms measured in every corner run (<see cref="CornerRuns"/>).</summary>
+    public IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)> CornerWaveforms => cornerWaveforms ??= AmplifierWaveforms.AtCorners(this);
+
+    /// <summary>The output current each amplifier is asked for in every corner run, by element id.</summary>
+    public IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)> CornerDemands =>
+        cornerDemands ??= LoadingBandwidthStress.OutputCurrentDemand.AtCorners(this);
+
+    /// <summary>The peak stages whose hold capacitor is still filling in the measured periods, by stage id.</summary>
+    public IReadOnlyDictionary<string, FillingHold> FillingHolds => fillingHolds ??= HoldFilling.Compute(this);
+
+    /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
+    public IReadOnlyList<StageProbe> Stages
+    {
+        get
+        {
+            var chain = Chain(BandEnd.Top);
+            return chain.Succeeded ? chain.Stages : [];
+        }
+    }
+
+    /// <summary>
+    /// The extreme-value worst case of a stage's DC transfer. Its <see cref="WorstCaseAnalysis.Circuit"/> is the stage's
+    /// chain compiled once: <c>Circuit.Measure(variation)</c> solves any further corner warm.
+    /// </summary>
+    public WorstCaseAnalysis WorstCase(StageProbe stage) =>
+        worstCases.TryGetValue(stage.StageId, out var w) ? w
+        : worstCases[stage.StageId] = WorstCaseAnalysis.Run(Design, Chain(BandEnd.Top), stage, HoldDeviation(stage));
+
+    /// <summary>The seeded Monte Carlo of a stage's DC transfer with the rule-set's settings.</summary>
+    public MonteCarloYield MonteCarloOf(StageProbe stage) =>
+        monteCarlos.TryGetValue(stage.StageId, out var m) ? m
+        : monteCarlos[stage.StageId] = MonteCarloYield.Run(WorstCase(stage), MonteCarlo);
+
+    /// <summary>The band ends a time-domain rule should look at: both ends of a band, or the single frequency once.</summary>
+    public IReadOnlyList<BandEnd> BandEnds =>
+        Design.Source.Waveform.Band is not null ? [BandEnd.Top, BandEnd.Bottom] : [BandEnd.Top];
+
+    /// <summary>True when the source is periodic, so transient rules apply.</summary>
+    public bool IsPeriodic => RawChain(BandEnd.Top).Period is not null;
+
+    /// <summary>
+    /// The chain at a band end. For a periodic source its <see cref="ElaboratedChain.Window"/> is the window of settled
+    /// periods of <see cref="Transient"/> (the transient runs first), so every rule measures the steady state.
+    /// </summary>
+    public ElaboratedChain Chain(BandEnd end)
+    {
+        var raw = RawChain(end);
+        if (raw.Period is null || !raw.Succeeded)
+        {
+            return raw;
+        }
+
+        var steady = Steady(end);
+        return raw.Window == steady.Window ? raw : settledChains.TryGetValue(end, out var c) ? c : settledChains[end] = raw with { Window = steady.Window };
+    }
+
+    /// <summary>The transient at a band end, run until its periodic steady state (see <see cref="Steady"/>).</summary>
+    public TransientResult Transient(BandEnd end) => Steady(end).Result;
+
+    /// <summary>The transient at a band end with its settling verdict: run until successive periods agree, or a limit is hit.</summary>
+    public SettledTransient Steady(BandEnd end)
+    {
+        if (!transients.TryGetValue(end, out var result))
+        {
+            result = PeriodicSteadyState.Run(RawChain(end), SteadyStateLimits.Default);
+            transients[end] = result;
+        }
+
+        return result;
+    }
+
+    private ElaboratedChain RawChain(BandEnd end)
+    {
+        if (!chains.TryGetValue(end, out var chain))
+        {
+            chain = ChainElaborator.Elaborate(Design, ElaborationOptions.Default with { BandEnd = end });
+            chains[end] = chain;
+        }
+
+        return chain;
+    }
+
+    public OperatingPointResult OperatingPoint()
+    {
+        var chain = RawChain(BandEnd.Top);
+        return operatingPoint ??= Simulate.OperatingPoint(chain.Circuit);
+    }
+
+    public AcResult Ac()
+    {
+        var chain = RawChain(BandEnd.Top);
+        return ac ??= Simulate.AcSweep(chain.Circuit, AcSweepPlan(chain));
+    }
+
+    /// <summary>
+    /// For a peak stage: the range of (held output − input peak) over the measured periods of the nominal transient at
+    /// each band end, V; null for other stages or when no transient could be run.
+    /// </summary>
+    private Interval? HoldDeviation(StageProbe stage)
+    {
+        if (TransferTarget.Of(stage).Kind != TransferKind.Peak || !IsPeriodic)
+        {
+            return null;
+        }
+
+        // A hold still filling is not drooping: DR305 reports it, and its held value is not judged as droop.
+        if (FillingHolds.ContainsKey(stage.StageId))
+        {
+            return null;
+        }
+
+        Interval? range = null;
+        foreach (var end in BandEnds)
+        {
+            var chain = Chain(end);
+            var result = Transient(end);
+            var probe = chain.Stage(stage.StageId);
+            if (!result.Succeeded || probe is null)
+            {
+                if (result.Failure is { } failure) ReportFailure("transient", failure, chain);
+                continue;
+            }
+
+            if (!IsSettled(end))
+            {
+                continue;
+            }
+
+            var time = result.Time;
+            var input = result.Voltage(probe.InputNode);
+            var output = result.Voltage(probe.OutputNode);
+            double peak = double.NegativeInfinity;
+            for (int i = 0; i < time.Count; i++) if (time[i] >= chain.Window.MeasureFrom) peak = Math.Max(peak, input[i]);
+            if (!double.IsFinite(peak)) continue;
+            for (int i = 0; i < time.Count; i++)
+            {
+                if (time[i] < chain.Window.MeasureFrom) continue;
+                double d = output[i] - peak;
+                range = range is { } r ? r.Include(d) : Interval.Point(d);
+            }
+        }
+
+        return range;
+    }
+
+    private static AcSweep AcSweepPlan(ElaboratedChain chain)
+    {
+        // The design's source carries a unit stimulus, so that every node voltage reads as its transfer from the source.
+        return Simulation.Analysis.AcSweep.Decades(chain.SourceId, 1, 100e6, 20);
+    }
+}
