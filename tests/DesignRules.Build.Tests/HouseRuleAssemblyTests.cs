@@ -21,6 +21,8 @@ public sealed class HouseRuleAssemblyTests
         {
             typeof(RuleCatalogue).Assembly, typeof(Circuit).Assembly, typeof(ChainElaborator).Assembly, typeof(DesignCheck).Assembly,
             typeof(DatasheetPages).Assembly, typeof(JsonReport).Assembly, typeof(CheckDesigns).Assembly, typeof(DesignRules.Run.DesignRun).Assembly,
+            // The figures layer has no public type; it ships beside the rules that use it.
+            Assembly.Load(new AssemblyName("DesignRules.Figures")),
         };
         // The command line is an application the tests run as a process; its assembly is read from the build output.
         if (File.Exists(TestPaths.CliAssembly))

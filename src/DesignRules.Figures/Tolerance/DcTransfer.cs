@@ -149,10 +149,19 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
             shift = y[1] - y[0];
         }
 
-        var clipped = new bool[outputs.Length];
+        return new DcTransfer(inputs, outputs, shift, null, chain) { Clipped = ClippedLevels(stage, sweep.Voltage, outputs.Length) };
+    }
+
+    /// <summary>
+    /// Per level: whether an amplifier of <paramref name="stage"/> sits within 2 % of the supply span of its swing limit,
+    /// read from the node voltages of a sweep of <paramref name="count"/> levels (see <see cref="Clipped"/>).
+    /// </summary>
+    internal static bool[] ClippedLevels(StageProbe stage, Func<string, double[]> voltage, int count)
+    {
+        var clipped = new bool[count];
         foreach (var amp in stage.Amplifiers)
         {
-            var v = sweep.Voltage(amp.OutputNode);
+            var v = voltage(amp.OutputNode);
             double span = amp.Rails.Positive - amp.Rails.Negative, near = 0.02 * span;
             double high = amp.Rails.Positive - amp.Part.OutputHeadroom.Positive.Value.Value;
             double low = amp.Rails.Negative + amp.Part.OutputHeadroom.Negative.Value.Value;
@@ -162,7 +171,7 @@ internal sealed record DcTransfer(double[] Inputs, double[] Outputs, double Comm
             }
         }
 
-        return new DcTransfer(inputs, outputs, shift, null, chain) { Clipped = clipped };
+        return clipped;
     }
 
     internal static DcTransfer Failed(ElaboratedChain chain, SimulationFailure failure) => new([], [], 0, failure, chain);

@@ -149,6 +149,7 @@ internal sealed class ToleranceCircuit
             shift = y[1] - y[0];
         }
 
-        return new DcTransfer(inputs, outputs, shift, null, Chain);
+        // The same clipping marks as a cold measurement, so the worst-case gain stays the corner's linear gain.
+        return new DcTransfer(inputs, outputs, shift, null, Chain) { Clipped = DcTransfer.ClippedLevels(stage, levels.Voltage, outputs.Length) };
     }
 }

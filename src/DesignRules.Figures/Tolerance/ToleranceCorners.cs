@@ -42,6 +42,13 @@ internal static class ToleranceCorners
             return [];
         }
 
+        // Corners only where the nominal transient settled at every band end: a nominal run that failed or did not
+        // settle is reported as such (DR920, DR925), and its corners would only repeat the same bounded failure.
+        if (analyses.BandEnds.Any(e => !analyses.Steady(e).Settled || !analyses.Steady(e).Result.Succeeded))
+        {
+            return [];
+        }
+
         var corners = Corners(analyses, nominal);
         var jobs = corners.SelectMany(c => analyses.BandEnds.Select(e => (Corner: c, End: e))).ToList();
         var baseline = analyses.BandEnds.ToDictionary(e => e, e => analyses.Chain(e).Options);

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Solutions of a DC sweep (one full unknown vector per swept value), kept so that a later solve of the same circuit with

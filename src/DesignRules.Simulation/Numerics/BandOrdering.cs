@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Numerics;
 
 /// <summary>
 /// A renumbering of the unknowns of a large system that gathers its non-zeros near the diagonal (reverse Cuthill–McKee,

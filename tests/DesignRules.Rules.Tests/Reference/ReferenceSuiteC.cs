@@ -258,6 +258,31 @@ public sealed class ReferenceSuiteC(ITestOutputHelper output)
         Assert.Contains("droop of hold capacitor chold", finding.Message, StringComparison.Ordinal);
     }
 
+    // ---- Common-mode range at the tolerance corners (point 1) ----
+
+    [Fact]
+    public void C21_a_follower_whose_input_passes_its_common_mode_range_only_at_the_high_gain_corner_before_it_fails_and_names_the_corner()
+    {
+        // The follower's input is the first stage's output: 1.05 V × (1 + rf/rg) (textbook non-inverting gain); at the
+        // gain-high corner 1 + 10.5k/0.95k = 12.05, so 1.05 V × 12.05 = 12.66 V against the +12 V end of the range
+        // (15 V rail less the part's 3 V input headroom): 0.66 V beyond. Nominal: 1.05 V × 11 = 11.55 V, inside.
+        double cornerGain = 1 + (10e3 * 1.05 / (1e3 * 0.95));
+        var report = Verify("reference/c/corner-common-mode-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR203");
+        Assert.Contains("at the gain-high corner [amp.rf +5 %, amp.rg −5 %]", finding.Message, StringComparison.Ordinal);
+        AssertNear(1.05 * cornerGain, Math.Abs(finding.Figures.Single(f => f.Key.Kind == FigureKinds.InputExtreme).Value));
+        AssertNear(12 - (1.05 * cornerGain), Figure(report, "buf", "input common-mode margin u1"));
+    }
+
+    [Fact]
+    public void C22_at_0_95_V_the_follower_keeps_its_common_mode_margin_at_the_high_gain_corner()
+    {
+        // 0.95 V × 12.05 = 11.45 V (textbook non-inverting gain at the corner): 12 V − 11.45 V = 0.55 V of room.
+        double cornerGain = 1 + (10e3 * 1.05 / (1e3 * 0.95));
+        var report = Verify("reference/c/corner-common-mode-passes.yaml");
+        AssertNear(12 - (0.95 * cornerGain), Figure(report, "buf", "input common-mode margin u1"));
+    }
+
     private CheckReport Verify(string fixture)
     {
         try
