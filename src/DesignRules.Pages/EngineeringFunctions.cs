@@ -36,6 +36,7 @@ internal static class EngineeringFunctions
             "1" or "" or null => Dimension.Ratio,
             "1/K" => Dimension.TemperatureCoefficient,
             "V/K" => Dimension.VoltageDrift,
+            "°C" => Dimension.Temperature,
             _ => null,
         };
         if (unit == "%")

@@ -25,6 +25,13 @@ internal sealed class WorstCaseTransferRule : Rule
             // An average is judged over time (ripple, settling), which this DC analysis does not see: no limit for it here.
             var transferError = FigureKinds.WorstCaseTransferError.Of(error);
             evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed && analysis.Target.Kind != TransferKind.Average ? transferError.AtMost(allowed) : transferError);
+            // With an operating range, the end (or middle) at which the error is worst: a finding names it.
+            var hot = analysis.WorstTemperatureOf(a => a.TransferError.Error);
+            if (hot is { } worstAt)
+            {
+                evaluation.Record(id, FigureKinds.WorstTemperature.Of("transfer", worstAt));
+            }
+
             if (analysis.Target.Kind != TransferKind.Average)
             {
                 evaluation.Judged(id, "accuracy", Id);
@@ -61,7 +68,7 @@ internal sealed class WorstCaseTransferRule : Rule
             {
                 ["stage"] = id,
                 ["error"] = Say.Percent(error),
-                ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
+                ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}") + ToleranceAnalyses.AtTemperature(hot),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
             }, [FigureKinds.WorstCaseTransferError.Of(error), FigureKinds.Accuracy.Of(accuracy),
