@@ -1,4 +1,6 @@
+using DesignRules.Diagnostics;
 using DesignRules.Loading;
+using DesignRules.Model;
 using DesignRules.Quantities;
 
 namespace DesignRules.Rules.Tests.Tolerance;
