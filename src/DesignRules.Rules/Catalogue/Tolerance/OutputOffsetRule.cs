@@ -22,9 +22,9 @@ internal sealed class OutputOffsetRule : Rule
             if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
             double offset = analysis.OutputOffset;
             if (double.IsNaN(offset)) continue;
-            var figure = FigureKinds.OutputOffset.Of(offset);
-            evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
             var hot = analysis.WorstTemperatureOf(a => a.OutputOffset);
+            var figure = FigureKinds.OutputOffset.Of(offset).AtTemperature(hot);
+            evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
             if (hot is { } worstAt)
             {
                 evaluation.Record(id, FigureKinds.WorstTemperature.Of("offset", worstAt));
@@ -50,7 +50,7 @@ internal sealed class OutputOffsetRule : Rule
                 ["offset"] = Say.Volts(offset),
                 ["limit"] = Say.Volts(required.Value.Value),
                 ["cause"] = (dominant is null ? "the nominal circuit" : dominant.What) + ToleranceAnalyses.AtTemperature(hot),
-            }, FigureKinds.OutputOffset.Of(offset), FigureKinds.AllowedOutputOffset.Of(required.Value.Value));
+            }, FigureKinds.OutputOffset.Of(offset).AtTemperature(hot), FigureKinds.AllowedOutputOffset.Of(required.Value.Value));
         }
     }
 }

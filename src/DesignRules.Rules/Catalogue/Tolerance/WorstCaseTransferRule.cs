@@ -23,8 +23,6 @@ internal sealed class WorstCaseTransferRule : Rule
             var (error, level) = analysis.TransferError;
             if (double.IsNaN(error)) continue;
             // An average is judged over time (ripple, settling), which this DC analysis does not see: no limit for it here.
-            var transferError = FigureKinds.WorstCaseTransferError.Of(error);
-            evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed && analysis.Target.Kind != TransferKind.Average ? transferError.AtMost(allowed) : transferError);
             // With an operating range, the end (or middle) at which the error is worst: a finding names it.
             var hot = analysis.WorstTemperatureOf(a => a.TransferError.Error);
             if (hot is { } worstAt)
@@ -32,6 +30,8 @@ internal sealed class WorstCaseTransferRule : Rule
                 evaluation.Record(id, FigureKinds.WorstTemperature.Of("transfer", worstAt));
             }
 
+            var transferError = FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot);
+            evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed && analysis.Target.Kind != TransferKind.Average ? transferError.AtMost(allowed) : transferError);
             if (analysis.Target.Kind != TransferKind.Average)
             {
                 evaluation.Judged(id, "accuracy", Id);
@@ -71,7 +71,7 @@ internal sealed class WorstCaseTransferRule : Rule
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}") + ToleranceAnalyses.AtTemperature(hot),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, [FigureKinds.WorstCaseTransferError.Of(error), FigureKinds.Accuracy.Of(accuracy),
+            }, [FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot), FigureKinds.Accuracy.Of(accuracy),
                 .. analysis.Metric.Dynamic is { } held ? [FigureKinds.HoldDroop.Of(held.High - held.Low)] : Array.Empty<Figure>()]);
         }
     }
