@@ -64,6 +64,7 @@ public sealed class OperatingTemperatureTests
 
     [Theory]
     [InlineData("temperature: 85 °C..-40 °C", "runs backwards")]
+    [InlineData("temperature: -40 °C", "-40 °C..85 °C")]
     [InlineData("temperature: -40 °C..85 V", "temperature")]
     [InlineData("temperature: -400 °C..85 °C", "-100 °C..250 °C")]
     public void A_malformed_or_reversed_range_gets_a_located_diagnostic_with_a_hint(string line, string hint)
