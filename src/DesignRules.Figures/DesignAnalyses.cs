@@ -132,7 +132,9 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>
     /// The extreme-value worst case of a stage's DC transfer. Its <see cref="WorstCaseAnalysis.Circuit"/> is the stage's
-    /// chain compiled once: <c>Circuit.Measure(variation)</c> solves any further corner warm.
+    /// chain compiled once: <c>Circuit.Measure(variation)</c> solves any further corner warm. Where the design declares an
+    /// operating range it is the temperature worst case too: the same analysis at the range's low end, middle and high end
+    /// on that one circuit (<see cref="WorstCaseAnalysis.AtTemperatures"/>), combined, shared by every rule that asks.
     /// </summary>
     public WorstCaseAnalysis WorstCase(StageProbe stage) =>
         worstCases.TryGetValue(stage.StageId, out var w) ? w

@@ -35,6 +35,8 @@ internal static class EngineeringFunctions
             "V/s" => Dimension.SlewRate,
             "1" or "" or null => Dimension.Ratio,
             "1/K" => Dimension.TemperatureCoefficient,
+            "V/K" => Dimension.VoltageDrift,
+            "°C" => Dimension.Temperature,
             _ => null,
         };
         if (unit == "%")

@@ -162,7 +162,7 @@ internal static class PageModel
             figures.Add(new ScriptObject
             {
                 ["key"] = figure.Key.ToString(), ["name"] = figure.Name, ["value"] = figure.Value, ["unit"] = figure.Unit,
-                ["limit"] = figure.Limit, ["margin"] = figure.Margin,
+                ["limit"] = figure.Limit, ["margin"] = figure.Margin, ["temperature"] = figure.Temperature,
             });
         }
 
@@ -176,6 +176,8 @@ internal static class PageModel
             ["parts"] = parts,
             ["values"] = values,
             ["figures"] = figures,
+            // A temperature column only where the design declares an operating range, so pages of 25 °C designs keep their shape.
+            ["temperature_column"] = (summary.StageFigures.FirstOrDefault(s => s.Key == stage.Id.Value).Value ?? []).Any(f => f.Temperature is not null),
             ["findings"] = Findings(findings.Where(f => f.StageId == stage.Id.Value), helpLink),
             ["transient_plot"] = plots?.Transient is null ? null : Link(plotPath(stage.Id.Value, "transient")),
             ["bode_plot"] = plots?.Bode is null ? null : Link(plotPath(stage.Id.Value, "response")),

@@ -220,7 +220,7 @@ public static class JsonReport
     }
 
     /// <summary>
-    /// Writes <c>"figures": [{ "key", "name", "value", "unit", "limit"?, "margin"? }]</c> in the given order: the stable key
+    /// Writes <c>"figures": [{ "key", "name", "value", "unit", "limit"?, "margin"?, "temperature"? }]</c> in the given order: the stable key
     /// (<c>slew.demand@rect.u1.out</c>) to match on, the label for people; limit and margin only where a rule judged the figure.
     /// </summary>
     internal static void WriteFigures(Utf8JsonWriter w, IReadOnlyList<Figure> figures)
@@ -237,6 +237,11 @@ public static class JsonReport
             {
                 ReportJson.Number(w, "limit", limit);
                 ReportJson.Number(w, "margin", figure.Margin ?? double.NaN);
+            }
+
+            if (figure.Temperature is { } celsius)
+            {
+                ReportJson.Number(w, "temperature", celsius);
             }
 
             w.WriteEndObject();

@@ -145,6 +145,15 @@ public static class FigureKinds
     /// <summary>The output offset allowed. <c>tolerance.output-offset.allowed</c></summary>
     public static readonly FigureKind AllowedOutputOffset = new("tolerance.output-offset.allowed", "V", "allowed output offset");
 
+    /// <summary>
+    /// The temperature (°C) of the design's operating range at which a worst-case figure is worst (the subject names the
+    /// figure: <c>transfer</c>, <c>offset</c>). <c>temperature.worst-end@transfer</c>
+    /// </summary>
+    public static readonly FigureKind WorstTemperature = new("temperature.worst-end", "°C", "worst-case temperature of the {0}");
+
+    /// <summary>How much the amplifiers' offset drift moves the output offset at the worst end of the range. <c>temperature.offset-drift</c></summary>
+    public static readonly FigureKind OffsetDrift = new("temperature.offset-drift", "V", "output offset drift over temperature");
+
     /// <summary>Lowest common-mode rejection over the corners. <c>tolerance.cmrr</c></summary>
     public static readonly FigureKind CommonModeRejection = new("tolerance.cmrr", "1", "worst-case common-mode rejection");
 

@@ -52,6 +52,15 @@ public sealed record Figure(FigureKey Key, double Value)
     /// <summary>How far the figure is inside its limit, in the same unit (negative: the limit is exceeded); null without a limit.</summary>
     public double? Margin { get; init; }
 
+    /// <summary>
+    /// Where the design declares an operating range: the temperature (°C) at which this worst-case figure is taken, the
+    /// end (or middle) of the range where it is worst; null when taken at 25 °C only.
+    /// </summary>
+    public double? Temperature { get; init; }
+
+    /// <summary>The figure taken at <paramref name="celsius"/> (null: at 25 °C only, no range declared).</summary>
+    public Figure AtTemperature(double? celsius) => this with { Temperature = celsius };
+
     /// <summary>The figure judged against an upper limit (it must not exceed <paramref name="limit"/>).</summary>
     public Figure AtMost(double limit) => this with { Limit = limit, Margin = limit - Value };
 

@@ -13,7 +13,7 @@ namespace DesignRules.Run;
 internal static class ResultCodec
 {
     /// <summary>The version of this encoding, part of every entry's key.</summary>
-    public const int FormatVersion = 2;
+    public const int FormatVersion = 3;
 
     private static readonly JsonSerializerOptions Options = new()
     {
@@ -69,7 +69,7 @@ internal static class ResultCodec
         string RuleId, string Title, int Severity, string Message, string File, int Line, int Column, int EndLine, int EndColumn,
         string HelpPage, string? DesignId, string? StageId, string? Waiver, List<StoredFigure> Figures);
 
-    internal sealed record StoredFigure(string Kind, string? Subject, double Value, double? Limit, double? Margin);
+    internal sealed record StoredFigure(string Kind, string? Subject, double Value, double? Limit, double? Margin, double? Temperature = null);
 
     private static class FindingCodec
     {
@@ -88,7 +88,7 @@ internal static class ResultCodec
     {
         private static readonly Dictionary<string, FigureKind> Kinds = FigureKinds.All.ToDictionary(k => k.Name, StringComparer.Ordinal);
 
-        public static StoredFigure ToStored(Figure f) => new(f.Key.Kind.Name, f.Key.Subject, f.Value, f.Limit, f.Margin);
+        public static StoredFigure ToStored(Figure f) => new(f.Key.Kind.Name, f.Key.Subject, f.Value, f.Limit, f.Margin, f.Temperature);
 
         // A kind this version does not know makes the entry foreign: it is re-evaluated, never guessed.
         public static Figure FromStored(StoredFigure s) =>
@@ -96,6 +96,7 @@ internal static class ResultCodec
             {
                 Limit = s.Limit,
                 Margin = s.Margin,
+                Temperature = s.Temperature,
             };
     }
 }

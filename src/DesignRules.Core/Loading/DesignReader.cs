@@ -64,6 +64,7 @@ internal static class DesignReader
         var requirements = ReadRequirements(root.Child("requires", "the design's requirements", false, string.Empty), root.Span);
         var waivers = ReadWaivers(root, stages);
         var hazards = ReadHazards(root);
+        var temperature = root.Range("temperature", Dimension.Temperature, required: false, OperatingRange);
         root.Finish();
 
         if (id is null || supplies is null || source is null || load is null || stages is null)
@@ -76,8 +77,15 @@ internal static class DesignReader
         {
             Hazards = hazards,
             CapacitorESeries = capacitorSeries is null ? null : new Located<string>(capacitorSeries.Value, capacitorSeries.Span),
+            Temperature = temperature,
         };
     }
+
+    /// <summary>An operating range lies between −100 °C and 250 °C, beyond what any signal-chain part is rated for.</summary>
+    private static string? OperatingRange(QuantityRange r) =>
+        r.Low.Value < -100 || r.High.Value > 250
+            ? "an operating temperature range lies within -100 °C..250 °C, e.g. temperature: -40 °C..85 °C"
+            : null;
 
     /// <summary>
     /// <c>hazards: [mains]</c>, or the long form <c>hazards: { kinds: [mains], note: ... }</c>; unknown kinds are

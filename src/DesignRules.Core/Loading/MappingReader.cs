@@ -154,7 +154,9 @@ internal sealed partial class MappingReader
 
     public Located<QuantityRange>? Range(string key, Dimension dimension, bool required, Func<QuantityRange, string?>? check = null)
     {
-        var s = Scalar(key, required, "a range such as 20 Hz..20 kHz");
+        // The example a hint gives follows the dimension asked for.
+        string example = dimension == Dimension.Temperature ? "a range such as -40 °C..85 °C" : "a range such as 20 Hz..20 kHz";
+        var s = Scalar(key, required, example);
         if (s is null)
         {
             return null;
@@ -163,8 +165,8 @@ internal sealed partial class MappingReader
         if (!QuantityRange.TryParse(s.Value, dimension, out var r, out var error))
         {
             diagnostics.Add(error?.Kind == QuantityErrorKind.WrongDimension
-                ? DesignFileDiagnostics.WrongUnit.At(s.Span, s.Value, key, error.Message.TrimEnd('.'), "a range such as 20 Hz..20 kHz")
-                : DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, (error?.Message.TrimEnd('.') ?? "unreadable") + "; expected a range such as 20 Hz..20 kHz"));
+                ? DesignFileDiagnostics.WrongUnit.At(s.Span, s.Value, key, error.Message.TrimEnd('.'), example)
+                : DesignFileDiagnostics.MalformedValue.At(s.Span, s.Value, key, (error?.Message.TrimEnd('.') ?? "unreadable") + "; expected " + example));
             return null;
         }
 

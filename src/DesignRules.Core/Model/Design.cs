@@ -35,6 +35,12 @@ public sealed record Design(
 
     /// <summary>The preferred-value series capacitors must come from, if declared (e.g. "E12"); capacitors have their own, coarser series.</summary>
     public Located<string>? CapacitorESeries { get; init; }
+
+    /// <summary>
+    /// The operating temperature range (°C) the design must meet its requirements over, if declared; null means 25 °C
+    /// only, the temperature parts files state their figures at.
+    /// </summary>
+    public Located<QuantityRange>? Temperature { get; init; }
 }
 
 /// <summary>The supply rails. A single-supply design has a negative rail of 0 V.</summary>

@@ -65,6 +65,18 @@ public sealed record AmplifierPart(
     /// offset budget takes the two bias currents as equal.
     /// </summary>
     public TypicalAndMaximum? OffsetCurrent { get; init; }
+
+    /// <summary>
+    /// Largest drift of the input offset voltage with temperature (V/K, written µV/°C), if the part states it; without
+    /// it the offset is taken as constant over the design's temperature range, and the temperature analysis says so.
+    /// </summary>
+    public Located<Quantity>? OffsetDrift { get; init; }
+
+    /// <summary>
+    /// The temperature rise over which the input bias current doubles (JFET and CMOS inputs: about every 10 °C, common
+    /// practice), if the part states it; without it the bias current is taken as constant with temperature.
+    /// </summary>
+    public Located<Quantity>? BiasDoubling { get; init; }
 }
 
 /// <summary>A diode class or part. Either a saturation current and emission coefficient or a forward-voltage point is given.</summary>

@@ -29,4 +29,6 @@ public enum Dimension
     TemperatureCoefficient,
     /// <summary>Volt per root hertz (written nV/√Hz by people).</summary>
     VoltageNoiseDensity,
+    /// <summary>Volt per kelvin: a voltage's drift with temperature (written µV/°C by people).</summary>
+    VoltageDrift,
 }

@@ -24,6 +24,7 @@ internal static class QuantityFormatter
             Dimension.SlewRate => Plain(v, digits, -6) + " V/µs",
             Dimension.TemperatureCoefficient => Plain(v, digits, 6) + " ppm/°C",
             Dimension.VoltageNoiseDensity => Plain(v, digits, 9) + " nV/√Hz",
+            Dimension.VoltageDrift => Plain(v, digits, 6) + " µV/°C",
             _ => Engineering(v, digits, UnitSymbol(q.Dimension)),
         };
     }

@@ -48,7 +48,10 @@ internal static class UnitSpellings
             units[celsius] = new(Dimension.Temperature, 0, false);
             units["ppm/" + celsius] = new(Dimension.TemperatureCoefficient, -6, false);
             units["/" + celsius] = new(Dimension.TemperatureCoefficient, 0, true);
+            units["V/" + celsius] = new(Dimension.VoltageDrift, 0, true);
         }
+
+        units["V/K"] = new(Dimension.VoltageDrift, 0, true);
         units["ppm/K"] = new(Dimension.TemperatureCoefficient, -6, false);
         units["/K"] = new(Dimension.TemperatureCoefficient, 0, true);
         return units;

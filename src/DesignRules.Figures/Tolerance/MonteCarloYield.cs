@@ -65,7 +65,8 @@ internal static class SampleDraws
 /// offset voltage and bias current (u·maximum) and each diode's forward-voltage shift (u·spread), with u from the
 /// rule-set's distribution (a normal with the extremes at ±3σ, truncated there, by default), sets them in the stage's
 /// compiled chain (<see cref="ToleranceCircuit"/>, warm-started from the nominal solution) and measures the stage's transfer error. Samples run in parallel on every core; each sample's numbers depend only on the
-/// seed, the stage and its index, so results are identical whatever the thread count.
+/// seed, the stage and its index, so results are identical whatever the thread count. Where the design declares an
+/// operating temperature range, each sample also draws its temperature uniformly over it (see <see cref="TemperatureBehaviour"/>).
 /// </summary>
 /// <param name="Samples">Sample count.</param>
 /// <param name="Seed">Seed.</param>
@@ -114,6 +115,14 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
             {
                 if (variables.Amplifiers[k].MaximumOffsetCurrent > 0) v.OffsetCurrents[k] = SampleDraws.Unit(random, settings.Distribution);
             }
+
+            // With a declared operating range the temperature is drawn uniformly over it, last, so that designs without
+            // one keep their samples.
+            if (worstCase.TemperatureRange is { } range)
+            {
+                v = v with { Temperature = range.Low + ((range.High - range.Low) * random.NextDouble()) };
+            }
+
             var transfer = worstCase.Circuit.Measure(v);
             if (!transfer.Succeeded)
             {

@@ -109,22 +109,24 @@ internal sealed class ToleranceCircuit
         for (int i = 0; i < resistors.Count; i++)
         {
             var r = resistors[i];
-            solver.SetResistance(r.ElementId, r.Tolerance > 0 && v.Resistors[i] != 0 ? r.Nominal * (1 + (v.Resistors[i] * r.Tolerance)) : r.Nominal);
+            solver.SetResistance(r.ElementId, r.Tolerance > 0 && v.Resistors[i] != 0 ? r.Nominal * (1 + (v.Resistors[i] * TemperatureBehaviour.ResistorSpread(r, v.Temperature))) : r.Nominal);
         }
 
         var amplifiers = Variables.Amplifiers;
         for (int i = 0; i < amplifiers.Count; i++)
         {
             var a = amplifiers[i];
-            double ib = v.Biases[i] * a.MaximumBias;
-            double ios = v.OffsetCurrents[i] * a.MaximumOffsetCurrent;
-            solver.SetAmplifierInputs(a.ElementId, v.Offsets[i] * a.MaximumOffset, ib + (ios / 2), ib - (ios / 2));
+            double growth = TemperatureBehaviour.BiasGrowth(a, v.Temperature);
+            double ib = v.Biases[i] * a.MaximumBias * growth;
+            double ios = v.OffsetCurrents[i] * a.MaximumOffsetCurrent * growth;
+            solver.SetAmplifierInputs(a.ElementId, v.Offsets[i] * TemperatureBehaviour.Offset(a, v.Temperature), ib + (ios / 2), ib - (ios / 2));
         }
 
         var diodes = Variables.Diodes;
         for (int i = 0; i < diodes.Count; i++)
         {
-            double scale = v.Diodes[i] != 0 ? DiodeSpread.SaturationScale(diodes[i], v.Diodes[i] * DiodeSpread.ForwardVoltage) : 1;
+            double shift = (v.Diodes[i] * DiodeSpread.ForwardVoltage) + TemperatureBehaviour.DiodeShift(v.Temperature);
+            double scale = shift != 0 ? DiodeSpread.SaturationScale(diodes[i], shift) : 1;
             solver.SetDiodeSaturationCurrent(diodes[i].ElementId, diodeSaturation[i] * scale);
         }
     }

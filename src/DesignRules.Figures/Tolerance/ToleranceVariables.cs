@@ -10,7 +10,8 @@ namespace DesignRules.Figures.Tolerance;
 /// <param name="Nominal">Nominal value, Ω.</param>
 /// <param name="Tolerance">Its family's tolerance as a ratio (0 when it has no family: treated as exact).</param>
 /// <param name="Span">Where the value is written.</param>
-internal sealed record ResistorVariable(string ElementId, string Name, double Nominal, double Tolerance, SourceSpan Span);
+/// <param name="Tempco">Its family's temperature coefficient magnitude, 1/K (0 without a family).</param>
+internal sealed record ResistorVariable(string ElementId, string Name, double Nominal, double Tolerance, SourceSpan Span, double Tempco = 0);
 
 /// <summary>An amplifier whose input offset voltage and bias currents may reach the part's maxima, either sign.</summary>
 /// <param name="ElementId">Engine element id (<c>stage.u1</c>).</param>
@@ -20,7 +21,9 @@ internal sealed record ResistorVariable(string ElementId, string Name, double No
 /// The part's maximum input offset current (|Ib+ − Ib−|), A; 0 when the part states none, so that the two inputs' bias
 /// currents are taken as equal.
 /// </param>
-internal sealed record AmplifierVariable(string ElementId, double MaximumOffset, double MaximumBias, double MaximumOffsetCurrent);
+/// <param name="Drift">The part's largest offset drift, V/K (0 when it states none).</param>
+/// <param name="Doubling">The temperature rise over which its bias current doubles, K (0 when it states none: constant).</param>
+internal sealed record AmplifierVariable(string ElementId, double MaximumOffset, double MaximumBias, double MaximumOffsetCurrent, double Drift = 0, double Doubling = 0);
 
 /// <summary>A diode whose forward voltage may lie anywhere in the nominal ± <see cref="DiodeSpread.ForwardVoltage"/>.</summary>
 /// <param name="ElementId">Engine element id (<c>stage.d1</c>).</param>
@@ -43,6 +46,31 @@ internal static class DiodeSpread
 }
 
 /// <summary>
+/// How the variables' extremes move with temperature (°C). Parts state their figures at 25 °C. A resistor's tempco is a
+/// ± spread like its tolerance, so the extreme at T is t + |α|·|T − 25 °C| (the extreme-value treatment of a tempco);
+/// an amplifier's offset extreme grows by its drift, Vos,max + TCVos·|T − 25 °C| (the standard offset/drift relation);
+/// its bias currents scale by 2^((T − 25 °C)/doubling) where the part states a doubling interval (JFET and CMOS inputs:
+/// about 10 °C, common practice); a diode's forward voltage moves by about −2 mV/°C (common practice for silicon
+/// junctions at a fixed current), whatever its spread.
+/// </summary>
+internal static class TemperatureBehaviour
+{
+    /// <summary>The temperature parts files state their figures at, °C.</summary>
+    public const double Reference = 25;
+
+    /// <summary>Diode forward-voltage coefficient at a fixed current, V/K (common practice: about −2 mV/°C).</summary>
+    public const double DiodeForwardVoltageCoefficient = -2e-3;
+
+    public static double ResistorSpread(ResistorVariable r, double celsius) => r.Tolerance + (r.Tempco * Math.Abs(celsius - Reference));
+
+    public static double Offset(AmplifierVariable a, double celsius) => a.MaximumOffset + (a.Drift * Math.Abs(celsius - Reference));
+
+    public static double BiasGrowth(AmplifierVariable a, double celsius) => a.Doubling > 0 ? Math.Pow(2, (celsius - Reference) / a.Doubling) : 1;
+
+    public static double DiodeShift(double celsius) => DiodeForwardVoltageCoefficient * (celsius - Reference);
+}
+
+/// <summary>
 /// One assignment of every variable of a stage: each a signed fraction of its extreme (−1 … +1): a resistor at
 /// nominal·(1 + u·t), an offset at u·Vos,max, bias currents u·Ib,max into both inputs, an offset current w·Ios,max split
 /// between them (Ib+ = Ib + w·Ios/2, Ib− = Ib − w·Ios/2), a diode at Vf + u·spread.
@@ -55,6 +83,9 @@ internal sealed record Variation(double[] Resistors, double[] Offsets, double[] 
 {
     /// <summary>Per amplifier variable: the signed fraction of its maximum offset current (all 0 unless set).</summary>
     public required double[] OffsetCurrents { get; init; }
+
+    /// <summary>The temperature the variables' extremes are taken at, °C (see <see cref="TemperatureBehaviour"/>).</summary>
+    public double Temperature { get; init; } = TemperatureBehaviour.Reference;
 }
 
 /// <summary>
@@ -70,18 +101,35 @@ internal sealed class ToleranceVariables
         Resistors = stage.Components
             .Where(c => c.Kind == DesignRules.Model.ElementKind.Resistor)
             .OrderBy(c => c.ElementId, StringComparer.Ordinal)
-            .Select(c => new ResistorVariable(c.ElementId, c.Name, c.NominalValue, Math.Abs(c.ResistorFamily?.Tolerance.Value.Value ?? 0), c.Span))
+            .Select(c => new ResistorVariable(c.ElementId, c.Name, c.NominalValue, Math.Abs(c.ResistorFamily?.Tolerance.Value.Value ?? 0), c.Span,
+                Math.Abs(c.ResistorFamily?.Tempco.Value.Value ?? 0)))
             .ToArray();
         Amplifiers = stage.Amplifiers.OrderBy(a => a.ElementId, StringComparer.Ordinal)
             .Select(a => new AmplifierVariable(a.ElementId, Math.Abs(a.Part.OffsetVoltage.Maximum.Value.Value), Math.Abs(a.Part.BiasCurrent.Maximum.Value.Value),
-                Math.Abs(a.Part.OffsetCurrent?.Maximum.Value.Value ?? 0)))
+                Math.Abs(a.Part.OffsetCurrent?.Maximum.Value.Value ?? 0), Math.Abs(a.Part.OffsetDrift?.Value.Value ?? 0),
+                a.Part.BiasDoubling?.Value.Value ?? 0))
             .ToArray();
         Diodes = stage.Diodes.OrderBy(d => d.ElementId, StringComparer.Ordinal)
             .Select(d => new DiodeVariable(d.ElementId, d.Model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature)))
             .ToArray();
     }
 
+    private ToleranceVariables(ToleranceVariables other, double celsius)
+    {
+        Stage = other.Stage;
+        Resistors = other.Resistors;
+        Amplifiers = other.Amplifiers;
+        Diodes = other.Diodes;
+        Temperature = celsius;
+    }
+
     public StageProbe Stage { get; }
+
+    /// <summary>The temperature <see cref="Nominal"/> is taken at, °C.</summary>
+    public double Temperature { get; } = TemperatureBehaviour.Reference;
+
+    /// <summary>The same variables with their extremes taken at <paramref name="celsius"/>.</summary>
+    public ToleranceVariables At(double celsius) => new(this, celsius);
 
     public IReadOnlyList<ResistorVariable> Resistors { get; }
 
@@ -96,6 +144,7 @@ internal sealed class ToleranceVariables
     public Variation Nominal => new(new double[Resistors.Count], new double[Amplifiers.Count], new double[Amplifiers.Count], new double[Diodes.Count])
     {
         OffsetCurrents = new double[Amplifiers.Count],
+        Temperature = Temperature,
     };
 
     public static ToleranceVariables Of(StageProbe stage, ElaborationOptions options) => new(stage, options.Temperature);
@@ -108,7 +157,7 @@ internal sealed class ToleranceVariables
         {
             if (Resistors[i].Tolerance > 0 && v.Resistors[i] != 0)
             {
-                values[Resistors[i].ElementId] = Resistors[i].Nominal * (1 + (v.Resistors[i] * Resistors[i].Tolerance));
+                values[Resistors[i].ElementId] = Resistors[i].Nominal * (1 + (v.Resistors[i] * TemperatureBehaviour.ResistorSpread(Resistors[i], v.Temperature)));
             }
         }
 
@@ -116,18 +165,20 @@ internal sealed class ToleranceVariables
         var biases = new Dictionary<string, BiasCurrents>(StringComparer.Ordinal);
         for (int i = 0; i < Amplifiers.Count; i++)
         {
-            offsets[Amplifiers[i].ElementId] = v.Offsets[i] * Amplifiers[i].MaximumOffset;
-            double ib = v.Biases[i] * Amplifiers[i].MaximumBias;
-            double ios = v.OffsetCurrents[i] * Amplifiers[i].MaximumOffsetCurrent;
+            offsets[Amplifiers[i].ElementId] = v.Offsets[i] * TemperatureBehaviour.Offset(Amplifiers[i], v.Temperature);
+            double growth = TemperatureBehaviour.BiasGrowth(Amplifiers[i], v.Temperature);
+            double ib = v.Biases[i] * Amplifiers[i].MaximumBias * growth;
+            double ios = v.OffsetCurrents[i] * Amplifiers[i].MaximumOffsetCurrent * growth;
             biases[Amplifiers[i].ElementId] = new BiasCurrents(ib + (ios / 2), ib - (ios / 2));
         }
 
         var diodes = new Dictionary<string, double>(StringComparer.Ordinal);
         for (int i = 0; i < Diodes.Count; i++)
         {
-            if (v.Diodes[i] != 0)
+            double shift = (v.Diodes[i] * DiodeSpread.ForwardVoltage) + TemperatureBehaviour.DiodeShift(v.Temperature);
+            if (shift != 0)
             {
-                diodes[Diodes[i].ElementId] = DiodeSpread.SaturationScale(Diodes[i], v.Diodes[i] * DiodeSpread.ForwardVoltage);
+                diodes[Diodes[i].ElementId] = DiodeSpread.SaturationScale(Diodes[i], shift);
             }
         }
 

@@ -115,13 +115,111 @@ internal sealed class WorstCaseAnalysis
         }
     }
 
-    /// <summary>Runs the analysis of one stage of the nominal chain.</summary>
+    /// <summary>
+    /// The temperature the figures are taken at, °C: the reference 25 °C without a declared range, else the end or middle
+    /// of the range where the worst transfer error occurs.
+    /// </summary>
+    public double Temperature { get; init; } = TemperatureBehaviour.Reference;
+
+    /// <summary>The design's operating range (°C) when it declares one; null for 25 °C only.</summary>
+    public (double Low, double High)? TemperatureRange { get; init; }
+
+    /// <summary>With a declared range: the analysis at its low end, middle and high end (in that order); else empty.</summary>
+    public IReadOnlyList<WorstCaseAnalysis> AtTemperatures { get; init; } = [];
+
+    /// <summary>
+    /// The temperature (°C) at which <paramref name="figure"/> is largest, or null without a declared range: the worst
+    /// end (or the middle) a finding names.
+    /// </summary>
+    public double? WorstTemperatureOf(Func<WorstCaseAnalysis, double> figure)
+    {
+        if (AtTemperatures.Count == 0) return null;
+        var worst = AtTemperatures.Where(a => !double.IsNaN(figure(a))).MaxBy(figure);
+        return worst?.Temperature;
+    }
+
+    /// <summary>
+    /// How much the amplifiers' offset drift moves the output offset at the worst end of the range, V: per amplifier, its
+    /// offset's change of the output at that temperature times the drift's share of its offset extreme there,
+    /// TCVos·|ΔT| / (Vos,max + TCVos·|ΔT|) — that is TCVos·|ΔT| times the offset's gain to the output (the noise gain).
+    /// 0 without a declared range or a stated drift.
+    /// </summary>
+    public double OffsetDrift => AtTemperatures.Count == 0 ? 0 : AtTemperatures.Max(a => a.OwnOffsetDrift());
+
+    private double OwnOffsetDrift()
+    {
+        double total = 0;
+        foreach (var s in Singles.Where(s => s.Amplifier >= 0 && s.Kind == "offset" && s.Minus is not null))
+        {
+            var a = Variables.Amplifiers[s.Amplifier];
+            double extreme = TemperatureBehaviour.Offset(a, Temperature);
+            if (!(extreme > 0)) continue;
+            double change = Math.Max(Math.Abs(s.Plus.Deviations[Plan.ZeroIndex] - Nominal.Deviations[Plan.ZeroIndex]),
+                Math.Abs(s.Minus!.Deviations[Plan.ZeroIndex] - Nominal.Deviations[Plan.ZeroIndex]));
+            total += change * (extreme - a.MaximumOffset) / extreme;
+        }
+
+        return total;
+    }
+
+    /// <summary>
+    /// Runs the analysis of one stage of the nominal chain: at 25 °C, or, where the design declares an operating range,
+    /// at its low end, middle and high end on the same compiled circuit, combined into one worst case.
+    /// </summary>
     public static WorstCaseAnalysis Run(Design design, ElaboratedChain nominalChain, StageProbe stage, Interval? dynamic, int maxDegreeOfParallelism = -1)
     {
         var baseline = nominalChain.Options;
         var variables = ToleranceVariables.Of(stage, baseline);
         var plan = TransferPlan.Of(nominalChain, stage);
         var target = TransferTarget.Of(stage);
+        var circuit = ToleranceCircuit.Of(design, baseline, variables, plan);
+        if (design.Temperature is not { } range)
+        {
+            return RunAt(stage, dynamic, variables, plan, target, circuit, maxDegreeOfParallelism);
+        }
+
+        double low = range.Value.Low.Value, high = range.Value.High.Value;
+        var runs = new[] { low, (low + high) / 2, high }
+            .Select(t => RunAt(stage, dynamic, variables.At(t), plan, target, circuit, maxDegreeOfParallelism)).ToArray();
+        return Combine(runs, (low, high));
+    }
+
+    /// <summary>
+    /// One analysis per temperature combined: the figures of the temperature with the worst transfer error (its
+    /// contributions explain a finding), every range widened to cover all temperatures.
+    /// </summary>
+    private static WorstCaseAnalysis Combine(WorstCaseAnalysis[] runs, (double Low, double High) range)
+    {
+        var basis = runs.Where(r => !double.IsNaN(r.TransferError.Error)).MaxBy(r => r.TransferError.Error) ?? runs[1];
+        var deviations = (Interval[])basis.Deviations.Clone();
+        var gain = basis.Gain;
+        var mismatch = basis.Mismatch;
+        var shift = basis.CommonModeShift;
+        foreach (var r in runs.Where(r => r.Failure is null && r.Deviations.Length == deviations.Length))
+        {
+            for (int i = 0; i < deviations.Length; i++) deviations[i] = deviations[i].Include(r.Deviations[i].Low).Include(r.Deviations[i].High);
+            gain = gain.Include(r.Gain.Low).Include(r.Gain.High);
+            mismatch = mismatch.Include(r.Mismatch.Low).Include(r.Mismatch.High);
+            shift = shift.Include(r.CommonModeShift.Low).Include(r.CommonModeShift.High);
+        }
+
+        var failed = runs.FirstOrDefault(r => r.Failure is not null);
+        return new WorstCaseAnalysis
+        {
+            Stage = basis.Stage, Variables = basis.Variables, Plan = basis.Plan, Circuit = basis.Circuit, Target = basis.Target,
+            Metric = basis.Metric, Nominal = basis.Nominal, Deviations = deviations, Gain = gain, Mismatch = mismatch,
+            CommonModeShift = shift, WorstCommonModeRejection = runs.Min(r => r.WorstCommonModeRejection),
+            Corners = runs.Sum(r => r.Corners), BySensitivity = basis.BySensitivity, Singles = basis.Singles,
+            CrossTerm = runs.Max(r => r.CrossTerm), Failure = failed?.Failure, FailedChain = failed?.FailedChain,
+            Temperature = basis.Temperature, TemperatureRange = range, AtTemperatures = runs,
+        };
+    }
+
+    /// <summary>The analysis with every variable's extreme taken at <paramref name="variables"/>' temperature.</summary>
+    private static WorstCaseAnalysis RunAt(
+        StageProbe stage, Interval? dynamic, ToleranceVariables variables, TransferPlan plan, TransferTarget target, ToleranceCircuit circuit,
+        int maxDegreeOfParallelism)
+    {
         var toleranced = variables.Toleranced.ToArray();
 
         // Runs: nominal, each toleranced resistor alone at +1, each error source alone at ±1.
@@ -165,7 +263,6 @@ internal sealed class WorstCaseAnalysis
             singles.Add((-1, -1, "diode", d, plus, plus + 1));
         }
 
-        var circuit = ToleranceCircuit.Of(design, baseline, variables, plan);
         var first = Evaluate(circuit, runs, maxDegreeOfParallelism);
         var nominalTransfer = first[0];
         if (!nominalTransfer.Succeeded)
@@ -277,6 +374,7 @@ internal sealed class WorstCaseAnalysis
             CrossTerm = Math.Max(0, deviations[plan.ZeroIndex].Magnitude - superposedOffset),
             Failure = failed?.Failure,
             FailedChain = failed?.Chain,
+            Temperature = variables.Temperature,
         };
     }
 
@@ -328,7 +426,7 @@ internal sealed class WorstCaseAnalysis
     }
 
     private static bool IsNominal(Variation v) =>
-        v.Resistors.All(u => u == 0) && v.Offsets.All(u => u == 0) && v.Biases.All(u => u == 0) && v.Diodes.All(u => u == 0) && v.OffsetCurrents.All(u => u == 0);
+        v.Temperature == TemperatureBehaviour.Reference && v.Resistors.All(u => u == 0) && v.Offsets.All(u => u == 0) && v.Biases.All(u => u == 0) && v.Diodes.All(u => u == 0) && v.OffsetCurrents.All(u => u == 0);
 
     private static IEnumerable<Func<StageFigures, double>> Fields(StageFigures nominal)
     {
@@ -352,7 +450,7 @@ internal sealed class WorstCaseAnalysis
             Metric = new AccuracyMetric([], double.NaN, null, 0), Nominal = nothing,
             Deviations = new Interval[plan.Levels.Length], Gain = Interval.Point(double.NaN), Mismatch = Interval.Point(double.NaN),
             CommonModeShift = Interval.Point(0), WorstCommonModeRejection = double.PositiveInfinity, Corners = 0, BySensitivity = false,
-            Singles = [], Failure = failed.Failure, FailedChain = failed.Chain,
+            Singles = [], Failure = failed.Failure, FailedChain = failed.Chain, Temperature = variables.Temperature,
         };
     }
 }

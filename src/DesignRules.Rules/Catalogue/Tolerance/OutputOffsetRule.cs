@@ -22,8 +22,15 @@ internal sealed class OutputOffsetRule : Rule
             if (ToleranceAnalyses.ReportFailure(evaluation, analysis)) continue;
             double offset = analysis.OutputOffset;
             if (double.IsNaN(offset)) continue;
-            var figure = FigureKinds.OutputOffset.Of(offset);
+            var hot = analysis.WorstTemperatureOf(a => a.OutputOffset);
+            var figure = FigureKinds.OutputOffset.Of(offset).AtTemperature(hot);
             evaluation.Record(id, stage.Stage.Requirements.OutputOffset is { } allowed ? figure.AtMost(allowed.Value.Value) : figure);
+            if (hot is { } worstAt)
+            {
+                evaluation.Record(id, FigureKinds.WorstTemperature.Of("offset", worstAt));
+                evaluation.Record(id, FigureKinds.OffsetDrift.Of(analysis.OffsetDrift));
+            }
+
             evaluation.Judged(id, "output-offset", Id);
             if (stage.Stage.Requirements.OutputOffset is not { } required || offset <= required.Value.Value)
             {
@@ -42,8 +49,8 @@ internal sealed class OutputOffsetRule : Rule
                 ["stage"] = id,
                 ["offset"] = Say.Volts(offset),
                 ["limit"] = Say.Volts(required.Value.Value),
-                ["cause"] = dominant is null ? "the nominal circuit" : dominant.What,
-            }, FigureKinds.OutputOffset.Of(offset), FigureKinds.AllowedOutputOffset.Of(required.Value.Value));
+                ["cause"] = (dominant is null ? "the nominal circuit" : dominant.What) + ToleranceAnalyses.AtTemperature(hot),
+            }, FigureKinds.OutputOffset.Of(offset).AtTemperature(hot), FigureKinds.AllowedOutputOffset.Of(required.Value.Value));
         }
     }
 }

@@ -23,7 +23,14 @@ internal sealed class WorstCaseTransferRule : Rule
             var (error, level) = analysis.TransferError;
             if (double.IsNaN(error)) continue;
             // An average is judged over time (ripple, settling), which this DC analysis does not see: no limit for it here.
-            var transferError = FigureKinds.WorstCaseTransferError.Of(error);
+            // With an operating range, the end (or middle) at which the error is worst: a finding names it.
+            var hot = analysis.WorstTemperatureOf(a => a.TransferError.Error);
+            if (hot is { } worstAt)
+            {
+                evaluation.Record(id, FigureKinds.WorstTemperature.Of("transfer", worstAt));
+            }
+
+            var transferError = FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot);
             evaluation.Record(id, ToleranceAnalyses.Accuracy(stage) is { } allowed && analysis.Target.Kind != TransferKind.Average ? transferError.AtMost(allowed) : transferError);
             if (analysis.Target.Kind != TransferKind.Average)
             {
@@ -61,10 +68,10 @@ internal sealed class WorstCaseTransferRule : Rule
             {
                 ["stage"] = id,
                 ["error"] = Say.Percent(error),
-                ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
+                ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}") + ToleranceAnalyses.AtTemperature(hot),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, [FigureKinds.WorstCaseTransferError.Of(error), FigureKinds.Accuracy.Of(accuracy),
+            }, [FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot), FigureKinds.Accuracy.Of(accuracy),
                 .. analysis.Metric.Dynamic is { } held ? [FigureKinds.HoldDroop.Of(held.High - held.Low)] : Array.Empty<Figure>()]);
         }
     }

@@ -20,6 +20,10 @@ internal static class ToleranceAnalyses
     /// <summary>The stage's Monte Carlo, computed once by the figures layer.</summary>
     public static MonteCarloYield MonteCarlo(DesignEvaluation evaluation, StageProbe stage) => evaluation.Analyses.MonteCarloOf(stage);
 
+    /// <summary>" at 85 °C": where in the design's operating range a worst case occurs; empty without a range.</summary>
+    public static string AtTemperature(double? celsius) =>
+        celsius is { } t ? $" at {new DesignRules.Quantities.Quantity(t, DesignRules.Quantities.Dimension.Temperature).Format()}" : string.Empty;
+
     /// <summary>Reports a failed run of the stage's analysis (DR920); true when the analysis has no figures at all.</summary>
     public static bool ReportFailure(DesignEvaluation evaluation, WorstCaseAnalysis analysis)
     {
