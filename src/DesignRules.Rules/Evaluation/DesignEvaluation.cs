@@ -29,6 +29,15 @@ internal sealed class DesignEvaluation : IAnalysisFailures
 
     public Design Design { get; }
 
+    /// <summary>
+    /// True in an evaluation that re-runs a rule on a design with a fix hint applied (<see cref="Refit"/>): there the rules
+    /// give their closed-form hints only, so that confirming a hint never recurses.
+    /// </summary>
+    public bool ConfirmsHint { get; private init; }
+
+    /// <summary>A fresh evaluation of <paramref name="design"/> (a changed copy of this one's) under the same rule set, to confirm a fix hint.</summary>
+    public DesignEvaluation Refit(Design design) => new(design, ruleSet) { ConfirmsHint = true };
+
     public DesignAnalyses Analyses { get; }
 
     public MonteCarloSettings MonteCarlo => ruleSet.MonteCarlo;

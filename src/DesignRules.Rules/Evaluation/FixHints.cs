@@ -40,6 +40,83 @@ internal static class FixHints
         return PartFigure(FixKind.MinimumPowerRating, component, value, "W", $"`{component}` needs a resistor family rated at least {Say.Watts(value)}", parts, "resistor family");
     }
 
+    /// <summary>The most re-runs a hint's confirmation takes; each raises the candidate, so the search is bounded.</summary>
+    private const int MaximumRefits = 8;
+
+    /// <summary>
+    /// Confirms a part-figure hint with the engine where the figure changes what the part is asked (a faster amplifier
+    /// swings further; a stronger one is asked more current): the rule is re-run on the design with the amplifier's figure
+    /// set to the candidate; while it still fires, the candidate rises to its new closed-form hint (at least 1 % more),
+    /// at most <see cref="MaximumRefits"/> times. The hint that passes is returned; one that never did says so.
+    /// </summary>
+    public static FixHint ConfirmAmplifier(DesignEvaluation evaluation, Rule rule, FixHint hint,
+        Func<AmplifierPart, double, AmplifierPart> apply)
+    {
+        if (evaluation.ConfirmsHint || !double.IsFinite(hint.Value))
+        {
+            return hint;
+        }
+
+        var candidate = hint;
+        for (int i = 0; i < MaximumRefits; i++)
+        {
+            var refit = evaluation.Refit(WithAmplifier(evaluation.Design, hint.Subject, p => apply(p, candidate.Value)));
+            rule.Evaluate(refit);
+            if (refit.Findings.Any(f => f.RuleId.StartsWith("DR9", StringComparison.Ordinal)))
+            {
+                break;
+            }
+
+            if (refit.Findings.FirstOrDefault(f => f.RuleId == rule.Id.ToString() && f.Fix?.Subject == hint.Subject) is not { Fix: { } again })
+            {
+                return candidate;
+            }
+
+            double next = RoundUp(Math.Max(again.Value, candidate.Value * 1.01));
+            candidate = Rebuild(candidate, next, evaluation.Design);
+        }
+
+        return hint with { Text = hint.Text.TrimEnd('.') + "; a re-run with it did not confirm the fix, so the figure is a lower bound." };
+    }
+
+    private static FixHint Rebuild(FixHint hint, double value, Design design) => hint.Kind switch
+    {
+        FixKind.MinimumSlewRate => MinimumSlewRate(design, hint.Subject, value),
+        FixKind.MinimumOutputCurrent => MinimumOutputCurrent(design, hint.Subject, value),
+        _ => hint,
+    };
+
+    /// <summary>The design with the amplifier of element id <paramref name="elementId"/> (<c>stage.slot</c>) changed.</summary>
+    private static Design WithAmplifier(Design design, string elementId, Func<AmplifierPart, AmplifierPart> change) =>
+        design with
+        {
+            Stages = design.Stages.Select(stage => stage switch
+            {
+                BlockStage block => block with
+                {
+                    Amplifiers = block.Amplifiers.ToDictionary(a => a.Key, a => $"{block.Id.Value}.{a.Key}" == elementId ? change(a.Value) : a.Value, StringComparer.Ordinal),
+                },
+                NetlistStage netlist => netlist with
+                {
+                    Elements = netlist.Elements.Select(e => e.Amplifier is { } part && $"{netlist.Id.Value}.{e.Id.Value}" == elementId ? e with { Amplifier = change(part) } : e).ToList(),
+                },
+                _ => stage,
+            }).ToList(),
+        };
+
+    /// <summary>The part with slew rate <paramref name="value"/> in both directions.</summary>
+    public static AmplifierPart WithSlewRate(AmplifierPart part, double value) => part with
+    {
+        SlewRising = new Located<Quantities.Quantity>(new Quantities.Quantity(value, Quantities.Dimension.SlewRate), part.SlewRising.Span),
+        SlewFalling = new Located<Quantities.Quantity>(new Quantities.Quantity(value, Quantities.Dimension.SlewRate), part.SlewFalling.Span),
+    };
+
+    /// <summary>The part with rated output current <paramref name="value"/>.</summary>
+    public static AmplifierPart WithOutputCurrent(AmplifierPart part, double value) => part with
+    {
+        OutputCurrent = new Located<Quantities.Quantity>(new Quantities.Quantity(value, Quantities.Dimension.Current), part.OutputCurrent.Span),
+    };
+
     private static FixHint PartFigure(FixKind kind, string subject, double value, string unit, string text,
         IEnumerable<(string Id, double Figure)> parts, string what)
     {
