@@ -214,7 +214,11 @@ internal static class PageModel
                 ["title"] = f.Title,
                 ["severity"] = f.Severity.ToString().ToLowerInvariant(),
                 // Messages put node and key names in `code`; those stay code spans, the rest is escaped text.
-                ["message"] = new MarkdownText(MarkdownEscape.Message(f.Message)),
+                // The fix hint has its own column ("what would fix it"), so the page shows the message without it.
+                ["message"] = new MarkdownText(MarkdownEscape.Message(f.Fix is { } fix && f.Message.EndsWith(" Fix: " + fix.Text, StringComparison.Ordinal)
+                    ? f.Message[..^(" Fix: ".Length + fix.Text.Length)] : f.Message)),
+                ["fix"] = f.Fix is null ? null : new MarkdownText(MarkdownEscape.Message(f.Fix.Text)),
+                ["fix_subject"] = f.Fix?.Subject,
                 ["line"] = f.Span.Line,
                 ["column"] = f.Span.Column,
                 ["waived"] = f.IsWaived,

@@ -17,7 +17,8 @@ public static class JsonReport
 
     /// <summary>
     /// The format version; raised only when a field changes meaning or disappears. 2: every figure carries its stable
-    /// <c>key</c>, and a finding's figures have the same keys, labels and units as the stage's.
+    /// <c>key</c>, and a finding's figures have the same keys, labels and units as the stage's. A finding's optional
+    /// <c>fix</c> object (its computed fix hint) was added within format 2: readers that ignore it lose nothing.
     /// </summary>
     public const int FormatVersion = 2;
 
@@ -142,6 +143,38 @@ public static class JsonReport
         w.WriteBoolean("waived", f.IsWaived);
         WriteOptional(w, "waiver", f.Waiver);
         WriteFigures(w, f.Figures);
+        WriteFix(w, f.Fix, settings);
+        w.WriteEndObject();
+    }
+
+    /// <summary>
+    /// Writes <c>"fix": { "kind", "subject", "value", "unit", "text", "replacement"?, "file"?, "line"?, ... }</c> where the rule
+    /// computed the smallest change that makes the finding pass; the location and replacement only for a YAML value.
+    /// </summary>
+    private static void WriteFix(Utf8JsonWriter w, FixHint? fix, ReportSettings settings)
+    {
+        if (fix is null)
+        {
+            return;
+        }
+
+        w.WriteStartObject("fix");
+        w.WriteString("kind", fix.KindName);
+        w.WriteString("subject", fix.Subject);
+        ReportJson.Number(w, "value", fix.Value);
+        w.WriteString("unit", fix.Unit);
+        w.WriteString("text", fix.Text);
+        w.WriteBoolean("beyondPartClasses", fix.BeyondPartClasses);
+        if (fix.ValueSpan is { } span && fix.Replacement is { } replacement)
+        {
+            w.WriteString("replacement", replacement);
+            w.WriteString("file", RepositoryPaths.Display(settings.RepositoryRoot, span.File));
+            w.WriteNumber("line", span.Line);
+            w.WriteNumber("column", span.Column);
+            w.WriteNumber("endLine", span.EndLine);
+            w.WriteNumber("endColumn", span.EndColumn);
+        }
+
         w.WriteEndObject();
     }
 

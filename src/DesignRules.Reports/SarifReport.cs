@@ -176,7 +176,58 @@ public static class SarifReport
         }
 
         WriteProperties(w, f);
+        WriteFixes(w, f, settings);
         w.WriteEndObject();
+    }
+
+    /// <summary>
+    /// Writes the SARIF 2.1.0 <c>fixes</c> of a finding whose fix hint is one YAML value replacement: one fix with one
+    /// artifact change that deletes the value's region and inserts the replacement text, so an editor or a review bot can
+    /// apply it. A hint that needs another part (a figure, not a value) has no SARIF fix; its text is in the message.
+    /// </summary>
+    private static void WriteFixes(Utf8JsonWriter w, Finding f, ReportSettings settings)
+    {
+        if (f.Fix is not { ValueSpan: { } span, Replacement: { } replacement } fix)
+        {
+            return;
+        }
+
+        w.WriteStartArray("fixes");
+        w.WriteStartObject();
+        w.WriteStartObject("description");
+        w.WriteString("text", fix.Text);
+        w.WriteEndObject();
+        w.WriteStartArray("artifactChanges");
+        w.WriteStartObject();
+        w.WriteStartObject("artifactLocation");
+        if (RepositoryPaths.Relative(settings.RepositoryRoot, span.File) is { } relative)
+        {
+            w.WriteString("uri", EscapePath(relative));
+            w.WriteString("uriBaseId", ReportSettings.RootBaseId);
+        }
+        else
+        {
+            w.WriteString("uri", Path.IsPathRooted(span.File) ? new Uri(span.File).AbsoluteUri : span.File);
+        }
+
+        w.WriteEndObject();
+        w.WriteStartArray("replacements");
+        w.WriteStartObject();
+        w.WriteStartObject("deletedRegion");
+        w.WriteNumber("startLine", Math.Max(1, span.Line));
+        w.WriteNumber("startColumn", Math.Max(1, span.Column));
+        w.WriteNumber("endLine", Math.Max(span.Line, span.EndLine));
+        w.WriteNumber("endColumn", Math.Max(span.Column, span.EndColumn));
+        w.WriteEndObject();
+        w.WriteStartObject("insertedContent");
+        w.WriteString("text", replacement);
+        w.WriteEndObject();
+        w.WriteEndObject();
+        w.WriteEndArray();
+        w.WriteEndObject();
+        w.WriteEndArray();
+        w.WriteEndObject();
+        w.WriteEndArray();
     }
 
     private static void WriteRegion(Utf8JsonWriter w, SourceSpan span)

@@ -30,6 +30,9 @@ public sealed record Finding(
 {
     /// <summary>True when a waiver covers the finding; waived findings never fail a build.</summary>
     public bool IsWaived => Waiver is not null;
+
+    /// <summary>The computed smallest change that makes the finding pass, where the rule computes one.</summary>
+    public FixHint? Fix { get; init; }
 }
 
 /// <summary>
@@ -66,4 +69,58 @@ public sealed record Figure(FigureKey Key, double Value)
 
     /// <summary>The figure judged against a lower limit (it must reach at least <paramref name="limit"/>).</summary>
     public Figure AtLeast(double limit) => this with { Limit = limit, Margin = Value - limit };
+}
+
+/// <summary>What a fix hint asks to change.</summary>
+public enum FixKind
+{
+    /// <summary>A replacement amplifier needs at least this slew rate (V/s).</summary>
+    MinimumSlewRate,
+
+    /// <summary>A replacement amplifier needs at least this output current rating (A).</summary>
+    MinimumOutputCurrent,
+
+    /// <summary>A replacement resistor family needs at least this power rating (W).</summary>
+    MinimumPowerRating,
+
+    /// <summary>The resistor family's tolerance must be at most this (a ratio).</summary>
+    MaximumResistorTolerance,
+
+    /// <summary>The largest source amplitude (V) the design handles as it stands.</summary>
+    MaximumAmplitude,
+
+    /// <summary>A YAML value replaced by the nearest value of the declared E-series (IEC 60063) that passes.</summary>
+    PreferredValue,
+}
+
+/// <summary>
+/// The smallest change that makes a finding pass, computed by the tool (closed form where the relation is one, a bounded
+/// search with the engine where it is not): a figure a replacement part needs, or a YAML value to write.
+/// </summary>
+/// <param name="Kind">What to change.</param>
+/// <param name="Subject">The part, family, component or value it concerns (e.g. <c>u1</c>, <c>rin</c>).</param>
+/// <param name="Value">The hinted figure in SI units.</param>
+/// <param name="Unit">The SI unit symbol of <paramref name="Value"/>; "%" marks a ratio shown as a percentage.</param>
+/// <param name="Text">The hint in words, as appended to the message.</param>
+public sealed record FixHint(FixKind Kind, string Subject, double Value, string Unit, string Text)
+{
+    /// <summary>The YAML value to replace, where one replacement fixes the finding; null for a part figure.</summary>
+    public DesignRules.Diagnostics.SourceSpan? ValueSpan { get; init; }
+
+    /// <summary>The replacement text for <see cref="ValueSpan"/> (engineering notation, as a person writes it).</summary>
+    public string? Replacement { get; init; }
+
+    /// <summary>True when no part class in the design's visible parts libraries reaches the hinted figure (the text says so).</summary>
+    public bool BeyondPartClasses { get; init; }
+
+    /// <summary>The kind's stable name in reports, e.g. <c>minimum-slew-rate</c>.</summary>
+    public string KindName => Kind switch
+    {
+        FixKind.MinimumSlewRate => "minimum-slew-rate",
+        FixKind.MinimumOutputCurrent => "minimum-output-current",
+        FixKind.MinimumPowerRating => "minimum-power-rating",
+        FixKind.MaximumResistorTolerance => "maximum-resistor-tolerance",
+        FixKind.MaximumAmplitude => "maximum-amplitude",
+        _ => "preferred-value",
+    };
 }

@@ -29,6 +29,15 @@ internal sealed class DesignEvaluation : IAnalysisFailures
 
     public Design Design { get; }
 
+    /// <summary>
+    /// True in an evaluation that re-runs a rule on a design with a fix hint applied (<see cref="Refit"/>): there the rules
+    /// give their closed-form hints only, so that confirming a hint never recurses.
+    /// </summary>
+    public bool ConfirmsHint { get; private init; }
+
+    /// <summary>A fresh evaluation of <paramref name="design"/> (a changed copy of this one's) under the same rule set, to confirm a fix hint.</summary>
+    public DesignEvaluation Refit(Design design) => new(design, ruleSet) { ConfirmsHint = true };
+
     public DesignAnalyses Analyses { get; }
 
     public MonteCarloSettings MonteCarlo => ruleSet.MonteCarlo;
@@ -143,7 +152,14 @@ internal sealed class DesignEvaluation : IAnalysisFailures
     public bool IsOn(RuleId ruleId, string? stageId) => LevelOf(ruleId, stageId) != RuleLevel.Off;
 
     /// <summary>Reports a finding of <paramref name="ruleId"/> unless the rule is off for the stage.</summary>
-    public void Report(RuleId ruleId, string? stageId, SourceSpan span, IReadOnlyDictionary<string, string> arguments, params Figure[] figures)
+    public void Report(RuleId ruleId, string? stageId, SourceSpan span, IReadOnlyDictionary<string, string> arguments, params Figure[] figures) =>
+        Report(ruleId, stageId, span, arguments, null, figures);
+
+    /// <summary>
+    /// Reports a finding with its computed fix hint (<see cref="FixHint"/>): the hint's text follows the catalogue message
+    /// ("Fix: ..."), and the reports carry it as a <c>fix</c> object (JSON) and, for a YAML value, a SARIF fix.
+    /// </summary>
+    public void Report(RuleId ruleId, string? stageId, SourceSpan span, IReadOnlyDictionary<string, string> arguments, FixHint? fix, params Figure[] figures)
     {
         var level = LevelOf(ruleId, stageId);
         if (level == RuleLevel.Off)
@@ -152,8 +168,17 @@ internal sealed class DesignEvaluation : IAnalysisFailures
         }
 
         var rule = RuleCatalogue.Default[ruleId];
-        findings.Add(new Finding(ruleId, rule.Title, ToSeverity(level), rule.Render(arguments), span, rule.HelpPage,
-            Design.Id.Value, stageId, null, figures));
+        var message = rule.Render(arguments);
+        if (fix is not null)
+        {
+            message += " Fix: " + fix.Text;
+        }
+
+        lock (findings)
+        {
+            findings.Add(new Finding(ruleId, rule.Title, ToSeverity(level), message, span, rule.HelpPage,
+                Design.Id.Value, stageId, null, figures) { Fix = fix });
+        }
     }
 
     /// <summary>Reports an analysis that could not be completed, at the element or node it names.</summary>

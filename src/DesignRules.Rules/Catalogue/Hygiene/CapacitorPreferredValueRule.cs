@@ -36,7 +36,7 @@ internal sealed class CapacitorPreferredValueRule : Rule
                 ["value"] = Farads(value),
                 ["series"] = series.Name,
                 ["nearest"] = Farads(nearest),
-            }, FigureKinds.CapacitorValue.Of(value), FigureKinds.NearestPreferredCapacitorValue.Of(nearest));
+            }, PreferredValueFix.Of($"{stage.Id.Value}.{name}", nearest, Dimension.Capacitance, span), FigureKinds.CapacitorValue.Of(value), FigureKinds.NearestPreferredCapacitorValue.Of(nearest));
         }
     }
 

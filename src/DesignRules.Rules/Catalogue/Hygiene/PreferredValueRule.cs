@@ -31,7 +31,7 @@ internal sealed class PreferredValueRule : Rule
                 ["value"] = Say.Ohms(resistor.Value),
                 ["series"] = series.Name,
                 ["nearest"] = Say.Ohms(nearest),
-            }, FigureKinds.ResistorValue.Of(resistor.Value), FigureKinds.NearestPreferredValue.Of(nearest));
+            }, PreferredValueFix.Of($"{resistor.Stage.Id.Value}.{resistor.Name}", nearest, Dimension.Resistance, resistor.ValueSpan), FigureKinds.ResistorValue.Of(resistor.Value), FigureKinds.NearestPreferredValue.Of(nearest));
         }
     }
 }

@@ -54,7 +54,7 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
-            }, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, 2 * Math.PI * shape.Factor * peak * limit), FixHints.WithSlewRate), FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
                FigureKinds.PeakExcursion.Of(peak), FigureKinds.SlewRate.Of(a.SlewSlower),
                FigureKinds.SteepestSlope.Of(2 * Math.PI * shape.Factor * frequency * peak));
         }

@@ -74,7 +74,7 @@ internal sealed class SlewDemandRule : Rule
                 ["window"] = Say.Seconds(time),
                 ["slew"] = Say.Slew(slew),
                 ["margin"] = Say.Slew(d.Rate - slew),
-            }, FigureKinds.SlewDemand.Of(a.Node, d.Rate), FigureKinds.SlewRate.Of(slew),
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, d.Rate), FixHints.WithSlewRate), FigureKinds.SlewDemand.Of(a.Node, d.Rate), FigureKinds.SlewRate.Of(slew),
                FigureKinds.SlewingSwing.Of(e.Swing), FigureKinds.SlewWindow.Of(time));
         }
     }

@@ -52,7 +52,7 @@ internal sealed class ResistorPowerRule : Rule
                     ["derating"] = Say.Percent(derating),
                     ["limit"] = Say.Watts(limit),
                     ["margin"] = Say.Watts(p - limit),
-                }, FigureKinds.ResistorPower.Of(r.Name, p), FigureKinds.DeratedPower.Of(limit));
+                }, FixHints.MinimumPowerRating(evaluation.Design, r.ElementId, p / derating), FigureKinds.ResistorPower.Of(r.Name, p), FigureKinds.DeratedPower.Of(limit));
             }
         }
     }
