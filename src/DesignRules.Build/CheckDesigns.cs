@@ -116,6 +116,15 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     /// </summary>
     public string? CacheFolder { get; set; }
 
+    /// <summary>
+    /// <c>DesignRulesBaseline</c>: a JSON report of an earlier run (the base branch's); every SARIF result then carries its
+    /// <c>baselineState</c>. Empty for none.
+    /// </summary>
+    public string? BaselineFile { get; set; }
+
+    /// <summary><c>DesignRulesNewOnly</c>: fail only on findings new against <see cref="BaselineFile"/>.</summary>
+    public bool NewOnly { get; set; }
+
     /// <inheritdoc />
     public override bool Execute()
     {
@@ -174,6 +183,8 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
             ReportRoot = ReportRoot,
             Warnings = BuildWarnings(),
             CacheFolder = CacheFolder,
+            BaselineFile = BaselineFile,
+            NewOnly = NewOnly,
         });
 
         // Properties that cannot be used are the user's mistake: plain errors at the project, before the check runs.
@@ -222,6 +233,11 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         }
 
         Log.LogMessage(MessageImportance.High, "DesignRules: " + outcome.Summary);
+        if (outcome.BaselineLine is { } baselineLine)
+        {
+            Log.LogMessage(MessageImportance.High, "DesignRules: " + baselineLine);
+        }
+
         if (Log.HasLoggedErrors)
         {
             return false;

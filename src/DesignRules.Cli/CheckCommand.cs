@@ -74,11 +74,22 @@ internal static class CheckCommand
         HelpName = "DIR",
     };
 
+    private static readonly Option<string?> Baseline = new("--baseline")
+    {
+        Description = "A JSON report of an earlier run (the base branch's --json): every SARIF result then says whether it is new, unchanged or updated against it.",
+        HelpName = "FILE",
+    };
+
+    private static readonly Option<bool> NewOnly = new("--new-only")
+    {
+        Description = "Fail only on findings new against --baseline; findings the baseline already has are shown as notes (waivers still apply).",
+    };
+
     public static Command Create()
     {
         var command = new Command("check", "Check every design and report problems as file(line,col): severity DRnnn: message.")
         {
-            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today, WarningsAsErrors, Cache,
+            Paths, Sarif, Json, PagesFolder, Templates, RuleSet, Root, HelpBase, Levels, Today, WarningsAsErrors, Cache, Baseline, NewOnly,
         };
         PathArgument.RefuseUnknownOptions(Paths, "check");
         command.SetAction(Run);
@@ -105,6 +116,8 @@ internal static class CheckCommand
             Today = result.GetValue(Today),
             WarningsAsErrors = result.GetValue(WarningsAsErrors),
             Cache = result.GetValue(Cache),
+            Baseline = result.GetValue(Baseline),
+            NewOnly = result.GetValue(NewOnly),
         });
         foreach (var problem in parse.Problems)
         {
@@ -142,6 +155,11 @@ internal static class CheckCommand
 
         var toStandardOutput = outcome.StandardOutput is not null;
         HumanReport.Write(outcome.Shown, outcome.Summary, toStandardOutput ? new Terminal(Console.Error, colour: false) : Terminal.ForStandardOutput());
+        if (outcome.BaselineLine is { } baselineLine)
+        {
+            (toStandardOutput ? Console.Error : Console.Out).WriteLine(baselineLine);
+        }
+
         var templateErrors = 0;
         if (outcome.Pages is { } pages)
         {

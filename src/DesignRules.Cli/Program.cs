@@ -4,7 +4,7 @@ using DesignRules.Cli;
 // The command line is a thin shell over the library: parse, call DesignCheck.Run, print and write reports.
 var root = new RootCommand("DesignRules: design-rule checks for op-amp signal chains kept as YAML.")
 {
-    CheckCommand.Create(), RuleCommand.Create(), SchemaCommand.Create(), PartsCommand.Create(), RuleCommand.CreateRenamedExplain(),
+    CheckCommand.Create(), CompareCommand.Create(), RuleCommand.Create(), SchemaCommand.Create(), PartsCommand.Create(), RuleCommand.CreateRenamedExplain(),
 };
 
 // No arguments at all: say what the tool does and how to call it, rather than fail on a missing command.

@@ -57,9 +57,10 @@ public static class JsonReport
         WriteCautions(w, report, settings);
         WriteYields(w, report);
         w.WriteStartArray("findings");
+        var nodes = new FindingNodes();
         foreach (var f in report.Findings)
         {
-            WriteFinding(w, f, settings);
+            WriteFinding(w, f, settings, nodes);
         }
 
         w.WriteEndArray();
@@ -120,7 +121,7 @@ public static class JsonReport
         w.WriteEndObject();
     }
 
-    private static void WriteFinding(Utf8JsonWriter w, Finding f, ReportSettings settings)
+    private static void WriteFinding(Utf8JsonWriter w, Finding f, ReportSettings settings, FindingNodes nodes)
     {
         w.WriteStartObject();
         w.WriteString("ruleId", f.RuleId);
@@ -132,6 +133,7 @@ public static class JsonReport
         w.WriteNumber("column", f.Span.Column);
         w.WriteNumber("endLine", f.Span.EndLine);
         w.WriteNumber("endColumn", f.Span.EndColumn);
+        WriteOptional(w, "node", nodes.PathOf(f.Span));
         w.WriteString("helpPage", f.HelpPage);
         if (HelpLinks.For(f.RuleId, settings.HelpUriBase) is { } help)
         {

@@ -13,6 +13,12 @@ public sealed record ReportSettings(string RepositoryRoot, string? HelpUriBase, 
     public const string ToolName = "DesignRules";
 
     /// <summary>
+    /// The baseline report a run is compared with (<c>--baseline</c>, <c>DesignRulesBaseline</c>): when given, every SARIF
+    /// result carries its <c>baselineState</c>. Null for none.
+    /// </summary>
+    public Comparison.ReportSnapshot? Baseline { get; init; }
+
+    /// <summary>
     /// Where people learn about the tool (SARIF's <c>tool.driver.informationUri</c>): the help base when one is given,
     /// else the tool's own identifier, an absolute URI that names the tool and its version without pointing at a host
     /// (the project has no public address the tool could name on its own).

@@ -49,9 +49,11 @@ public static class SarifReport
         w.WriteEndObject();
         w.WriteStartArray("results");
         var fingerprints = new Fingerprints(settings.RepositoryRoot);
-        foreach (var finding in report.Findings)
+        var states = Comparison.BaselineStates.Of(report, settings);
+        for (var i = 0; i < report.Findings.Count; i++)
         {
-            WriteResult(w, finding, index[finding.RuleId], settings, fingerprints.Next(finding));
+            var finding = report.Findings[i];
+            WriteResult(w, finding, index[finding.RuleId], settings, fingerprints.Next(finding), states?[i]);
         }
 
         w.WriteEndArray();
@@ -131,7 +133,7 @@ public static class SarifReport
         w.WriteEndObject();
     }
 
-    private static void WriteResult(Utf8JsonWriter w, Finding f, int ruleIndex, ReportSettings settings, string fingerprint)
+    private static void WriteResult(Utf8JsonWriter w, Finding f, int ruleIndex, ReportSettings settings, string fingerprint, string? baselineState = null)
     {
         w.WriteStartObject();
         w.WriteString("ruleId", f.RuleId);
@@ -163,6 +165,11 @@ public static class SarifReport
         w.WriteStartObject("partialFingerprints");
         w.WriteString(FingerprintName, fingerprint);
         w.WriteEndObject();
+        if (baselineState is not null)
+        {
+            w.WriteString("baselineState", baselineState);
+        }
+
         if (f.Waiver is not null)
         {
             // A waiver is written in the design file itself, beside the design it waives: an in-source suppression.

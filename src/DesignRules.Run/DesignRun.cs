@@ -1,6 +1,7 @@
 using System.Globalization;
 using DesignRules.Pages;
 using DesignRules.Reports;
+using DesignRules.Reports.Comparison;
 using DesignRules.Rules;
 
 namespace DesignRules.Run;
@@ -46,7 +47,7 @@ public static class DesignRun
         cache?.RemoveEntriesOfMissingDesigns();
         var report = request.Levels.Apply(check);
         var shown = request.Warnings.Apply(report);
-        var settings = new ReportSettings(request.ReportRoot, request.HelpUriBase, RepositoryConventions.ToolVersion);
+        var settings = new ReportSettings(request.ReportRoot, request.HelpUriBase, RepositoryConventions.ToolVersion) { Baseline = request.Baseline };
         byte[]? standardOutput = null;
         try
         {
@@ -63,6 +64,22 @@ public static class DesignRun
                 FromCache = cache?.Hits ?? 0,
                 Problems = [new RequestProblem(null, $"a report file cannot be written ({Diagnostics.DiagnosticText.Escape(ex.Message.TrimEnd('.'))}).")],
             };
+        }
+
+        // Against a baseline: one line of counts; under the new-only gate, the findings the baseline has become notes in what
+        // the hosts log and count (the reports above keep every true level, with its baselineState).
+        string? baselineLine = null;
+        var (logged, counted) = (report, shown);
+        if (BaselineStates.Compare(shown, settings) is { } comparison)
+        {
+            var passed = 0;
+            if (request.NewOnly)
+            {
+                logged = NewOnlyGate.Apply(report, settings, out _);
+                counted = NewOnlyGate.Apply(shown, settings, out passed);
+            }
+
+            baselineLine = RunText.Baseline(comparison, request.NewOnly ? passed : null);
         }
 
         PageResult? pages = null;
@@ -86,11 +103,12 @@ public static class DesignRun
 
         return new RunOutcome
         {
-            Report = report,
-            Shown = shown,
+            Report = logged,
+            Shown = counted,
             StandardOutput = standardOutput,
             Pages = pages,
             PagesLine = pagesLine,
+            BaselineLine = baselineLine,
             FromCache = cache?.Hits ?? 0,
         };
     }

@@ -36,6 +36,12 @@ public sealed record RunOutcome
     /// <summary>The summary line both hosts print (the build prefixes its log lines with <c>DesignRules: </c>).</summary>
     public string Summary => RunText.Summary(Shown);
 
+    /// <summary>
+    /// Against a baseline report: the counts of new, changed, unchanged and resolved findings, and under the new-only gate
+    /// how many findings it let pass; null without a baseline.
+    /// </summary>
+    public string? BaselineLine { get; init; }
+
     /// <summary>How many designs came from the results cache rather than evaluation.</summary>
     public int FromCache { get; init; }
 

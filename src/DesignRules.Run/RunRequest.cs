@@ -55,6 +55,18 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
     /// <summary>How many designs are evaluated at once; null for one per core.</summary>
     public int? MaxParallelDesigns { get; init; }
 
+    /// <summary>
+    /// The baseline report (a JSON report of an earlier run, <c>--baseline</c>, <c>DesignRulesBaseline</c>), read when the
+    /// request was made; null for none. With it every SARIF result carries its <c>baselineState</c>.
+    /// </summary>
+    public Reports.Comparison.ReportSnapshot? Baseline { get; init; }
+
+    /// <summary>
+    /// The new-only gate (<c>--new-only</c>, <c>DesignRulesNewOnly</c>): only findings new against <see cref="Baseline"/>
+    /// fail the run; the others are shown as notes that say they are in the baseline.
+    /// </summary>
+    public bool NewOnly { get; init; }
+
     /// <summary>Stands in for the tool's identity in cache keys (tests: "another tool version"); null for the real one.</summary>
     internal string? ToolIdentityOverride { get; init; }
 
@@ -103,6 +115,8 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
             problems.Add(new RequestProblem(inputs.Templates, "no such template folder"));
         }
 
+        var baseline = ReadBaseline(problems, ("--baseline", inputs.Baseline), ("--new-only", inputs.NewOnly));
+
         if (inputs.Cache is not null && File.Exists(inputs.Cache))
         {
             problems.Add(new RequestProblem("--cache", $"'{Diagnostics.DiagnosticText.Escape(inputs.Cache)}' is a file, not a folder; name a folder for the cache (it is created when missing)"));
@@ -127,6 +141,8 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
             TemplateFolder = inputs.Pages is null || inputs.Templates is null ? null : Path.GetFullPath(inputs.Templates),
             Search = new DesignSearch(Path.GetFullPath(given[0]), string.Join("; ", given.Select(RepositoryFiles.Searched))),
             CacheFolder = inputs.Cache is null ? null : Path.GetFullPath(inputs.Cache),
+            Baseline = baseline,
+            NewOnly = inputs.NewOnly,
         };
         return new RequestParse(request, []);
     }
@@ -152,6 +168,7 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
 
         AddOutputProblems(problems, ("DesignRulesSarifFile", Blank(inputs.SarifFile)), ("DesignRulesJsonFile", Blank(inputs.JsonFile)),
             ("DesignRulesPagesFolder", Blank(inputs.PagesFolder)));
+        var baseline = ReadBaseline(problems, ("DesignRulesBaseline", Blank(inputs.BaselineFile)), ("DesignRulesNewOnly", inputs.NewOnly));
         if (problems.Count > 0)
         {
             return new RequestParse(null, problems);
@@ -172,8 +189,37 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
             TemplateFolder = Blank(inputs.TemplateFolder) is { } templates ? Path.GetFullPath(templates) : null,
             Search = new DesignSearch(Blank(inputs.ProjectFile) is { } project ? Path.GetFullPath(project) : root, searched),
             CacheFolder = Blank(inputs.CacheFolder) is { } cache ? Path.GetFullPath(cache) : null,
+            Baseline = baseline,
+            NewOnly = inputs.NewOnly,
         };
         return new RequestParse(request, []);
+    }
+
+    /// <summary>
+    /// Reads the baseline report now, so that a missing, foreign or older-format file is an unusable option (exit 2, a plain
+    /// error naming the option and the file), never a failure halfway through the run. The gate needs a baseline.
+    /// </summary>
+    private static Reports.Comparison.ReportSnapshot? ReadBaseline(List<RequestProblem> problems, (string Name, string? Path) baseline,
+        (string Name, bool On) newOnly)
+    {
+        if (baseline.Path is null)
+        {
+            if (newOnly.On)
+            {
+                problems.Add(new RequestProblem(newOnly.Name,
+                    $"the new-only gate needs a baseline report to tell new findings from old ones; name one with {baseline.Name} (a JSON report of the base branch)"));
+            }
+
+            return null;
+        }
+
+        var read = Reports.Comparison.ReportSnapshot.Read(Path.GetFullPath(baseline.Path));
+        if (read.Problem is not null)
+        {
+            problems.Add(new RequestProblem(baseline.Name, read.Problem));
+        }
+
+        return read.Snapshot;
     }
 
     private static string DateProblem => $"write the date as {RepositoryConventions.DateFormat}, e.g. {RepositoryConventions.DateExample}";
@@ -253,6 +299,12 @@ public sealed record CommandLineInputs(IReadOnlyList<string> Paths)
 
     /// <summary><c>--cache</c>: the results cache folder (opt-in on the command line).</summary>
     public string? Cache { get; init; }
+
+    /// <summary><c>--baseline</c>: the JSON report of an earlier run to compare with.</summary>
+    public string? Baseline { get; init; }
+
+    /// <summary><c>--new-only</c>: fail only on findings new against the baseline.</summary>
+    public bool NewOnly { get; init; }
 }
 
 /// <summary>The MSBuild task's properties, as MSBuild passes them (empty strings for unset ones).</summary>
@@ -300,4 +352,10 @@ public sealed record BuildInputs(IReadOnlyList<string> Files)
 
     /// <summary>The results cache folder below <c>obj/</c>.</summary>
     public string? CacheFolder { get; init; }
+
+    /// <summary><c>DesignRulesBaseline</c>: the JSON report of an earlier run to compare with.</summary>
+    public string? BaselineFile { get; init; }
+
+    /// <summary><c>DesignRulesNewOnly</c>: fail only on findings new against the baseline.</summary>
+    public bool NewOnly { get; init; }
 }

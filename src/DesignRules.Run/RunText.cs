@@ -19,6 +19,21 @@ public static class RunText
             $"{report.DesignCount} design(s) in {report.FileCount} file(s) checked: {report.ErrorCount} error(s), {report.WarningCount} warning(s), {report.Findings.Count(f => f.IsWaived)} waived.");
     }
 
+    /// <summary>
+    /// <c>against the baseline: 1 new, 0 changed, 3 unchanged, 1 resolved finding(s).</c>, and under the new-only gate how
+    /// many findings it let pass as notes.
+    /// </summary>
+    public static string Baseline(Reports.Comparison.RunComparison comparison, int? passedByGate)
+    {
+        ArgumentNullException.ThrowIfNull(comparison);
+        int Count(Reports.Comparison.FindingChange c) => comparison.Of(c).Count();
+        var line = string.Create(CultureInfo.InvariantCulture,
+            $"against the baseline: {Count(Reports.Comparison.FindingChange.New)} new, {Count(Reports.Comparison.FindingChange.Changed)} changed, {Count(Reports.Comparison.FindingChange.Unchanged)} unchanged, {Count(Reports.Comparison.FindingChange.Resolved)} resolved finding(s).");
+        return passedByGate is { } passed
+            ? line + string.Create(CultureInfo.InvariantCulture, $" New-only gate: {passed} finding(s) also in the baseline shown as notes; only new ones fail the check.")
+            : line;
+    }
+
     /// <summary>One design finished: <c>checked designs/x.yaml (x): 0 error(s), 1 warning(s), 0.42 s</c>.</summary>
     public static string Progress(DesignProgress progress, string root)
     {

@@ -86,6 +86,10 @@ public sealed class CliProcessTests : IDisposable
     [InlineData("explain", "DR999")]
     [InlineData("schema", "netlist")]
     [InlineData("no-such-command")]
+    [InlineData("compare", "no-such-base.json", "no-such-head.json")]
+    [InlineData("compare", "designs/line-driver.yaml", "designs/line-driver.yaml")]
+    [InlineData("check", ".", "--new-only")]
+    [InlineData("check", ".", "--baseline", "designs/line-driver.yaml")]
     public void Unusable_input_or_options_exit_2(params string[] args)
     {
         SampleRepository.Write(root, SampleRepository.Design());
