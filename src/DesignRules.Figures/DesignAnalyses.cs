@@ -1,4 +1,6 @@
+using DesignRules.Blocks;
 using DesignRules.Elaboration;
+using DesignRules.Figures.Filters;
 using DesignRules.Figures.LoadingBandwidthStress;
 using DesignRules.Figures.SlewSaturation;
 using DesignRules.Figures.Tolerance;
@@ -47,6 +49,9 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)>? cornerWaveforms;
     private IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)>? cornerDemands;
     private IReadOnlyDictionary<string, FillingHold>? fillingHolds;
+    private readonly Dictionary<string, MeasuredFilter?> filters = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, FilterTolerance?> filterSpreads = new(StringComparer.Ordinal);
+    private ResistorPowers? resistorPowers;
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -119,6 +124,58 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>The peak stages whose hold capacitor is still filling in the measured periods, by stage id.</summary>
     public IReadOnlyDictionary<string, FillingHold> FillingHolds => fillingHolds ??= HoldFilling.Compute(this);
+
+    /// <summary>
+    /// The transients at each band end that ran and reached their periodic steady state, with their chains; a failed
+    /// transient is reported once (DR920) and an unsettled one (DR925), and both are skipped, so no figure is measured on them.
+    /// </summary>
+    public IEnumerable<(BandEnd End, ElaboratedChain Chain, TransientResult Result)> SettledTransients
+    {
+        get
+        {
+            foreach (var end in BandEnds)
+            {
+                var chain = Chain(end);
+                if (!chain.Succeeded)
+                {
+                    yield break;
+                }
+
+                var result = Transient(end);
+                if (!result.Succeeded)
+                {
+                    ReportFailure("transient", result.Failure!, chain);
+                    continue;
+                }
+
+                if (!IsSettled(end))
+                {
+                    continue;
+                }
+
+                yield return (end, chain, result);
+            }
+        }
+    }
+
+    /// <summary>
+    /// The mean power of every resistor, the largest over the band ends and the resistor-tolerance corners, with the corner
+    /// where each peaks (<see cref="LoadingBandwidthStress.ResistorPowers"/>); null power when the chain cannot be analysed.
+    /// </summary>
+    public ResistorPowers ResistorPowers => resistorPowers ??= LoadingBandwidthStress.ResistorPowers.Compute(this);
+
+    /// <summary>The ideal response of a filter block stage, from its block descriptor; null for any other stage.</summary>
+    public static FilterResponse? IdealFilter(Stage stage) => stage is BlockStage block ? block.Block.Filter(BlockValues.Of(block)) : null;
+
+    /// <summary>f0, Q and pass-band gain of a filter stage measured from the nominal chain's AC analysis; null when not measurable.</summary>
+    public MeasuredFilter? Filter(StageProbe stage) =>
+        filters.TryGetValue(stage.StageId, out var m) ? m
+        : filters[stage.StageId] = IdealFilter(stage.Stage) is { } ideal ? FilterFigures.Measure(Chain(BandEnd.Top), stage, ideal) : null;
+
+    /// <summary>The worst case and Monte Carlo of a filter stage's f0, Q and pass-band gain over its part tolerances.</summary>
+    public FilterTolerance? FilterSpread(StageProbe stage) =>
+        filterSpreads.TryGetValue(stage.StageId, out var t) ? t
+        : filterSpreads[stage.StageId] = IdealFilter(stage.Stage) is { } ideal ? FilterTolerance.Run(this, stage, ideal) : null;
 
     /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
     public IReadOnlyList<StageProbe> Stages

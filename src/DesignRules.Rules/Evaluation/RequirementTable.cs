@@ -88,7 +88,7 @@ public static class RequirementTable
     ];
 
     /// <summary>The ideal response of a filter block stage; null for any other stage.</summary>
-    internal static FilterResponse? FilterOf(Stage stage) => stage is BlockStage block ? block.Block.Filter(BlockValues.Of(block)) : null;
+    internal static FilterResponse? FilterOf(Stage stage) => Figures.DesignAnalyses.IdealFilter(stage);
 
     private static RequirementKind Filter(string key, Func<Requirements, FilterTarget?> target, Func<FilterShape, bool> shapes, string reason) =>
         new(key, [RuleIds.FilterResponse, RuleIds.FilterTolerance], r => target(r)?.Span,

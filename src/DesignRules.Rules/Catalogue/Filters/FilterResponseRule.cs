@@ -1,6 +1,6 @@
 using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.Filters;
+using DesignRules.Figures.Filters;
 
 namespace DesignRules.Rules.Catalogue.Filters;
 

@@ -2,7 +2,8 @@ using DesignRules.Blocks;
 using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.Filters;
+using DesignRules.Figures;
+using DesignRules.Figures.Filters;
 
 namespace DesignRules.Rules.Catalogue.Filters;
 
@@ -36,20 +37,18 @@ internal sealed record FilterStage(StageProbe Probe, FilterResponse Ideal)
 
         foreach (var probe in chain.Stages)
         {
-            if (RequirementTable.FilterOf(probe.Stage) is { } ideal && double.IsFinite(ideal.F0) && ideal.F0 > 0)
+            if (DesignAnalyses.IdealFilter(probe.Stage) is { } ideal && double.IsFinite(ideal.F0) && ideal.F0 > 0)
             {
                 yield return new FilterStage(probe, ideal);
             }
         }
     }
 
-    /// <summary>The nominal measurement, shared by the filter rules.</summary>
-    public MeasuredFilter? Measured(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared($"filter:nominal:{Id}", () => new[] { FilterFigures.Measure(evaluation.Analyses.Chain(BandEnd.Top), Probe, Ideal) })[0];
+    /// <summary>The nominal measurement, computed once by the figures layer.</summary>
+    public MeasuredFilter? Measured(DesignEvaluation evaluation) => evaluation.Analyses.Filter(Probe);
 
-    /// <summary>The tolerance analysis (worst case and Monte Carlo), shared by the filter rules.</summary>
-    public FilterTolerance? Tolerance(DesignEvaluation evaluation) =>
-        evaluation.Analyses.Shared($"filter:tolerance:{Id}", () => new[] { FilterTolerance.Run(evaluation, Probe, Ideal) })[0];
+    /// <summary>The tolerance analysis (worst case and Monte Carlo), computed once by the figures layer.</summary>
+    public FilterTolerance? Tolerance(DesignEvaluation evaluation) => evaluation.Analyses.FilterSpread(Probe);
 
     /// <summary>The magnitude of a signed target (a pass-band gain may be written negative for an inverting form).</summary>
     public static double Magnitude(FilterTarget target) => Math.Abs(target.Value.Value.Value);

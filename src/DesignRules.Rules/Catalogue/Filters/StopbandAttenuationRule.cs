@@ -1,7 +1,7 @@
 using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.Filters;
+using DesignRules.Figures.Filters;
 
 namespace DesignRules.Rules.Catalogue.Filters;
 

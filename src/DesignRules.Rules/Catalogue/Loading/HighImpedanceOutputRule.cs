@@ -28,7 +28,7 @@ internal sealed class HighImpedanceOutputRule : Rule
 
         var worst = new Dictionary<string, double>(StringComparer.Ordinal);
         var probes = new Dictionary<string, StageProbe>(StringComparer.Ordinal);
-        foreach (var (_, chain, result) in TransientRuns.Of(evaluation))
+        foreach (var (_, chain, result) in evaluation.Analyses.SettledTransients)
         {
             foreach (var stage in chain.Stages)
             {
@@ -122,7 +122,7 @@ internal sealed class HighImpedanceOutputRule : Rule
 
     private static double Deviation(ElaboratedChain chain, Simulation.Results.TransientResult result, StageProbe stage, DiodeProbe diode, bool held)
     {
-        var (start, end) = TransientRuns.Window(chain, result);
+        var (start, end) = MeasurementWindow.Of(chain, result);
         var time = result.Time;
         var anode = result.Voltage(diode.Anode);
         var cathode = result.Voltage(diode.Cathode);

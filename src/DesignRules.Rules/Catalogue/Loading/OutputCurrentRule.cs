@@ -18,7 +18,7 @@ internal sealed class OutputCurrentRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var peaks = new Dictionary<string, (AmplifierDemand Demand, Elaboration.StageProbe Stage, Elaboration.AmplifierProbe Amplifier, ToleranceCorner? Corner)>(StringComparer.Ordinal);
-        var runs = TransientRuns.Of(evaluation).Select(r => (Corner: (ToleranceCorner?)null, r.Chain, Demands: OutputCurrentDemand.At(evaluation.Analyses, r.End)))
+        var runs = evaluation.Analyses.SettledTransients.Select(r => (Corner: (ToleranceCorner?)null, r.Chain, Demands: OutputCurrentDemand.At(evaluation.Analyses, r.End)))
             .Concat(evaluation.Analyses.CornerDemands.Select(c => ((ToleranceCorner?)c.Corner, c.Chain, c.Demands)));
         foreach (var (corner, chain, demands) in runs)
         {

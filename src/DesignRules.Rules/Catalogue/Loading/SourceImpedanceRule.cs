@@ -54,9 +54,9 @@ internal sealed class SourceImpedanceRule : Rule
         }
         else
         {
-            foreach (var (_, chain, result) in TransientRuns.Of(evaluation))
+            foreach (var (_, chain, result) in evaluation.Analyses.SettledTransients)
             {
-                var (start, end) = TransientRuns.Window(chain, result);
+                var (start, end) = MeasurementWindow.Of(chain, result);
                 var emf = result.Voltage(chain.SourceEmfNode);
                 var inPlus = result.Voltage(first.InputNode);
                 var inMinus = Circuit.IsReference(first.ReferenceInputNode) ? null : result.Voltage(first.ReferenceInputNode);

@@ -16,7 +16,7 @@ internal sealed class DiodeForwardCurrentRule : Rule
     public override void Evaluate(DesignEvaluation evaluation) =>
         DiodeStress.Evaluate(evaluation, Id, FigureKinds.DiodeForwardCurrent, FigureKinds.DeratedForwardCurrent, (chain, result, diode) =>
         {
-            var (start, end) = TransientRuns.Window(chain, result);
+            var (start, end) = MeasurementWindow.Of(chain, result);
             var anode = DiodeStress.Voltages(result, diode.Anode);
             var cathode = DiodeStress.Voltages(result, diode.Cathode);
             double forward = double.NegativeInfinity;

@@ -15,7 +15,7 @@ internal sealed class DiodeReverseVoltageRule : Rule
     public override void Evaluate(DesignEvaluation evaluation) =>
         DiodeStress.Evaluate(evaluation, Id, FigureKinds.DiodeReverseVoltage, FigureKinds.DeratedReverseVoltage, (chain, result, diode) =>
         {
-            var (start, end) = TransientRuns.Window(chain, result);
+            var (start, end) = MeasurementWindow.Of(chain, result);
             var anode = DiodeStress.Voltages(result, diode.Anode);
             var cathode = DiodeStress.Voltages(result, diode.Cathode);
             double peak = 0;

@@ -15,7 +15,7 @@ internal sealed class UnratedResistorRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var chain = evaluation.Analyses.Chain(Elaboration.BandEnd.Top);
-        if (!chain.Succeeded || ResistorPowerRule.Powers(evaluation) is not { } power)
+        if (!chain.Succeeded || evaluation.Analyses.ResistorPowers.Power is not { } power)
         {
             return;
         }

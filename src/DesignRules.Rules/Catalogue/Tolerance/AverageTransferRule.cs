@@ -20,14 +20,14 @@ internal sealed class AverageTransferRule : Rule
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var worst = new Dictionary<string, Level>(StringComparer.Ordinal);
-        foreach (var (_, chain, result) in TransientRuns.Of(evaluation))
+        foreach (var (_, chain, result) in evaluation.Analyses.SettledTransients)
         {
             if (chain.Period is null)
             {
                 continue;
             }
 
-            var (start, end) = TransientRuns.Window(chain, result);
+            var (start, end) = MeasurementWindow.Of(chain, result);
             for (int k = 0; k < chain.Stages.Count; k++)
             {
                 var stage = chain.Stages[k];

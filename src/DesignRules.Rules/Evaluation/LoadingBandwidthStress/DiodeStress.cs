@@ -11,7 +11,7 @@ internal static class DiodeStress
         Func<DiodeProbe, double> rating, Func<double, string> say, string placeholder)
     {
         var worst = new Dictionary<string, (double Value, StageProbe Stage, DiodeProbe Diode)>(StringComparer.Ordinal);
-        foreach (var (_, chain, result) in TransientRuns.Of(evaluation))
+        foreach (var (_, chain, result) in evaluation.Analyses.SettledTransients)
         {
             foreach (var stage in chain.Stages)
             {
