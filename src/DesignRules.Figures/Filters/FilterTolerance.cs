@@ -9,8 +9,9 @@ namespace DesignRules.Figures.Filters;
 /// The spread of a filter stage's f0, Q and pass-band gain over its resistor and capacitor tolerances: the extreme-value
 /// worst case over every vertex of the tolerance box (up to 2^10 corners; beyond that the vertices the one-at-a-time
 /// sensitivities point to), and a seeded Monte Carlo with the rule set's sample count, seed and distribution (the same
-/// per-sample draws as the transfer's Monte Carlo). Each corner and sample re-elaborates the chain with the changed values
-/// (the elaborator's value overrides) and measures it with <see cref="FilterFigures.Measure"/>.
+/// per-sample draws as the transfer's Monte Carlo). Each corner and sample copies the nominal chain's circuit with the changed
+/// resistor and capacitor values (<see cref="Circuit.WithValues"/>; the design is not elaborated again) and measures it with
+/// <see cref="FilterFigures.Measure"/>.
 /// </summary>
 /// <param name="Nominal">The nominal figures.</param>
 /// <param name="F0">Lowest and highest f0 over the corners, Hz.</param>
@@ -44,9 +45,7 @@ internal sealed record FilterTolerance(MeasuredFilter Nominal, Interval F0, Inte
         {
             var values = new Dictionary<string, double>(StringComparer.Ordinal);
             for (int i = 0; i < parts.Length; i++) values[parts[i].ElementId] = parts[i].NominalValue * (1 + (u[i] * parts[i].Tolerance));
-            var built = ChainElaborator.Elaborate(analyses.Design, chain.Options with { Values = values });
-            var probe = built.Succeeded ? built.Stage(stage.StageId) : null;
-            return probe is null ? null : FilterFigures.Measure(built, probe, ideal, edges: false);
+            return FilterFigures.Measure(chain with { Circuit = chain.Circuit.WithValues(values) }, stage, ideal, edges: false);
         }
 
         var corners = new List<double[]>();

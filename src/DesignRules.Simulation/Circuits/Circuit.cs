@@ -132,6 +132,28 @@ public sealed class Circuit
     public Circuit AddAmplifier(string id, string nonInverting, string inverting, string output, AmplifierModel model, SupplyRails rails) =>
         Add(new AmplifierDefinition(id, nonInverting, inverting, output, model, rails));
 
+    /// <summary>
+    /// A copy with the named resistors' and capacitors' values replaced (Ω, F), every other element unchanged: a tolerance
+    /// corner or a Monte Carlo sample of a linear analysis without building the circuit again from its design.
+    /// </summary>
+    /// <param name="values">New value by element id; ids of other kinds or unknown ids are ignored.</param>
+    public Circuit WithValues(IReadOnlyDictionary<string, double> values)
+    {
+        ArgumentNullException.ThrowIfNull(values);
+        var copy = new Circuit { Temperature = Temperature };
+        foreach (var element in elements)
+        {
+            copy.Add(element switch
+            {
+                ResistorDefinition r when values.TryGetValue(r.Id, out var ohms) => r with { Resistance = ohms },
+                CapacitorDefinition c when values.TryGetValue(c.Id, out var farads) => c with { Capacitance = farads },
+                _ => element,
+            });
+        }
+
+        return copy;
+    }
+
     private Circuit Add(ElementDefinition element)
     {
         ArgumentException.ThrowIfNullOrWhiteSpace(element.Id);
