@@ -59,8 +59,8 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public Design Design { get; } = design;
 
     /// <summary>
-    /// A value the rules layer computes once per design under <paramref name="key"/> (a judgement, not a figure: the
-    /// figures have named members above).
+    /// A judgement the rules layer computes once per design under <paramref name="key"/> (today only the yield verdict of
+    /// the Monte Carlo against its confidence bound). Never a figure: every figure has a named member here.
     /// </summary>
     public T Shared<T>(string key, Func<T> compute)
         where T : notnull
