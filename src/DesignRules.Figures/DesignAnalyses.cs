@@ -39,7 +39,6 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private readonly Dictionary<int, LoadingBandwidthStress.Loading?> loadings = [];
     private readonly Dictionary<string, WorstCaseAnalysis> worstCases = new(StringComparer.Ordinal);
     private readonly Dictionary<string, MonteCarloYield> monteCarlos = new(StringComparer.Ordinal);
-    private readonly Dictionary<string, object> shared = new(StringComparer.Ordinal);
     private OperatingPointResult? operatingPoint;
     private AcResult? ac;
     private Lazy<SmallSignal?>? smallSignal;
@@ -57,22 +56,6 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>The design the analyses are of.</summary>
     public Design Design { get; } = design;
-
-    /// <summary>
-    /// A judgement the rules layer computes once per design under <paramref name="key"/> (today only the yield verdict of
-    /// the Monte Carlo against its confidence bound). Never a figure: every figure has a named member here.
-    /// </summary>
-    public T Shared<T>(string key, Func<T> compute)
-        where T : notnull
-    {
-        if (!shared.TryGetValue(key, out var value))
-        {
-            value = compute();
-            shared[key] = value;
-        }
-
-        return (T)value;
-    }
 
     /// <summary>Reports a failed analysis to the rules layer (DR920).</summary>
     public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain) => failures.Failed(analysis, failure, chain);

@@ -110,6 +110,9 @@ internal sealed class DesignEvaluation : IAnalysisFailures
     /// <summary>The recorded yield estimates, in the order they were judged.</summary>
     public IReadOnlyList<YieldEstimate> Yields => yields;
 
+    /// <summary>The Monte Carlo yield verdict of each stage by stage id, judged once and shared by DR402 and DR406.</summary>
+    internal Dictionary<string, Tolerance.YieldJudgement> YieldJudgements { get; } = new(StringComparer.Ordinal);
+
     /// <summary>The rule-set file in force, or null when the defaults apply.</summary>
     public string? RuleSetFile => ruleSet.File;
 

@@ -41,7 +41,8 @@ internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield Mo
             return null;
         }
 
-        return evaluation.Analyses.Shared($"tolerance:yield:{stage.StageId}", () => Run(evaluation, stage, analysis, accuracy));
+        return evaluation.YieldJudgements.TryGetValue(stage.StageId, out var known) ? known
+            : evaluation.YieldJudgements[stage.StageId] = Run(evaluation, stage, analysis, accuracy);
     }
 
     private static YieldJudgement Run(DesignEvaluation evaluation, StageProbe stage, WorstCaseAnalysis analysis, double accuracy)
