@@ -11,6 +11,7 @@ public sealed class FilterFormulaTests
     [Theory]
     [InlineData("filters/sallen-key-cutoff-5pct-capacitors.yaml")]
     [InlineData("filters/sallen-key-cutoff-1pct-capacitors.yaml")]
+    [InlineData("filters/sallen-key-cutoff-1pct-over-temperature.yaml")]
     [InlineData("filters/butterworth-sallen-key.yaml")]
     [InlineData("filters/unequal-sallen-key.yaml")]
     [InlineData("filters/mfb-band-pass-equal-c.yaml")]
@@ -95,6 +96,27 @@ public sealed class FilterFormulaTests
         Assert.Equal(f0, figures["measured f0"], f0 * 2e-3);
         Assert.Equal(q, figures["measured Q"], q * 3e-3);
         Assert.Equal(r2 / r1, figures["measured pass-band gain"], 2e-3);
+    }
+
+    [Fact]
+    public void Over_an_operating_range_the_cutoff_spread_adds_each_parts_tempco_and_names_the_worst_end()
+    {
+        // f0 = 1/(2π·√(R1R2C1C2)) (Schaumann & Van Valkenburg): with every part at the low end of its spread f0 rises by
+        // 1/((1 − sR)(1 − sC)) − 1. At −40 °C (65 K from 25 °C) sR = 1 % + 50 ppm/K·65 K and sC = 1 % + 100 ppm/K·65 K
+        // (the fixture's families), so +3.04 %: beyond the 3 % the design asks; at 25 °C alone it is 1/0.99² − 1 = +2.03 %.
+        double sR = 0.01 + (50e-6 * 65), sC = 0.01 + (100e-6 * 65);
+        double expected = (1 / ((1 - sR) * (1 - sC))) - 1;
+        var report = RuleFixture.Verify("filters/sallen-key-cutoff-1pct-over-temperature.yaml");
+        var figures = Assert.Single(report.Designs).StageFigures.Single(s => s.Key == "antialias").Value
+            .GroupBy(f => f.Name).ToDictionary(g => g.Key, g => g.First().Value, StringComparer.Ordinal);
+        double measured = figures["measured f0"], nominal = 1 / (2 * Math.PI * Math.Sqrt(10e3 * 10e3 * 22e-9 * 10e-9));
+        Assert.Equal(((measured / nominal) * (1 + expected)) - 1, figures["worst-case f0 deviation"], 1e-3);
+        var finding = Assert.Single(report.Findings, f => f.RuleId == "DR410");
+        Assert.Contains("tempcos over -40 °C to 85 °C (worst at -40 °C)", finding.Message, StringComparison.Ordinal);
+
+        var atRoom = Assert.Single(RuleFixture.Verify("filters/sallen-key-cutoff-1pct-capacitors.yaml").Designs).StageFigures
+            .Single(s => s.Key == "antialias").Value.First(f => f.Name == "worst-case f0 deviation").Value;
+        Assert.Equal((1 / (0.99 * 0.99)) - 1, atRoom, 1e-3);
     }
 
     private static Dictionary<string, double> Figures(string fixture)

@@ -1,4 +1,5 @@
 using DesignRules.Diagnostics;
+using DesignRules.Figures.Filters;
 using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Catalogue.Filters;
@@ -6,7 +7,8 @@ namespace DesignRules.Rules.Catalogue.Filters;
 /// <summary>
 /// DR410: a filter stage's f0, Q and pass-band gain over its resistor and capacitor tolerances (extreme-value worst case
 /// over the tolerance box, and the seeded Monte Carlo's share of samples within the requirement), against the stage's
-/// requirements. Runs only for filter stages that state one of them.
+/// requirements; where the design declares an operating range, over the parts' tempcos too, naming the worst temperature.
+/// Runs only for filter stages that state one of them.
 /// </summary>
 internal sealed class FilterToleranceRule : Rule
 {
@@ -50,6 +52,7 @@ internal sealed class FilterToleranceRule : Rule
                     ["figure"] = t.Name,
                     ["low"] = t.Say(range.Low),
                     ["high"] = t.Say(range.High),
+                    ["temperature"] = Temperature(evaluation, tolerance, t.Key, target),
                     ["corners"] = tolerance.Corners.ToString(System.Globalization.CultureInfo.InvariantCulture),
                     ["share"] = double.IsFinite(yield) ? Say.Percent(yield) : "none",
                     ["samples"] = tolerance.Samples.Length.ToString(System.Globalization.CultureInfo.InvariantCulture),
@@ -59,5 +62,18 @@ internal sealed class FilterToleranceRule : Rule
                 }, kinds.WorstDeviation.Of(error).AtMost(within));
             }
         }
+    }
+
+    /// <summary>" and tempcos over −40 °C to 85 °C (worst at 85 °C)" where the design declares a range; empty otherwise.</summary>
+    private static string Temperature(DesignEvaluation evaluation, FilterTolerance tolerance, string key, double target)
+    {
+        if (evaluation.Design.Temperature is not { } range ||
+            tolerance.WorstTemperature(s => key switch { "q" => s.Q, "passband-gain" => s.Gain, _ => s.F0 }, target) is not { } worst)
+        {
+            return string.Empty;
+        }
+
+        static string Celsius(double t) => new Quantities.Quantity(t, Quantities.Dimension.Temperature).Format();
+        return $" and tempcos over {Celsius(range.Value.Low.Value)} to {Celsius(range.Value.High.Value)} (worst at {Celsius(worst)})";
     }
 }
