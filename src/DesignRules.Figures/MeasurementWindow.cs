@@ -20,22 +20,32 @@ internal static class MeasurementWindow
         return periods < 1 ? (from, end) : (end - (periods * period), end);
     }
 
-    /// <summary>Average of f(sample) over [start, end] by the trapezoidal rule on the transient's own time points.</summary>
-    public static double Average(IReadOnlyList<double> time, Func<int, double> f, double start, double end)
+    /// <summary>
+    /// Average over [start, end] by the trapezoidal rule on the transient's own time points, interpolating linearly at the
+    /// window's ends; the last value when the window is empty.
+    /// </summary>
+    public static double Average(IReadOnlyList<double> time, double[] v, double start, double end)
     {
-        double sum = 0, span = 0;
+        if (!(end > start))
+        {
+            return v[^1];
+        }
+
+        double sum = 0;
         for (int i = 1; i < time.Count; i++)
         {
-            if (time[i - 1] < start - 1e-15 || time[i] > end + 1e-15)
+            double t0 = Math.Max(time[i - 1], start), t1 = Math.Min(time[i], end);
+            if (t1 <= t0)
             {
                 continue;
             }
 
-            double dt = time[i] - time[i - 1];
-            sum += 0.5 * (f(i) + f(i - 1)) * dt;
-            span += dt;
+            double span = time[i] - time[i - 1];
+            double va = v[i - 1] + ((v[i] - v[i - 1]) * (t0 - time[i - 1]) / span);
+            double vb = v[i - 1] + ((v[i] - v[i - 1]) * (t1 - time[i - 1]) / span);
+            sum += 0.5 * (va + vb) * (t1 - t0);
         }
 
-        return span > 0 ? sum / span : f(time.Count - 1);
+        return sum / (end - start);
     }
 }

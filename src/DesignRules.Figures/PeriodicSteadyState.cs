@@ -140,9 +140,9 @@ internal static class PeriodicSteadyState
         foreach (var node in watched.Where(result.HasNode))
         {
             var v = result.Voltage(node);
-            double a0 = Average(time, v, stop - (3 * span), stop - (2 * span));
-            double a1 = Average(time, v, stop - (2 * span), stop - span);
-            double a2 = Average(time, v, stop - span, stop);
+            double a0 = MeasurementWindow.Average(time, v, stop - (3 * span), stop - (2 * span));
+            double a1 = MeasurementWindow.Average(time, v, stop - (2 * span), stop - span);
+            double a2 = MeasurementWindow.Average(time, v, stop - span, stop);
             double scale = Excursion(time, v, stop - span, stop);
             double tolerance = Math.Max(limits.RelativeTolerance * scale, limits.AbsoluteTolerance);
             double d1 = a1 - a0, d2 = a2 - a1;
@@ -202,27 +202,6 @@ internal static class PeriodicSteadyState
         double w = span > 0 ? Math.Clamp((t - time[lo]) / span, 0, 1) : 0;
         for (int i = 0; i < a.Length; i++) a[i] += (b[i] - a[i]) * w;
         return a;
-    }
-
-    /// <summary>Average over [start, end] by the trapezoidal rule, interpolating linearly at the window's ends.</summary>
-    internal static double Average(IReadOnlyList<double> time, double[] v, double start, double end)
-    {
-        double sum = 0;
-        for (int i = 1; i < time.Count; i++)
-        {
-            double t0 = Math.Max(time[i - 1], start), t1 = Math.Min(time[i], end);
-            if (t1 <= t0)
-            {
-                continue;
-            }
-
-            double span = time[i] - time[i - 1];
-            double va = v[i - 1] + ((v[i] - v[i - 1]) * (t0 - time[i - 1]) / span);
-            double vb = v[i - 1] + ((v[i] - v[i - 1]) * (t1 - time[i - 1]) / span);
-            sum += 0.5 * (va + vb) * (t1 - t0);
-        }
-
-        return sum / (end - start);
     }
 
     private static double Excursion(IReadOnlyList<double> time, double[] v, double start, double end)

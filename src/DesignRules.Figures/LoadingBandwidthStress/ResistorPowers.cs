@@ -73,7 +73,9 @@ internal sealed record ResistorPowers(IReadOnlyDictionary<string, double>? Power
         {
             var a = result.Voltage(r.NodeA);
             var b = result.Voltage(r.NodeB);
-            yield return (r.ElementId, MeasurementWindow.Average(result.Time, i => Square(a[i] - b[i]) / r.Value, start, end));
+            var power = new double[a.Length];
+            for (int i = 0; i < power.Length; i++) power[i] = Square(a[i] - b[i]) / r.Value;
+            yield return (r.ElementId, MeasurementWindow.Average(result.Time, power, start, end));
         }
     }
 

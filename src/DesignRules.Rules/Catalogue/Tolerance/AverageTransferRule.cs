@@ -37,9 +37,9 @@ internal sealed class AverageTransferRule : Rule
                 }
 
                 var (idealInput, basis) = IdealInput(chain, result, k);
-                double inputMean = PeriodicSteadyState.Average(result.Time, idealInput, start, end);
+                double inputMean = MeasurementWindow.Average(result.Time, idealInput, start, end);
                 double ideal = stage.Transfer.At(inputMean);
-                double level = PeriodicSteadyState.Average(result.Time, result.Voltage(stage.OutputNode), start, end);
+                double level = MeasurementWindow.Average(result.Time, result.Voltage(stage.OutputNode), start, end);
                 double error = Math.Abs(ideal) > 1e-9 ? Math.Abs(level - ideal) / Math.Abs(ideal) : double.NaN;
                 var current = new Level(level, ideal, error, basis);
                 if (!worst.TryGetValue(stage.StageId, out var previous) || (error > previous.Error))
