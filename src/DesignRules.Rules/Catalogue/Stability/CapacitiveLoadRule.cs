@@ -79,7 +79,9 @@ internal sealed class CapacitiveLoadRule : Rule
                 figuresOut.Add(new Figure("isolation resistor", ri, "Ω"));
             }
 
-            evaluation.Report(Id, stageId, amp.PartSpan, new Dictionary<string, string>
+            // Reported at the capacitance (its value is what changes, or where the resistor goes), else at the part.
+            var span = chain.Locate(capacitors.OrderByDescending(c => chain.Circuit.Capacitance(c)).First());
+            evaluation.Report(Id, stageId, span == chain.Design.Id.Span ? amp.PartSpan : span, new Dictionary<string, string>
             {
                 ["amplifier"] = $"{stageId}.{amp.Slot}",
                 ["capacitance"] = StabilityAnalyses.Farads(load),
@@ -143,21 +145,23 @@ internal sealed class CapacitiveLoadRule : Rule
         return load * Math.Exp(lo);
     }
 
-    // The E24 preferred value at or above r (IEC 60063).
+    // The E24 preferred value at or above r (IEC 60063): the series' mantissas scaled to r's decade and the next.
     private static double NextE24(double r)
     {
-        var decade = Math.Pow(10, Math.Floor(Math.Log10(r)) - 2);
+        var mantissas = ESeries.E24.Mantissas;
+        var unit = Math.Pow(10, Math.Floor(Math.Log10(mantissas[0])));
+        var decade = Math.Pow(10, Math.Floor(Math.Log10(r)));
         foreach (var scale in new[] { decade, decade * 10 })
         {
-            foreach (var m in ESeries.E24.Mantissas)
+            foreach (var m in mantissas)
             {
-                if (m * scale >= r * (1 - 1e-9))
+                if (m / unit * scale >= r * (1 - 1e-9))
                 {
-                    return m * scale;
+                    return m / unit * scale;
                 }
             }
         }
 
-        return decade * 1000;
+        return decade * 10;
     }
 }

@@ -23,7 +23,8 @@ internal sealed class LoopPeakingRule : Rule
             }
 
             var limit = evaluation.Threshold(Id, "max-peaking", stageId);
-            evaluation.Record(stageId, new Figure($"loop peaking {amp.Slot}", m.Peaking, "1").AtMost(limit));
+            // Recorded in dB, as the trade reads a peak.
+            evaluation.Record(stageId, new Figure($"loop peaking {amp.Slot}", 20 * Math.Log10(m.Peaking), "dB").AtMost(20 * Math.Log10(limit)));
             if (m.Peaking <= limit)
             {
                 continue;
@@ -37,7 +38,7 @@ internal sealed class LoopPeakingRule : Rule
                 ["point"] = loop.OperatingPoint,
                 ["limit"] = Say.Decibels(limit),
                 ["over"] = (20 * Math.Log10(m.Peaking / limit)).ToString("0.#", System.Globalization.CultureInfo.InvariantCulture) + " dB",
-            }, new Figure("loop peaking", m.Peaking, "1").AtMost(limit), new Figure("peaking frequency", m.PeakingFrequency, "Hz"));
+            }, new Figure("loop peaking", 20 * Math.Log10(m.Peaking), "dB").AtMost(20 * Math.Log10(limit)), new Figure("peaking frequency", m.PeakingFrequency, "Hz"));
         }
     }
 }
