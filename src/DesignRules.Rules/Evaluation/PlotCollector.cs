@@ -80,7 +80,7 @@ internal static class PlotCollector
                 bode = new BodePlot(ac.Frequencies.ToArray(), magnitude, phase);
             }
 
-            plots.Add(new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId)));
+            plots.Add(StabilityPlotData.With(evaluation, new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId))));
         }
 
         return plots;
