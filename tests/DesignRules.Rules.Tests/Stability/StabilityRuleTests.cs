@@ -8,6 +8,7 @@ public sealed class StabilityRuleTests
     [Theory]
     [InlineData("stability/follower-driving-cable.yaml")]
     [InlineData("stability/follower-cable-isolated.yaml")]
+    [InlineData("stability/line-driver-beyond-stated-load.yaml")]
     public void Each_fixture_yields_exactly_its_stated_stability_findings(string fixture) => RuleFixture.Verify(fixture);
 
     [Fact]
