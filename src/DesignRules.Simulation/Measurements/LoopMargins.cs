@@ -105,7 +105,8 @@ public sealed record LoopMargins(
         for (int i = 0; i < count; i++)
         {
             double p = gain[i].Phase * 180 / Math.PI;
-            phase[i] = i == 0 ? p : PhaseNear(gain[i], phase[i - 1]);
+            // A point where the equations were singular (NaN) is carried over, not allowed to poison the unwrapping after it.
+            phase[i] = i == 0 || !double.IsFinite(phase[i - 1]) ? p : PhaseNear(gain[i], phase[i - 1]);
         }
 
         return phase;
