@@ -38,7 +38,7 @@ internal static class StepAnalyses
     private const int TracePoints = 400;
 
     /// <summary>Largest number of time steps the record may need at its smallest step.</summary>
-    private const double MaxSteps = 40_000;
+    private const double MaxSteps = 10_000;
 
     public static StepFigures Steps(this DesignAnalyses analyses) =>
         analyses.Shared("stability:step", () => Compute(analyses.LoopGains()));
@@ -46,14 +46,15 @@ internal static class StepAnalyses
     private static StepFigures Compute(LoopGainFigures loops)
     {
         var chain = loops.Chain;
-        var crossovers = loops.Loops.Where(l => l.Loop.Margins.State == LoopState.Closed).Select(l => l.Loop.Margins.Crossover!.Value).ToArray();
+        // The step starts from the quiescent point, so the loops closed there set its time scale.
+        var crossovers = loops.Loops.Where(l => l.BiasValue is null && l.Loop.Margins.State == LoopState.Closed).Select(l => l.Loop.Margins.Crossover!.Value).ToArray();
         if (!chain.Succeeded || crossovers.Length == 0)
         {
             return new StepFigures([], StepSize, null, chain);
         }
 
         double fast = 2 * Math.PI * crossovers.Max(), slow = 2 * Math.PI * crossovers.Min();
-        double start = 5 / fast, rise = 0.05 / fast, maxStep = 0.25 / fast;
+        double start = 5 / fast, rise = 0.05 / fast, maxStep = 0.5 / fast;
         double record = Math.Min(60 / slow, MaxSteps * maxStep);
         double v0 = chain.SourceWaveform.DcValue;
         var step = new PiecewiseLinearWaveform([new(start, v0), new(start + rise, v0 + StepSize)]);
