@@ -38,7 +38,14 @@ public sealed class ResultCacheTests : IDisposable
         var parts = Directory.GetFiles(Path.Combine(repo.Root, "parts"), "*.yaml").Single();
         File.AppendAllText(parts, "# a comment is a change of content too\n");
         var (_, evaluated) = repo.Run();
-        Assert.Equal(["door-impact-peak-hold"], evaluated);
+        // Exactly the designs whose libraries name this parts file (the peak hold's amplifier, the bridge's film capacitors).
+        var users = Directory.GetFiles(Path.Combine(repo.Root, "designs"), "*.yaml")
+            .Where(d => File.ReadLines(d).Any(l => l.StartsWith("libraries:", StringComparison.Ordinal) && l.Contains(Path.GetFileName(parts), StringComparison.Ordinal)))
+            .Select(d => Path.GetFileNameWithoutExtension(d))
+            .Order(StringComparer.Ordinal)
+            .ToArray();
+        Assert.Equal(["door-impact-peak-hold", "suction-pressure-bridge"], users);
+        Assert.Equal(users, evaluated.Order(StringComparer.Ordinal));
     }
 
     [Fact]
