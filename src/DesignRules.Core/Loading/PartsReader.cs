@@ -117,6 +117,7 @@ internal static class PartsReader
         var maxDiff = m.Quantity("max-differential-input", Dimension.Voltage, required: false, ValueChecks.Positive);
         var noise = m.Quantity("noise-density", Dimension.VoltageNoiseDensity, required: false, ValueChecks.NotNegative);
         var recovery = m.Quantity("overload-recovery", Dimension.Time, required: false, ValueChecks.NotNegative);
+        var capacitiveLoad = m.Quantity("capacitive-load", Dimension.Capacitance, required: false, ValueChecks.Positive);
 
         if (gbw is null || rising is null || falling is null || a0 is null || outHeadroom is null || iout is null ||
             inputRange is null || vos is null || ib is null || spanMin is null || spanMax is null)
@@ -125,7 +126,7 @@ internal static class PartsReader
         }
 
         return new AmplifierPart(id, description, typical, gbw, rising, falling, a0, secondPole, outHeadroom, headroomLoad,
-            rout, iout, inputRange, vos, ib, minGain, spanMin, spanMax, maxDiff, noise, recovery, m.Span) { OffsetCurrent = ios };
+            rout, iout, inputRange, vos, ib, minGain, spanMin, spanMax, maxDiff, noise, recovery, m.Span) { OffsetCurrent = ios, CapacitiveLoad = capacitiveLoad };
     }
 
     private static (Located<Quantity>? Rising, Located<Quantity>? Falling) ReadSlew(MappingReader m)

@@ -65,6 +65,9 @@ public sealed record AmplifierPart(
     /// offset budget takes the two bias currents as equal.
     /// </summary>
     public TypicalAndMaximum? OffsetCurrent { get; init; }
+
+    /// <summary>The largest capacitance the part is specified to drive stably at its output, if the part states one.</summary>
+    public Located<Quantity>? CapacitiveLoad { get; init; }
 }
 
 /// <summary>A diode class or part. Either a saturation current and emission coefficient or a forward-voltage point is given.</summary>
