@@ -1,8 +1,6 @@
-using System.Globalization;
 using DesignRules.Elaboration;
-using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures.Stability;
 
 /// <summary>
 /// The loop of one amplifier as the stability rules judge it: the loop gain at the operating point where its margin is
@@ -16,11 +14,7 @@ namespace DesignRules.Rules.Evaluation;
 /// <param name="Frequencies">Frequencies of <see cref="LoopGain.Gain"/>, Hz.</param>
 /// <param name="Loop">The loop gain and its margins.</param>
 /// <param name="BiasValue">The source's value at the operating point used, V; null for the quiescent point.</param>
-internal sealed record AmplifierLoop(string StageId, string Slot, string ElementId, string OutputNode, IReadOnlyList<double> Frequencies, LoopGain Loop, double? BiasValue)
-{
-    /// <summary>The operating point in words, for messages and pages.</summary>
-    public string OperatingPoint => BiasValue is { } v ? "with the source held at " + Say.Volts(v) : "at the quiescent operating point";
-}
+internal sealed record AmplifierLoop(string StageId, string Slot, string ElementId, string OutputNode, IReadOnlyList<double> Frequencies, LoopGain Loop, double? BiasValue);
 
 /// <summary>Every amplifier loop of a design, or the failure that stopped the analysis.</summary>
 internal sealed record LoopGainFigures(IReadOnlyList<AmplifierLoop> Loops, SimulationFailure? Failure, ElaboratedChain Chain)
@@ -30,20 +24,16 @@ internal sealed record LoopGainFigures(IReadOnlyList<AmplifierLoop> Loops, Simul
 }
 
 /// <summary>
-/// The loop-gain analysis of a design, run once and shared by the stability rules (DR510-DR514) and the pages: one
-/// engine loop-gain run per operating point covers every amplifier.
+/// The loop-gain analysis of a design (<see cref="DesignAnalyses.LoopGains"/>, run once and shared by the stability rules
+/// and the pages): one engine loop-gain run per operating point covers every amplifier.
 /// </summary>
-internal static class StabilityAnalyses
+internal static class LoopGainAnalyses
 {
     /// <summary>
     /// The sweep every loop is read over: 1 Hz to 1 GHz, 10 points a decade (enough to bracket every crossing and to
     /// unwrap the phase of any loop without a resonance sharper than a tenth of a decade), crossings placed by bisection.
     /// </summary>
     public static LoopGainRequest Sweep { get; } = LoopGainRequest.Decades(1, 1e9, 10);
-
-    /// <summary>The shared loop-gain figures of the design.</summary>
-    public static LoopGainFigures LoopGains(this DesignAnalyses analyses) =>
-        analyses.Shared("stability:loop-gain", () => Compute(analyses.Chain(BandEnd.Top)));
 
     /// <summary>The margins of one amplifier of <paramref name="circuit"/> (a variant of the chain's) at a loop's operating point.</summary>
     public static LoopMargins? MarginsOf(Circuit circuit, ElaboratedChain chain, AmplifierLoop loop)
@@ -53,7 +43,8 @@ internal static class StabilityAnalyses
         return result.Succeeded ? result.Loop(loop.ElementId)?.Margins : null;
     }
 
-    private static LoopGainFigures Compute(ElaboratedChain chain)
+    /// <summary>Every amplifier loop of <paramref name="chain"/> at the operating point where its margin is smallest.</summary>
+    public static LoopGainFigures Compute(ElaboratedChain chain)
     {
         if (!chain.Succeeded)
         {
@@ -134,10 +125,4 @@ internal static class StabilityAnalyses
             yield return low;
         }
     }
-
-    /// <summary>Capacitance for messages, engineering notation.</summary>
-    public static string Farads(double c) => new Quantities.Quantity(c, Quantities.Dimension.Capacitance).Format();
-
-    /// <summary>Degrees for messages: "38.2°".</summary>
-    public static string Degrees(double degrees) => degrees.ToString("0.#", CultureInfo.InvariantCulture) + "°";
 }

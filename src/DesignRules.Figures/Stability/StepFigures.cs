@@ -1,14 +1,32 @@
 using DesignRules.Elaboration;
-using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Figures.Stability;
+
+/// <summary>Which node a step trace records.</summary>
+internal enum StepNode
+{
+    /// <summary>The stage input.</summary>
+    Input,
+
+    /// <summary>The stage output.</summary>
+    StageOutput,
+
+    /// <summary>An amplifier output that is not the stage output.</summary>
+    AmplifierOutput,
+}
+
+/// <summary>One node's answer to the step, resampled on the plot grid.</summary>
+/// <param name="Node">The node name.</param>
+/// <param name="Role">What the node is in its stage.</param>
+/// <param name="Values">Voltages on the grid, V.</param>
+internal sealed record StepTrace(string Node, StepNode Role, IReadOnlyList<double> Values);
 
 /// <summary>How one stage's output answers the small step, with the record drawn on the page when the stage rings.</summary>
 /// <param name="StageId">The stage.</param>
 /// <param name="Response">Overshoot and settling of the stage output.</param>
 /// <param name="Time">Uniform time grid of the plot, s from the step.</param>
 /// <param name="Traces">Stage input, stage output and every amplifier output on that grid.</param>
-internal sealed record StageStep(string StageId, StepResponse Response, IReadOnlyList<double> Time, IReadOnlyList<Trace> Traces);
+internal sealed record StageStep(string StageId, StepResponse Response, IReadOnlyList<double> Time, IReadOnlyList<StepTrace> Traces);
 
 /// <summary>The step analysis of a design: a small step at the source, each stage output measured; or why it did not run.</summary>
 /// <param name="Stages">Stages whose output settled within the record.</param>
@@ -40,10 +58,8 @@ internal static class StepAnalyses
     /// <summary>Largest number of time steps the record may need at its smallest step.</summary>
     private const double MaxSteps = 10_000;
 
-    public static StepFigures Steps(this DesignAnalyses analyses) =>
-        analyses.Shared("stability:step", () => Compute(analyses.LoopGains()));
-
-    private static StepFigures Compute(LoopGainFigures loops)
+    /// <summary>The step answer of every stage of the loops' chain; the loops closed at the quiescent point set the record.</summary>
+    public static StepFigures Compute(LoopGainFigures loops)
     {
         var chain = loops.Chain;
         // The step starts from the quiescent point, so the loops closed there set its time scale.
@@ -80,13 +96,13 @@ internal static class StepAnalyses
                 continue;
             }
 
-            var traces = new List<Trace>
+            var traces = new List<StepTrace>
             {
-                new(stage.InputNode, TraceRole.Input, Resample(run.Time, run.Voltage(stage.InputNode), grid)),
-                new(stage.OutputNode, TraceRole.StageOutput, Resample(run.Time, output, grid)),
+                new(stage.InputNode, StepNode.Input, Resample(run.Time, run.Voltage(stage.InputNode), grid)),
+                new(stage.OutputNode, StepNode.StageOutput, Resample(run.Time, output, grid)),
             };
             traces.AddRange(stage.Amplifiers.Where(a => a.OutputNode != stage.OutputNode)
-                .Select(a => new Trace(a.OutputNode, TraceRole.AmplifierOutput, Resample(run.Time, run.Voltage(a.OutputNode), grid))));
+                .Select(a => new StepTrace(a.OutputNode, StepNode.AmplifierOutput, Resample(run.Time, run.Voltage(a.OutputNode), grid))));
             stages.Add(new StageStep(stage.StageId, response, grid.Select(t => t - start).ToArray(), traces));
         }
 

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// Loop gain by Bode's return ratio in the MNA system: at each frequency the circuit's small-signal matrix is assembled

@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
 /// A loop-gain request: at which frequencies, for which amplifiers, and at which operating point. The loop of each

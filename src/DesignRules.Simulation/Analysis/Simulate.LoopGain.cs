@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Analysis;
 
 /// <summary>The loop-gain entry point of the engine (see <see cref="LoopGainRequest"/>).</summary>
 public static partial class Simulate

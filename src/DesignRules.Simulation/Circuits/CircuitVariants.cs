@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Circuits;
 
 /// <summary>
 /// Variants of a circuit for "what if" questions (a stronger isolation, a smaller load, a step instead of the

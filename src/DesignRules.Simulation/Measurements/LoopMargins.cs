@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>What a loop gain shows about whether its margins can be read.</summary>
 public enum LoopState

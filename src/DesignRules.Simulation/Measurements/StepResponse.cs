@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Measurements;
 
 /// <summary>
 /// How a node answers a step: the levels before and after, the overshoot beyond the final level (as a fraction of the

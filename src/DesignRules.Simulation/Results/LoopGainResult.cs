@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Results;
 
 /// <summary>The loop gain T(jω) of one amplifier over the requested frequencies, with its stability margins.</summary>
 /// <param name="Amplifier">Amplifier id.</param>

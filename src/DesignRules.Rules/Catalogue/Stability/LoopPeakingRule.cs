@@ -1,5 +1,6 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Simulation;
+using DesignRules.Diagnostics;
+using DesignRules.Figures.Stability;
 
 namespace DesignRules.Rules.Catalogue.Stability;
 
@@ -9,11 +10,11 @@ namespace DesignRules.Rules.Catalogue.Stability;
 /// </summary>
 internal sealed class LoopPeakingRule : Rule
 {
-    public override string Id => "DR511";
+    public override RuleId Id => RuleIds.LoopPeaking;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var figures = evaluation.Analyses.LoopGains();
+        var figures = evaluation.Analyses.LoopGains;
         foreach (var amp in StageParts.Amplifiers(evaluation.Design))
         {
             var stageId = amp.Stage.Id.Value;
@@ -24,7 +25,7 @@ internal sealed class LoopPeakingRule : Rule
 
             var limit = evaluation.Threshold(Id, "max-peaking", stageId);
             // Recorded in dB, as the trade reads a peak.
-            evaluation.Record(stageId, new Figure($"loop peaking {amp.Slot}", 20 * Math.Log10(m.Peaking), "dB").AtMost(20 * Math.Log10(limit)));
+            evaluation.Record(stageId, FigureKinds.LoopPeaking.Of(amp.Slot, 20 * Math.Log10(m.Peaking)).AtMost(20 * Math.Log10(limit)));
             if (m.Peaking <= limit)
             {
                 continue;
@@ -35,10 +36,10 @@ internal sealed class LoopPeakingRule : Rule
                 ["amplifier"] = $"{stageId}.{amp.Slot}",
                 ["peaking"] = Say.Decibels(m.Peaking),
                 ["frequency"] = Say.Hertz(m.PeakingFrequency),
-                ["point"] = loop.OperatingPoint,
+                ["point"] = loop.OperatingPoint(),
                 ["limit"] = Say.Decibels(limit),
                 ["over"] = (20 * Math.Log10(m.Peaking / limit)).ToString("0.#", System.Globalization.CultureInfo.InvariantCulture) + " dB",
-            }, new Figure("loop peaking", 20 * Math.Log10(m.Peaking), "dB").AtMost(20 * Math.Log10(limit)), new Figure("peaking frequency", m.PeakingFrequency, "Hz"));
+            }, FigureKinds.LoopPeaking.Of(amp.Slot, 20 * Math.Log10(m.Peaking)).AtMost(20 * Math.Log10(limit)), FigureKinds.LoopPeakingFrequency.Of(amp.Slot, m.PeakingFrequency));
         }
     }
 }

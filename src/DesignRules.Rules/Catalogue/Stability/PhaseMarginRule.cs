@@ -1,5 +1,6 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Simulation;
+using DesignRules.Diagnostics;
+using DesignRules.Figures.Stability;
 
 namespace DesignRules.Rules.Catalogue.Stability;
 
@@ -10,11 +11,11 @@ namespace DesignRules.Rules.Catalogue.Stability;
 /// </summary>
 internal sealed class PhaseMarginRule : Rule
 {
-    public override string Id => "DR510";
+    public override RuleId Id => RuleIds.PhaseMargin;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var figures = evaluation.Analyses.LoopGains();
+        var figures = evaluation.Analyses.LoopGains;
         if (figures.Failure is { } failure)
         {
             evaluation.ReportFailure("the loop-gain analysis", failure, figures.Chain);
@@ -30,11 +31,11 @@ internal sealed class PhaseMarginRule : Rule
             }
 
             var limit = evaluation.Threshold(Id, "min-phase-margin", stageId);
-            evaluation.Record(stageId, $"crossover {amp.Slot}", m.Crossover!.Value, "Hz");
-            evaluation.Record(stageId, new Figure($"phase margin {amp.Slot}", margin, "°").AtLeast(limit));
+            evaluation.Record(stageId, FigureKinds.Crossover.Of(amp.Slot, m.Crossover!.Value));
+            evaluation.Record(stageId, FigureKinds.PhaseMargin.Of(amp.Slot, margin).AtLeast(limit));
             if (m.GainMargin is { } gm)
             {
-                evaluation.Record(stageId, $"gain margin {amp.Slot}", 20 * Math.Log10(gm), "dB");
+                evaluation.Record(stageId, FigureKinds.GainMargin.Of(amp.Slot, 20 * Math.Log10(gm)));
             }
 
             if (margin >= limit)
@@ -46,15 +47,15 @@ internal sealed class PhaseMarginRule : Rule
             evaluation.Report(Id, stageId, amp.PartSpan, new Dictionary<string, string>
             {
                 ["amplifier"] = $"{stageId}.{amp.Slot}",
-                ["margin"] = StabilityAnalyses.Degrees(margin),
+                ["margin"] = StabilityWords.Degrees(margin),
                 ["crossover"] = Say.Hertz(m.Crossover.Value),
-                ["point"] = loop.OperatingPoint,
-                ["limit"] = StabilityAnalyses.Degrees(limit),
-                ["shortfall"] = StabilityAnalyses.Degrees(limit - margin),
+                ["point"] = loop.OperatingPoint(),
+                ["limit"] = StabilityWords.Degrees(limit),
+                ["shortfall"] = StabilityWords.Degrees(limit - margin),
                 ["fix"] = loads.Count > 0
                     ? "its output drives a capacitance to ground: isolate it with a series resistor (DR512 gives the value) or make it smaller"
                     : "raise the noise gain, choose a part with a higher second pole for this gain, or add a feedback capacitor that cancels the input capacitance's pole",
-            }, new Figure("phase margin", margin, "°").AtLeast(limit), new Figure("crossover", m.Crossover.Value, "Hz"));
+            }, FigureKinds.PhaseMargin.Of(amp.Slot, margin).AtLeast(limit), FigureKinds.Crossover.Of(amp.Slot, m.Crossover.Value));
         }
     }
 }

@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Catalogue.Stability;
@@ -8,11 +9,11 @@ namespace DesignRules.Rules.Catalogue.Stability;
 /// </summary>
 internal sealed class StepOvershootRule : Rule
 {
-    public override string Id => "DR514";
+    public override RuleId Id => RuleIds.StepOvershoot;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var steps = evaluation.Analyses.Steps();
+        var steps = evaluation.Analyses.Steps;
         if (steps.Failure is { } failure)
         {
             evaluation.ReportFailure("the step-response analysis", failure, steps.Chain);
@@ -29,10 +30,10 @@ internal sealed class StepOvershootRule : Rule
 
             var limit = evaluation.Threshold(Id, "max-overshoot", stageId);
             var r = step.Response;
-            evaluation.Record(stageId, new Figure("step overshoot", r.Overshoot, "%").AtMost(limit));
+            evaluation.Record(stageId, FigureKinds.StepOvershoot.Of(r.Overshoot).AtMost(limit));
             if (r.SettlingTime is { } settling)
             {
-                evaluation.Record(stageId, "step settling (1 %)", settling, "s");
+                evaluation.Record(stageId, FigureKinds.StepSettling.Of(settling));
             }
 
             if (r.Overshoot <= limit)
@@ -48,7 +49,7 @@ internal sealed class StepOvershootRule : Rule
                 ["time"] = Say.Seconds(r.PeakTime),
                 ["settling"] = r.SettlingTime is { } s ? Say.Seconds(s) : "longer than the record",
                 ["limit"] = Say.Percent(limit),
-            }, new Figure("step overshoot", r.Overshoot, "%").AtMost(limit));
+            }, FigureKinds.StepOvershoot.Of(r.Overshoot).AtMost(limit));
         }
     }
 }

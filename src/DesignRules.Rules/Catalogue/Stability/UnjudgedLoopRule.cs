@@ -1,5 +1,6 @@
 using DesignRules.Rules.Evaluation;
-using DesignRules.Simulation;
+using DesignRules.Diagnostics;
+using DesignRules.Figures.Stability;
 
 namespace DesignRules.Rules.Catalogue.Stability;
 
@@ -9,11 +10,11 @@ namespace DesignRules.Rules.Catalogue.Stability;
 /// </summary>
 internal sealed class UnjudgedLoopRule : Rule
 {
-    public override string Id => "DR513";
+    public override RuleId Id => RuleIds.StabilityNotJudged;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        var figures = evaluation.Analyses.LoopGains();
+        var figures = evaluation.Analyses.LoopGains;
         foreach (var amp in StageParts.Amplifiers(evaluation.Design))
         {
             var stageId = amp.Stage.Id.Value;

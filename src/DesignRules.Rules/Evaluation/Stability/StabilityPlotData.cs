@@ -1,4 +1,4 @@
-using DesignRules.Simulation;
+using DesignRules.Figures.Stability;
 
 namespace DesignRules.Rules.Evaluation;
 
@@ -10,7 +10,7 @@ internal static class StabilityPlotData
 
     public static StagePlots With(DesignEvaluation evaluation, StagePlots plots)
     {
-        var loops = evaluation.Analyses.LoopGains();
+        var loops = evaluation.Analyses.LoopGains;
         var loopPlots = loops.Loops.Where(l => l.StageId == plots.StageId && l.Loop.Margins.State == LoopState.Closed)
             .Select(l => new LoopGainPlot(
                 l.Slot,
@@ -19,12 +19,19 @@ internal static class StabilityPlotData
                 LoopMargins.Unwrapped(l.Loop.Gain, l.Loop.Gain.Count),
                 l.Loop.Margins.Crossover!.Value,
                 l.Loop.Margins.PhaseMargin!.Value,
-                l.OperatingPoint))
+                l.OperatingPoint()))
             .ToArray();
-        var step = evaluation.Analyses.Steps().Of(plots.StageId);
+        var step = evaluation.Analyses.Steps.Of(plots.StageId);
         var stepPlot = step is { Response.Overshoot: > RingingOvershoot }
-            ? new StepPlot(StepAnalyses.StepSize, step.Time, step.Traces, step.Response.Overshoot, step.Response.SettlingTime)
+            ? new StepPlot(StepAnalyses.StepSize, step.Time, step.Traces.Select(t => new Trace(t.Node, RoleOf(t.Role), t.Values)).ToArray(), step.Response.Overshoot, step.Response.SettlingTime)
             : null;
         return plots with { LoopGains = loopPlots, Step = stepPlot };
     }
+
+    private static TraceRole RoleOf(StepNode node) => node switch
+    {
+        StepNode.Input => TraceRole.Input,
+        StepNode.StageOutput => TraceRole.StageOutput,
+        _ => TraceRole.AmplifierOutput,
+    };
 }
