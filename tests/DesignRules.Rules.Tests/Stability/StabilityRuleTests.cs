@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Rules;
 
 namespace DesignRules.Rules.Tests.Stability;
@@ -15,7 +16,7 @@ public sealed class StabilityRuleTests
     public void The_isolation_resistor_the_capacitive_load_rule_hints_is_the_one_the_passing_fixture_fits()
     {
         var failing = RuleFixture.Verify("stability/follower-driving-cable.yaml");
-        var hint = failing.Findings.Single(f => f.RuleId == "DR512").Figures.Single(f => f.Name == "isolation resistor").Value;
+        var hint = failing.Findings.Single(f => f.RuleId == RuleIds.CapacitiveLoad.Value).Figures.Single(f => f.Key.Kind == FigureKinds.IsolationResistor).Value;
         var fitted = File.ReadAllText(RuleFixture.Path("stability/follower-cable-isolated.yaml"));
         Assert.Equal(20, hint, 1e-9);
         Assert.Contains("{ id: riso, type: resistor, value: 20,", fitted, StringComparison.Ordinal);
@@ -38,7 +39,7 @@ public sealed class StabilityRuleTests
 
         double expected = 180 - ((Math.Atan(lo / fp) + Math.Atan(lo / f2) + Math.Atan(lo / f3)) * 180 / Math.PI);
         var report = RuleFixture.Verify("stability/follower-driving-cable.yaml");
-        var margin = report.Findings.Single(f => f.RuleId == "DR510").Figures.Single(f => f.Name == "phase margin").Value;
+        var margin = report.Findings.Single(f => f.RuleId == RuleIds.PhaseMargin.Value).Figures.Single(f => f.Key.Kind == FigureKinds.PhaseMargin).Value;
         Assert.Equal(expected, margin, 0.2);
     }
 }
