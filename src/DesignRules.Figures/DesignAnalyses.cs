@@ -1,6 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Figures.LoadingBandwidthStress;
 using DesignRules.Figures.SlewSaturation;
+using DesignRules.Figures.Stability;
 using DesignRules.Figures.Tolerance;
 using DesignRules.Model;
 using DesignRules.Simulation;
@@ -47,6 +48,9 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)>? cornerWaveforms;
     private IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)>? cornerDemands;
     private IReadOnlyDictionary<string, FillingHold>? fillingHolds;
+    private LoopGainFigures? loopGains;
+    private StepFigures? steps;
+    private readonly Dictionary<(string ElementId, double Limit), CapacitiveLoadFix?> capacitiveLoads = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -119,6 +123,23 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>The peak stages whose hold capacitor is still filling in the measured periods, by stage id.</summary>
     public IReadOnlyDictionary<string, FillingHold> FillingHolds => fillingHolds ??= HoldFilling.Compute(this);
+
+    /// <summary>
+    /// Every amplifier's loop gain and margins in the nominal chain, at the operating point where its margin is smallest
+    /// (one loop-gain analysis per amplifier per design, shared by the stability rules and the pages).
+    /// </summary>
+    public LoopGainFigures LoopGains => loopGains ??= LoopGainAnalyses.Compute(Chain(BandEnd.Top));
+
+    /// <summary>Every stage output's answer to a small step at the source (its record set by <see cref="LoopGains"/>).</summary>
+    public StepFigures Steps => steps ??= StepAnalyses.Compute(LoopGains);
+
+    /// <summary>
+    /// The capacitive load on an amplifier's output and, when its margin is below <paramref name="minPhaseMargin"/> °,
+    /// what restores it (searched on variants of the compiled circuit); null when the output drives no capacitance.
+    /// </summary>
+    public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin) =>
+        capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin), out var c) ? c
+        : capacitiveLoads[(loop.ElementId, minPhaseMargin)] = CapacitiveLoadVariants.Compute(LoopGains.Chain, loop, minPhaseMargin);
 
     /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
     public IReadOnlyList<StageProbe> Stages

@@ -84,6 +84,16 @@ public static class DatasheetPages
                     contents[$"plots/{name}/{stage}-response.svg"] = PlotRenderer.Response(plots.StageId, plots.Bode);
                 }
 
+                foreach (var loop in plots.LoopGains)
+                {
+                    output.Write($"plots/{name}/{stage}-loop-{OutputFolder.SafeName(loop.Amplifier)}.svg", StabilityPlotRenderer.LoopGain(plots.StageId, loop));
+                }
+
+                if (plots.Step is not null)
+                {
+                    output.Write($"plots/{name}/{stage}-step.svg", StabilityPlotRenderer.Step(plots.StageId, plots.Step));
+                }
+
                 if (plots.Distribution is not null)
                 {
                     contents[$"plots/{name}/{stage}-monte-carlo.svg"] = PlotRenderer.Histogram(plots.StageId, plots.Distribution);
