@@ -23,6 +23,68 @@ public sealed class StabilityRuleTests
     }
 
     [Fact]
+    public void The_capacitive_load_finding_carries_the_isolation_resistor_as_its_fix_hint()
+    {
+        var finding = RuleFixture.Verify("stability/follower-driving-cable.yaml").Findings.Single(f => f.RuleId == RuleIds.CapacitiveLoad.Value);
+        var fix = finding.Fix ?? throw new Xunit.Sdk.XunitException("DR512 has no fix hint: " + finding.Message);
+
+        Assert.Equal(FixKind.IsolationResistor, fix.Kind);
+        Assert.Equal("isolation-resistor", fix.KindName);
+        Assert.Equal("buffer.u1", fix.Subject);
+        Assert.Equal("Ω", fix.Unit);
+        Assert.Equal(finding.Figures.Single(f => f.Key.Kind == FigureKinds.IsolationResistor).Value, fix.Value);
+        // A resistor to add is no one YAML value: no replacement, so no SARIF fix; the text names both ways out.
+        Assert.Null(fix.ValueSpan);
+        Assert.Null(fix.Replacement);
+        Assert.Contains("or keep the capacitance at or below", fix.Text, StringComparison.Ordinal);
+        Assert.EndsWith("Fix: " + fix.Text, finding.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_load_beyond_the_parts_stated_capacitance_is_hinted_as_one_value_and_writing_it_clears_the_finding()
+    {
+        var fixture = RuleFixture.Path("stability/line-driver-beyond-stated-load.yaml");
+        var finding = RuleFixture.Verify("stability/line-driver-beyond-stated-load.yaml").Findings.Single(f => f.RuleId == RuleIds.CapacitiveLoad.Value);
+        var fix = finding.Fix ?? throw new Xunit.Sdk.XunitException("DR512 has no fix hint: " + finding.Message);
+
+        Assert.Equal(FixKind.MaximumCapacitance, fix.Kind);
+        Assert.Equal(finding.Span, fix.ValueSpan);
+        var text = File.ReadAllText(fixture);
+        Assert.Equal("1.5 nF", text.Split('\n')[fix.ValueSpan!.Line - 1][(fix.ValueSpan.Column - 1)..(fix.ValueSpan.EndColumn - 1)]);
+        Assert.Empty(CapacitiveLoadFindings(Replace(text, fix.ValueSpan, fix.Replacement!)));
+        // Just over the hinted capacitance (2 % more) the part's statement is exceeded again.
+        Assert.NotEmpty(CapacitiveLoadFindings(Replace(text, fix.ValueSpan, (fix.Value * 1.02 * 1e9).ToString("R", System.Globalization.CultureInfo.InvariantCulture) + " nF")));
+    }
+
+    private static List<Finding> CapacitiveLoadFindings(string designText)
+    {
+        var folder = Directory.CreateTempSubdirectory("designrules-stability-").FullName;
+        try
+        {
+            Directory.CreateDirectory(System.IO.Path.Combine(folder, "parts"));
+            File.Copy(RuleFixture.Path("stability/parts/stability-parts.yaml"), System.IO.Path.Combine(folder, "parts", "stability-parts.yaml"));
+            var file = System.IO.Path.Combine(folder, "design.yaml");
+            File.WriteAllText(file, designText);
+            var report = DesignCheck.Run([file], new CheckOptions(null, new DateOnly(2026, 12, 1)));
+            Assert.DoesNotContain(report.Findings, f => f.RuleId.StartsWith("DR9", StringComparison.Ordinal));
+            return report.Findings.Where(f => f.RuleId == RuleIds.CapacitiveLoad.Value).ToList();
+        }
+        finally
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+    }
+
+    /// <summary>The text with the value at <paramref name="span"/> replaced (SARIF region semantics: end column exclusive).</summary>
+    private static string Replace(string text, SourceSpan span, string replacement)
+    {
+        var lines = text.Split('\n');
+        var line = lines[span.Line - 1];
+        lines[span.Line - 1] = line[..(span.Column - 1)] + replacement + line[(span.EndColumn - 1)..];
+        return string.Join('\n', lines);
+    }
+
+    [Fact]
     public void The_cable_costs_the_follower_the_margin_the_output_resistance_pole_predicts()
     {
         // Loop of the follower: T = A(s)/(1 + s·Ro·CL) with A(s) = A0/((1 + s/ωp)(1 + s/ω2)) (Franco, Design with Operational

@@ -47,19 +47,16 @@ internal sealed class CapacitiveLoadRule : Rule
             var reason = costsMargin
                 ? $"which takes its phase margin {loop.OperatingPoint()} to {StabilityWords.Degrees(margin)} ({StabilityWords.Degrees(limit)} required; {StabilityWords.Degrees(fix.UnloadedMargin!.Value)} without it)"
                 : $"more than the {StabilityWords.Farads(stated!.Value)} the part `{amp.Part.Id.Value}` is specified to drive";
-            var fixes = new List<string>();
-            if (costsMargin && fix.Isolation is { } r)
-            {
-                fixes.Add($"put an isolation resistor of {Say.Ohms(r)} (E24) or more between the output, where the feedback is taken, and the capacitance");
-            }
 
-            if (costsMargin && fix.Largest is { } c)
+            // Reported at the capacitance (its value is what changes, or where the resistor goes), else at the part.
+            var capacitor = fix.Capacitors.OrderByDescending(id => chain.Circuit.Capacitance(id)).First();
+            var capacitorSpan = chain.Locate(capacitor);
+            var located = capacitorSpan != chain.Design.Id.Span;
+            var hint = Hint($"{stageId}.{amp.Slot}", costsMargin ? fix.Isolation : null, costsMargin ? (fix.Largest is { } c ? FixHints.RoundDown(c) : null) : stated,
+                fix.Capacitors.Count == 1 && located ? capacitorSpan : null, capacitor);
+            if (hint is null)
             {
-                fixes.Add($"keep the capacitance at or below {StabilityWords.Farads(c)}");
-            }
-            else if (stated is { } st)
-            {
-                fixes.Add($"keep the capacitance at or below {StabilityWords.Farads(st)}");
+                reason += "; choose a part specified for this load";
             }
 
             var figuresOut = new List<Figure> { stated is { } lim ? FigureKinds.CapacitiveLoad.Of(amp.Slot, load).AtMost(lim) : FigureKinds.CapacitiveLoad.Of(amp.Slot, load) };
@@ -68,16 +65,43 @@ internal sealed class CapacitiveLoadRule : Rule
                 figuresOut.Add(FigureKinds.IsolationResistor.Of(amp.Slot, ri));
             }
 
-            // Reported at the capacitance (its value is what changes, or where the resistor goes), else at the part.
-            var span = chain.Locate(fix.Capacitors.OrderByDescending(id => chain.Circuit.Capacitance(id)).First());
-            evaluation.Report(Id, stageId, span == chain.Design.Id.Span ? amp.PartSpan : span, new Dictionary<string, string>
+            evaluation.Report(Id, stageId, located ? capacitorSpan : amp.PartSpan, new Dictionary<string, string>
             {
                 ["amplifier"] = $"{stageId}.{amp.Slot}",
                 ["capacitance"] = StabilityWords.Farads(load),
                 ["capacitors"] = string.Join(", ", fix.Capacitors.Select(id => $"`{id}`")),
                 ["reason"] = reason,
-                ["fix"] = fixes.Count > 0 ? string.Join(", or ", fixes) : "choose a part specified for this load",
-            }, [.. figuresOut]);
+            }, hint, [.. figuresOut]);
         }
+    }
+
+    /// <summary>
+    /// The fix hint: the isolation resistor where one restores the margin (a component to add, so no single YAML value),
+    /// naming the largest capacitance as the other way; else the largest capacitance (the computed one, rounded down to the
+    /// three digits people read, or the part's stated one), written in place of the capacitor's value where one capacitor
+    /// with a value in the design makes up the load. Null when neither is known.
+    /// </summary>
+    private static FixHint? Hint(string amplifier, double? isolation, double? most, Diagnostics.SourceSpan? oneValue, string capacitor)
+    {
+        if (isolation is { } r)
+        {
+            var text = $"put an isolation resistor of {Say.Ohms(r)} (E24) or more between the output of `{amplifier}`, where the feedback is taken, and the capacitance";
+            return new FixHint(FixKind.IsolationResistor, amplifier, r, "Ω",
+                text + (most is { } m ? $", or keep the capacitance at or below {StabilityWords.Farads(m)}." : "."));
+        }
+
+        if (most is not { } value)
+        {
+            return null;
+        }
+
+        var said = StabilityWords.Farads(value);
+        return oneValue is null
+            ? new FixHint(FixKind.MaximumCapacitance, amplifier, value, "F", $"keep the capacitance at or below {said}.")
+            : new FixHint(FixKind.MaximumCapacitance, capacitor, value, "F", $"keep the capacitance at or below {said} (write `{said}`).")
+            {
+                ValueSpan = oneValue,
+                Replacement = said,
+            };
     }
 }
