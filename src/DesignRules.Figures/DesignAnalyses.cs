@@ -3,6 +3,7 @@ using DesignRules.Elaboration;
 using DesignRules.Figures.Filters;
 using DesignRules.Figures.LoadingBandwidthStress;
 using DesignRules.Figures.SlewSaturation;
+using DesignRules.Figures.Stability;
 using DesignRules.Figures.Tolerance;
 using DesignRules.Model;
 using DesignRules.Simulation;
@@ -51,6 +52,9 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private readonly Dictionary<string, MeasuredFilter?> filters = new(StringComparer.Ordinal);
     private readonly Dictionary<string, FilterTolerance?> filterSpreads = new(StringComparer.Ordinal);
     private ResistorPowers? resistorPowers;
+    private LoopGainFigures? loopGains;
+    private StepFigures? steps;
+    private readonly Dictionary<(string ElementId, double Limit), CapacitiveLoadFix?> capacitiveLoads = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -159,6 +163,21 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public FilterTolerance? FilterSpread(StageProbe stage) =>
         filterSpreads.TryGetValue(stage.StageId, out var t) ? t
         : filterSpreads[stage.StageId] = IdealFilter(stage.Stage) is { } ideal ? FilterTolerance.Run(this, stage, ideal) : null;
+    /// Every amplifier's loop gain and margins in the nominal chain, at the operating point where its margin is smallest
+    /// (one loop-gain analysis per amplifier per design, shared by the stability rules and the pages).
+    /// </summary>
+    public LoopGainFigures LoopGains => loopGains ??= LoopGainAnalyses.Compute(Chain(BandEnd.Top));
+
+    /// <summary>Every stage output's answer to a small step at the source (its record set by <see cref="LoopGains"/>).</summary>
+    public StepFigures Steps => steps ??= StepAnalyses.Compute(LoopGains);
+
+    /// <summary>
+    /// The capacitive load on an amplifier's output and, when its margin is below <paramref name="minPhaseMargin"/> °,
+    /// what restores it (searched on variants of the compiled circuit); null when the output drives no capacitance.
+    /// </summary>
+    public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin) =>
+        capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin), out var c) ? c
+        : capacitiveLoads[(loop.ElementId, minPhaseMargin)] = CapacitiveLoadVariants.Compute(LoopGains.Chain, loop, minPhaseMargin);
 
     /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
     public IReadOnlyList<StageProbe> Stages

@@ -49,6 +49,13 @@ public static class DatasheetPages
                 var stage = OutputFolder.SafeName(plots.StageId);
                 files.AddRange(new (object? Data, string Kind)[] { (plots.Transient, "transient"), (plots.Bode, "response"), (plots.Distribution, "monte-carlo") }
                     .Where(p => p.Data is not null).Select(p => $"plots/{name}/{stage}-{p.Kind}.svg"));
+
+                // The stability plots belong to the page as much as the others: a kept page keeps them, or they would vanish.
+                files.AddRange(plots.LoopGains.Select(l => LoopGainFile(name, stage, l)));
+                if (plots.Step is not null)
+                {
+                    files.Add(StepFile(name, stage));
+                }
             }
 
             // A design whose page depends on nothing that changed keeps its page and plots as they are: no rendering.
@@ -82,6 +89,16 @@ public static class DatasheetPages
                 if (plots.Bode is not null)
                 {
                     contents[$"plots/{name}/{stage}-response.svg"] = PlotRenderer.Response(plots.StageId, plots.Bode);
+                }
+
+                foreach (var loop in plots.LoopGains)
+                {
+                    contents[LoopGainFile(name, stage, loop)] = StabilityPlotRenderer.LoopGain(plots.StageId, loop);
+                }
+
+                if (plots.Step is not null)
+                {
+                    contents[StepFile(name, stage)] = StabilityPlotRenderer.Step(plots.StageId, plots.Step);
                 }
 
                 if (plots.Distribution is not null)
@@ -140,6 +157,12 @@ public static class DatasheetPages
     }
 
     /// <summary>A rule's help link as a page in the pages folder's root writes it.</summary>
+    // The same names PageModel links: "{stage}-loop-{amplifier}" and "{stage}-step" through the plot-path function.
+    private static string LoopGainFile(string design, string stage, LoopGainPlot loop) =>
+        $"plots/{design}/{stage}-loop-{OutputFolder.SafeName(loop.Amplifier)}.svg";
+
+    private static string StepFile(string design, string stage) => $"plots/{design}/{stage}-step.svg";
+
     private static string HelpLink(string ruleId, PageOptions options) =>
         options.HelpUriBase is { } root ? root.TrimEnd('/', '\\') + "/" + ruleId + ".md" : $"{HelpFolder}/{ruleId}.md";
 

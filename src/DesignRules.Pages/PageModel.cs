@@ -183,6 +183,15 @@ internal static class PageModel
             ["bode_plot"] = plots?.Bode is null ? null : Link(plotPath(stage.Id.Value, "response")),
             ["histogram_plot"] = plots?.Distribution is null ? null : Link(plotPath(stage.Id.Value, "monte-carlo")),
             ["histogram_caption"] = plots?.Distribution?.Caption,
+            ["loop_gain_plots"] = new ScriptArray((plots?.LoopGains ?? []).Select(l => new ScriptObject
+            {
+                ["amplifier"] = l.Amplifier,
+                ["plot"] = Link(plotPath(stage.Id.Value, "loop-" + OutputFolder.SafeName(l.Amplifier))),
+                ["crossover"] = l.Crossover,
+                ["phase_margin"] = l.PhaseMargin,
+            })),
+            ["step_plot"] = plots?.Step is null ? null : Link(plotPath(stage.Id.Value, "step")),
+            ["step_overshoot"] = plots?.Step?.Overshoot,
             ["amplifier_nodes"] = new ScriptArray(plots?.Transient?.Traces.Where(t => t.Role == TraceRole.AmplifierOutput).Select(t => t.Name) ?? []),
         };
     }

@@ -215,6 +215,33 @@ public static class FigureKinds
     /// <summary>The part's minimum stable gain. <c>stability.minimum-stable-gain</c></summary>
     public static readonly FigureKind MinimumStableGain = new("stability.minimum-stable-gain", "1", "minimum stable gain");
 
+    /// <summary>Where an amplifier's loop gain falls through 1 (subject: the slot). <c>stability.crossover</c></summary>
+    public static readonly FigureKind Crossover = new("stability.crossover", "Hz", "crossover");
+
+    /// <summary>180° plus the loop's phase at its crossover (subject: the slot). <c>stability.phase-margin</c></summary>
+    public static readonly FigureKind PhaseMargin = new("stability.phase-margin", "°", "phase margin");
+
+    /// <summary>How far below 1 the loop gain is where its phase reaches −180° (subject: the slot). <c>stability.gain-margin</c></summary>
+    public static readonly FigureKind GainMargin = new("stability.gain-margin", "dB", "gain margin");
+
+    /// <summary>Largest |1/(1 + T)| over frequency, the closed loop's peaking (subject: the slot). <c>stability.loop-peaking</c></summary>
+    public static readonly FigureKind LoopPeaking = new("stability.loop-peaking", "dB", "loop peaking");
+
+    /// <summary>Where the loop peaking is largest. <c>stability.loop-peaking.frequency</c></summary>
+    public static readonly FigureKind LoopPeakingFrequency = new("stability.loop-peaking.frequency", "Hz", "peaking frequency");
+
+    /// <summary>Capacitance from an amplifier output to fixed nodes (subject: the slot). <c>stability.capacitive-load</c></summary>
+    public static readonly FigureKind CapacitiveLoad = new("stability.capacitive-load", "F", "capacitive load");
+
+    /// <summary>Series resistor that restores the phase margin under a capacitive load. <c>stability.isolation-resistor</c></summary>
+    public static readonly FigureKind IsolationResistor = new("stability.isolation-resistor", "Ω", "isolation resistor");
+
+    /// <summary>Overshoot of a stage output on a small step, fraction of the change. <c>stability.step-overshoot</c></summary>
+    public static readonly FigureKind StepOvershoot = new("stability.step-overshoot", "%", "step overshoot");
+
+    /// <summary>Time from the step until the stage output stays within 1 % of its change. <c>stability.step-settling</c></summary>
+    public static readonly FigureKind StepSettling = new("stability.step-settling", "s", "step settling (1 %)");
+
     /// <summary>A rectifier amplifier's loop gain at the band top (subject: the slot). <c>rectifier.loop-gain</c></summary>
     public static readonly FigureKind LoopGain = new("rectifier.loop-gain", "1", "loop gain at the band top");
 

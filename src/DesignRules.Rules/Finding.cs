@@ -91,6 +91,12 @@ public enum FixKind
 
     /// <summary>A YAML value replaced by the nearest value of the declared E-series (IEC 60063) that passes.</summary>
     PreferredValue,
+
+    /// <summary>An isolation resistor of at least this resistance (Ω, E24) between an amplifier's output and its capacitive load.</summary>
+    IsolationResistor,
+
+    /// <summary>The capacitance an amplifier's output drives must be at most this (F); one YAML value where one capacitor makes it up.</summary>
+    MaximumCapacitance,
 }
 
 /// <summary>
@@ -121,6 +127,8 @@ public sealed record FixHint(FixKind Kind, string Subject, double Value, string 
         FixKind.MinimumPowerRating => "minimum-power-rating",
         FixKind.MaximumResistorTolerance => "maximum-resistor-tolerance",
         FixKind.MaximumAmplitude => "maximum-amplitude",
+        FixKind.IsolationResistor => "isolation-resistor",
+        FixKind.MaximumCapacitance => "maximum-capacitance",
         _ => "preferred-value",
     };
 }

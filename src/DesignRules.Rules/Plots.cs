@@ -65,4 +65,11 @@ public sealed record SampleDistribution(string Figure, string Unit, IReadOnlyLis
 /// <param name="Transient">The band-top transient.</param>
 /// <param name="Bode">The closed-loop response.</param>
 /// <param name="Distribution">The Monte Carlo distribution of the main figure.</param>
-public sealed record StagePlots(string StageId, TransientPlot? Transient, BodePlot? Bode, SampleDistribution? Distribution);
+public sealed record StagePlots(string StageId, TransientPlot? Transient, BodePlot? Bode, SampleDistribution? Distribution)
+{
+    /// <summary>The loop gain of each amplifier of the stage whose loop is closed, with its crossover and phase margin.</summary>
+    public IReadOnlyList<LoopGainPlot> LoopGains { get; init; } = [];
+
+    /// <summary>The small-step response, where the stage rings (overshoot above 5 %); null otherwise.</summary>
+    public StepPlot? Step { get; init; }
+}

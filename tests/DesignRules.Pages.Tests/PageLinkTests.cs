@@ -74,6 +74,18 @@ public sealed class PageLinkTests
                 Assert.Contains("Magnitude (dB)", texts);
                 Assert.Contains("magnitude", texts);
             }
+            else if (plot.Contains("-loop-", StringComparison.Ordinal))
+            {
+                Assert.Contains("Frequency (Hz)", texts);
+                Assert.Contains("|T| (dB)", texts);
+                Assert.Contains(texts, t => t.StartsWith("crossover ", StringComparison.Ordinal));
+                Assert.Contains(texts, t => t.StartsWith("phase margin ", StringComparison.Ordinal));
+            }
+            else if (plot.EndsWith("-step.svg", StringComparison.Ordinal))
+            {
+                Assert.Contains("Voltage (V)", texts);
+                Assert.Contains(texts, t => t.EndsWith("(stage output)", StringComparison.Ordinal));
+            }
             else
             {
                 Assert.Contains("Samples", texts);

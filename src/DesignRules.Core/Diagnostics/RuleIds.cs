@@ -79,6 +79,21 @@ public static class RuleIds
     /// <summary>DR503: Noise gain below the minimum stable gain.</summary>
     public static readonly RuleId MinimumStableGain = new("DR503");
 
+    /// <summary>DR510: Phase margin.</summary>
+    public static readonly RuleId PhaseMargin = new("DR510");
+
+    /// <summary>DR511: Closed-loop peaking.</summary>
+    public static readonly RuleId LoopPeaking = new("DR511");
+
+    /// <summary>DR512: Capacitive load.</summary>
+    public static readonly RuleId CapacitiveLoad = new("DR512");
+
+    /// <summary>DR513: Stability not judged.</summary>
+    public static readonly RuleId StabilityNotJudged = new("DR513");
+
+    /// <summary>DR514: Step overshoot.</summary>
+    public static readonly RuleId StepOvershoot = new("DR514");
+
     /// <summary>DR530: Filter response off its requirement.</summary>
     public static readonly RuleId FilterResponse = new("DR530");
 

@@ -120,6 +120,7 @@ internal static class PartsReader
         var drift = m.Quantity("offset-drift", Dimension.VoltageDrift, required: false, ValueChecks.NotNegative);
         var doubling = m.Quantity("bias-doubling", Dimension.Temperature, required: false,
             ValueChecks.Within(1, 100, "a bias-current doubling interval lies between 1 °C and 100 °C (JFET and CMOS inputs: about 10 °C)"));
+        var capacitiveLoad = m.Quantity("capacitive-load", Dimension.Capacitance, required: false, ValueChecks.Positive);
 
         if (gbw is null || rising is null || falling is null || a0 is null || outHeadroom is null || iout is null ||
             inputRange is null || vos is null || ib is null || spanMin is null || spanMax is null)
@@ -133,6 +134,7 @@ internal static class PartsReader
             OffsetCurrent = ios,
             OffsetDrift = drift,
             BiasDoubling = doubling,
+            CapacitiveLoad = capacitiveLoad,
         };
     }
 

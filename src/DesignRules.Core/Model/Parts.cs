@@ -77,6 +77,9 @@ public sealed record AmplifierPart(
     /// practice), if the part states it; without it the bias current is taken as constant with temperature.
     /// </summary>
     public Located<Quantity>? BiasDoubling { get; init; }
+
+    /// <summary>The largest capacitance the part is specified to drive stably at its output, if the part states one.</summary>
+    public Located<Quantity>? CapacitiveLoad { get; init; }
 }
 
 /// <summary>A diode class or part. Either a saturation current and emission coefficient or a forward-voltage point is given.</summary>

@@ -84,7 +84,7 @@ internal static class PlotCollector
                 }
             }
 
-            plots.Add(new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId)));
+            plots.Add(StabilityPlotData.With(evaluation, new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId))));
         }
 
         return plots;

@@ -44,6 +44,12 @@ internal sealed class AcLoadContext(int size, BandOrdering? ordering = null, Has
         Add(b, a, -y);
     }
 
+    /// <summary>
+    /// Id of the amplifier whose loop is broken at its controlling input for a loop-gain analysis (its drive takes a
+    /// unit injected differential input), or null for an ordinary AC point.
+    /// </summary>
+    public string? BrokenAmplifier { get; set; }
+
     /// <summary>Id of the source that carries the small-signal stimulus.</summary>
     public string Stimulus { get; init; } = string.Empty;
 

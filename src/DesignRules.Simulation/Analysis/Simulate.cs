@@ -5,7 +5,7 @@ namespace DesignRules.Simulation.Analysis;
 /// circuit afresh (so one circuit may be analysed from several threads at once) and returns a result that carries
 /// either the figures or a located <see cref="SimulationFailure"/>; problems of the circuit never throw.
 /// </summary>
-public static class Simulate
+public static partial class Simulate
 {
     /// <summary>DC operating point with the sources at their quiescent values (<see cref="Waveform.DcValue"/>).</summary>
     /// <param name="circuit">Circuit to solve.</param>

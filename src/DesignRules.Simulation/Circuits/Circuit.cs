@@ -7,7 +7,7 @@ namespace DesignRules.Simulation.Circuits;
 /// in <see cref="Problems"/> rather than thrown; every analysis of a circuit with problems returns a failure naming the
 /// element. Null or empty ids and node names are programming errors and throw.</para>
 /// </summary>
-public sealed class Circuit
+public sealed partial class Circuit
 {
     private readonly List<ElementDefinition> elements = [];
     private readonly HashSet<string> ids = new(StringComparer.Ordinal);

@@ -188,8 +188,18 @@ internal sealed class AmplifierDevice(string id, AmplifierParameters parameters,
         var e = Evaluate(context.X, dc: true);
         double tau = p.DriveTimeScale;
         context.Add(n.Drive, n.Drive, new Complex(tau * ((e.DriveSlope * p.PoleOmega) + e.ClampSlope), context.Omega * tau));
-        context.Add(n.Drive, n.Plus, -e.DriveSlope);
-        context.Add(n.Drive, n.Minus, e.DriveSlope);
+        if (string.Equals(Id, context.BrokenAmplifier, StringComparison.Ordinal))
+        {
+            // The loop is broken at this amplifier's controlling input (Bode's return ratio): the drive sees a unit
+            // injected differential voltage instead of v(+) − v(−), whose returned value the loop-gain analysis reads.
+            context.AddRhs(n.Drive, e.DriveSlope);
+        }
+        else
+        {
+            context.Add(n.Drive, n.Plus, -e.DriveSlope);
+            context.Add(n.Drive, n.Minus, e.DriveSlope);
+        }
+
         if (n.SecondPole >= 0)
         {
             context.Add(n.SecondPole, n.SecondPole, new Complex(1, context.Omega * p.SecondPoleTime));
