@@ -163,6 +163,8 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public FilterTolerance? FilterSpread(StageProbe stage) =>
         filterSpreads.TryGetValue(stage.StageId, out var t) ? t
         : filterSpreads[stage.StageId] = IdealFilter(stage.Stage) is { } ideal ? FilterTolerance.Run(this, stage, ideal) : null;
+
+    /// <summary>
     /// Every amplifier's loop gain and margins in the nominal chain, at the operating point where its margin is smallest
     /// (one loop-gain analysis per amplifier per design, shared by the stability rules and the pages).
     /// </summary>

@@ -5,7 +5,7 @@ using DesignRules.Figures.Stability;
 using DesignRules.Loading;
 using DesignRules.Rules;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.Filters;
+using DesignRules.Figures.Filters;
 
 namespace DesignRules.Benchmarks;
 
