@@ -15,6 +15,15 @@ internal sealed record ResistorDefinition(string Id, string A, string B, double 
 /// <summary>Compiled resistor: conductance G = 1/R.</summary>
 internal sealed class ResistorDevice(string id, int a, int b, double conductance) : Device(id)
 {
+    /// <summary>Unknown index of node A (−1 for the reference).</summary>
+    public int A => a;
+
+    /// <summary>Unknown index of node B (−1 for the reference).</summary>
+    public int B => b;
+
+    /// <summary>Conductance 1/R in S.</summary>
+    public double Conductance => conductance;
+
     public override void Load(LoadContext context) => context.Conductance(a, b, conductance);
 
     public override void LoadAc(AcLoadContext context) => context.Admittance(a, b, conductance);
