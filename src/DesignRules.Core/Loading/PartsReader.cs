@@ -116,6 +116,8 @@ internal static class PartsReader
         span?.Finish();
         var maxDiff = m.Quantity("max-differential-input", Dimension.Voltage, required: false, ValueChecks.Positive);
         var noise = m.Quantity("noise-density", Dimension.VoltageNoiseDensity, required: false, ValueChecks.NotNegative);
+        var currentNoise = m.Quantity("current-noise", Dimension.CurrentNoiseDensity, required: false, ValueChecks.NotNegative);
+        var noiseCorner = m.Quantity("noise-corner", Dimension.Frequency, required: false, ValueChecks.NotNegative);
         var recovery = m.Quantity("overload-recovery", Dimension.Time, required: false, ValueChecks.NotNegative);
 
         if (gbw is null || rising is null || falling is null || a0 is null || outHeadroom is null || iout is null ||
@@ -125,7 +127,10 @@ internal static class PartsReader
         }
 
         return new AmplifierPart(id, description, typical, gbw, rising, falling, a0, secondPole, outHeadroom, headroomLoad,
-            rout, iout, inputRange, vos, ib, minGain, spanMin, spanMax, maxDiff, noise, recovery, m.Span) { OffsetCurrent = ios };
+            rout, iout, inputRange, vos, ib, minGain, spanMin, spanMax, maxDiff, noise, recovery, m.Span)
+        {
+            OffsetCurrent = ios, CurrentNoise = currentNoise, NoiseCorner = noiseCorner,
+        };
     }
 
     private static (Located<Quantity>? Rising, Located<Quantity>? Falling) ReadSlew(MappingReader m)

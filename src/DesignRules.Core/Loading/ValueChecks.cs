@@ -52,6 +52,7 @@ public static class PlausibleRange
         [Dimension.SlewRate] = (1e-3, 1e12),
         [Dimension.TemperatureCoefficient] = (1e-12, 1),
         [Dimension.VoltageNoiseDensity] = (1e-15, 1e-3),
+        [Dimension.CurrentNoiseDensity] = (1e-18, 1e-3),
     };
 
     /// <summary>The smallest non-zero and the largest magnitude accepted for a dimension (temperatures have their key's own range).</summary>
@@ -77,6 +78,7 @@ public static class PlausibleRange
         Dimension.SlewRate => "slew rate",
         Dimension.TemperatureCoefficient => "temperature coefficient",
         Dimension.VoltageNoiseDensity => "noise density",
+        Dimension.CurrentNoiseDensity => "current noise density",
         _ => dimension.ToString().ToLowerInvariant(),
     };
 }

@@ -29,4 +29,6 @@ public enum Dimension
     TemperatureCoefficient,
     /// <summary>Volt per root hertz (written nV/√Hz by people).</summary>
     VoltageNoiseDensity,
+    /// <summary>Ampere per root hertz (written pA/√Hz by people).</summary>
+    CurrentNoiseDensity,
 }

@@ -24,6 +24,7 @@ internal static class QuantityFormatter
             Dimension.SlewRate => Plain(v, digits, -6) + " V/µs",
             Dimension.TemperatureCoefficient => Plain(v, digits, 6) + " ppm/°C",
             Dimension.VoltageNoiseDensity => Plain(v, digits, 9) + " nV/√Hz",
+            Dimension.CurrentNoiseDensity => Plain(v, digits, 12) + " pA/√Hz",
             _ => Engineering(v, digits, UnitSymbol(q.Dimension)),
         };
     }

@@ -21,6 +21,7 @@ public static class QuantityForms
         Dimension.Temperature => "a temperature such as 25 °C, -40C or 85 °C",
         Dimension.TemperatureCoefficient => "a temperature coefficient such as 50 ppm/°C, ±25 ppm/K or 0.0039 /K",
         Dimension.VoltageNoiseDensity => "a noise density such as 18 nV/rtHz, 18 nV/√Hz or 4 nV/sqrt(Hz)",
+        Dimension.CurrentNoiseDensity => "a current noise density such as 0.5 pA/rtHz, 4 fA/√Hz or 1 pA/sqrt(Hz)",
         _ => "a number with an optional SI prefix and unit",
     };
 
@@ -40,6 +41,7 @@ public static class QuantityForms
         Dimension.Temperature => "a temperature",
         Dimension.TemperatureCoefficient => "a temperature coefficient",
         Dimension.VoltageNoiseDensity => "a noise density",
+        Dimension.CurrentNoiseDensity => "a current noise density",
         _ => "a quantity",
     };
 }
