@@ -69,8 +69,8 @@ public sealed class PartConversionTests
         Assert.Equal(0, model.CommonModeHeadroomNegative);        // beyond the rail: the engine takes 0 (flags beyond-rail inputs)
         Assert.Equal(15, model.MaxDifferentialInput!.Value, 12);
         Assert.Equal(2e-6, model.OverloadRecoveryTime, 15);
-        Assert.Equal(9e-9, model.InputVoltageNoise, 18);
-        Assert.Equal(0.3e-12, model.InputCurrentNoise, 21);
+        Assert.Equal(9e-9, model.InputVoltageNoise, 1e-21);
+        Assert.Equal(0.3e-12, model.InputCurrentNoise, 1e-24);
         Assert.Equal(40, model.NoiseCorner, 12);
     }
 
