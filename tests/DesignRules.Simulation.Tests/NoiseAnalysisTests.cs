@@ -159,6 +159,27 @@ public sealed class NoiseAnalysisTests
         Assert.True(noise.RelativeChange > 1e-12);
     }
 
+    [Fact]
+    public void A_precision_rectifier_is_linearised_at_the_level_it_passes()
+    {
+        // Half-wave follower: the diode inside the loop conducts for a positive input, so the stage is a follower there
+        // (textbook precision rectifier: output = input while the diode conducts), and blocks a negative one.
+        var model = AmplifierModel.SinglePole(1e6, 1e5, 1e6) with { InputVoltageNoise = 20e-9 };
+        var circuit = new Circuit()
+            .AddVoltageSource("vin", "in", Circuit.Ground, 0)
+            .AddAmplifier("u1", "in", "out", "drive", model, Stages.Rails)
+            .AddDiode("d1", "drive", "out")
+            .AddResistor("rload", "out", Circuit.Ground, 10e3);
+        var passing = Simulate.Noise(circuit, new NoiseRequest("out", "vin", 10, 1e3) { InputLevel = 1 });
+        var blocking = Simulate.Noise(circuit, new NoiseRequest("out", "vin", 10, 1e3) { InputLevel = -1 });
+        Assert.True(passing.Succeeded && blocking.Succeeded, passing.Failure?.ToString() ?? blocking.Failure?.ToString());
+        Assert.Equal(1, passing.PassbandGain, 1e-3);
+        Assert.True(blocking.PassbandGain < 0.01, $"gain while blocking {blocking.PassbandGain}");
+
+        // The follower passes e_n with gain 1; the load's 4kT·R is shorted by the loop's low output impedance.
+        Assert.Equal(20e-9, passing.OutputDensity[0], 20e-9 * 1e-2);
+    }
+
     [Theory]
     [InlineData("nowhere", "iin", 10, 1e3)]
     [InlineData("out", "r1", 10, 1e3)]

@@ -130,7 +130,28 @@ public static class Simulate
             return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, $"the noise input '{request.InputSource}' is not an independent voltage or current source of this circuit") { ElementId = request.InputSource });
         }
 
-        failure = OperatingPointSolver.Solve(solver, "the DC operating point");
+        if (request.InputLevel is { } level)
+        {
+            if (!compiled.Devices.Any(d => d.Id == request.InputSource && d is VoltageSourceDevice))
+            {
+                return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, $"an input level needs the noise input '{request.InputSource}' to be a voltage source") { ElementId = request.InputSource });
+            }
+
+            var context = solver.Context;
+            context.OverrideSource = request.InputSource;
+            context.OverrideValue = level;
+            failure = OperatingPointSolver.Solve(solver, "the operating point of the noise analysis");
+            if (failure is not null && OperatingPointSolver.Continue(solver, v => context.OverrideValue = v, 0, level))
+            {
+                // A level that switches a diode on is reached in steps from a zero source, as a DC sweep does.
+                failure = null;
+            }
+        }
+        else
+        {
+            failure = OperatingPointSolver.Solve(solver, "the DC operating point");
+        }
+
         if (failure is not null) return new NoiseResult(failure);
         return NoiseAnalysis.Run(compiled, solver.Context.X, request, limits);
     }

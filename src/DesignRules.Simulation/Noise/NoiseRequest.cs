@@ -36,6 +36,12 @@ public sealed record NoiseRequest(string Output, string InputSource, double Star
     /// <summary>Most refinements of the grid (each doubles the points per decade; 0 to 10). Default 6.</summary>
     public int MaxRefinements { get; init; } = 6;
 
+    /// <summary>
+    /// DC value in V of the input source (a voltage source) at which the circuit is linearised, or null for its quiescent
+    /// value. A rectifier is linearised at the level it passes, so its loop is closed through the conducting diode.
+    /// </summary>
+    public double? InputLevel { get; init; }
+
     /// <summary>How transfers are found; both give the same densities (a test keeps it so). Default <see cref="NoiseTransferMethod.Adjoint"/>.</summary>
     public NoiseTransferMethod Method { get; init; } = NoiseTransferMethod.Adjoint;
 
@@ -45,6 +51,7 @@ public sealed record NoiseRequest(string Output, string InputSource, double Star
         if (!(Start > 0) || !double.IsFinite(Start) || !(Stop > Start) || !double.IsFinite(Stop)) return "the noise band must be positive, finite and its top above its bottom";
         if (!(Tolerance > 0) || !(Tolerance < 1)) return "the noise integration tolerance must lie between 0 and 1";
         if (PointsPerDecade is < 2 or > 1000) return "the noise grid needs between 2 and 1000 points per decade";
+        if (InputLevel is { } level && !double.IsFinite(level)) return "the noise input level must be finite";
         if (MaxRefinements is < 0 or > 10) return "the noise grid may be refined 0 to 10 times";
         return null;
     }
