@@ -13,7 +13,7 @@ namespace DesignRules.Run;
 internal static class ResultCodec
 {
     /// <summary>The version of this encoding, part of every entry's key.</summary>
-    public const int FormatVersion = 1;
+    public const int FormatVersion = 2;
 
     private static readonly JsonSerializerOptions Options = new()
     {

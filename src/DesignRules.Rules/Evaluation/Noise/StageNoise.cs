@@ -138,6 +138,31 @@ internal static class StageNoise
         _ => "change the diode's operating current, or filter after it",
     };
 
+    /// <summary>Most points of a noise plot's traces: enough for a smooth curve, small enough for a diff-able SVG.</summary>
+    private const int PlotPoints = 161;
+
+    /// <summary>The plot data of a stage's noise: the analysis' final grid thinned to at most <see cref="PlotPoints"/> points.</summary>
+    public static NoisePlot Plot(StageNoiseFigures figures)
+    {
+        var r = figures.Result;
+        int count = r.Frequencies.Count;
+        int stride = Math.Max(1, (int)Math.Ceiling((count - 1) / (double)(PlotPoints - 1)));
+        var index = Enumerable.Range(0, count).Where(i => i % stride == 0 || i == count - 1).ToArray();
+        double[] Pick(IReadOnlyList<double> values) => index.Select(i => values[i]).ToArray();
+        var contributors = r.Contributors.Select(c => new NoiseContributor(c.Element, Words(c.Kind), c.Rms, c.Share, Pick(c.Density))).ToList();
+        return new NoisePlot(Pick(r.Frequencies), Pick(r.OutputDensity), contributors, r.OutputRms);
+    }
+
+    /// <summary>A kind of noise as a page names it.</summary>
+    public static string Words(NoiseKind kind) => kind switch
+    {
+        NoiseKind.Thermal => "thermal 4kTR",
+        NoiseKind.AmplifierVoltage => "voltage noise e_n",
+        NoiseKind.AmplifierCurrentNonInverting => "current noise i_n at +",
+        NoiseKind.AmplifierCurrentInverting => "current noise i_n at −",
+        _ => "shot noise 2qI",
+    };
+
     /// <summary>Where to point a noise finding: the element of the largest contributor, else the stage.</summary>
     public static Diagnostics.SourceSpan Target(DesignEvaluation evaluation, StageNoiseFigures figures)
     {
