@@ -37,7 +37,7 @@ internal sealed class NoiseLevelRule : Rule
                 continue;
             }
 
-            var top = result.Contributors[0];
+            var top = result.Contributors.Count > 0 ? result.Contributors[0] : null;
             evaluation.Report(Id, id, StageNoise.Target(evaluation, figures), new Dictionary<string, string>
             {
                 ["stage"] = id,
@@ -46,7 +46,7 @@ internal sealed class NoiseLevelRule : Rule
                 ["band"] = figures.Band,
                 ["limit"] = Say.Volts(limit),
                 ["margin"] = Say.Volts(noise - limit),
-                ["cause"] = $"{StageNoise.Cause(top)} ({Say.Percent(top.Share)} of the noise power)",
+                ["cause"] = StageNoise.Cause(top),
                 ["fix"] = StageNoise.Fix(top),
             }, at == NoiseReference.Output ? output : input, new Figure("allowed noise", limit, "V"));
         }

@@ -33,7 +33,7 @@ internal sealed class SignalToNoiseRule : Rule
                 continue;
             }
 
-            var top = figures.Result.Contributors[0];
+            var top = figures.Result.Contributors.Count > 0 ? figures.Result.Contributors[0] : null;
             evaluation.Report(Id, id, StageNoise.Target(evaluation, figures), new Dictionary<string, string>
             {
                 ["stage"] = id,
@@ -43,7 +43,7 @@ internal sealed class SignalToNoiseRule : Rule
                 ["band"] = figures.Band,
                 ["limit"] = Decibels(limit),
                 ["margin"] = Decibels(limit - snr),
-                ["cause"] = $"{StageNoise.Cause(top)} ({Say.Percent(top.Share)} of the noise power)",
+                ["cause"] = StageNoise.Cause(top),
                 ["fix"] = StageNoise.Fix(top),
             }, figure, new Figure("required signal-to-noise ratio", limit, "dB"));
         }

@@ -119,23 +119,24 @@ internal static class StageNoise
         _ => 1 / Math.Sqrt(2),
     };
 
-    /// <summary>A contributor in words: "the thermal noise of `rect.rf`".</summary>
-    public static string Cause(NoiseContribution c) => c.Kind switch
+    /// <summary>A contributor in words with its share: "the thermal noise of `rect.rf` (40 % of the noise power)".</summary>
+    public static string Cause(NoiseContribution? c) => c is null ? "not known (the analysis found no noise source)" : c.Kind switch
     {
         NoiseKind.Thermal => $"the thermal noise of `{c.Element}`",
         NoiseKind.AmplifierVoltage => $"the voltage noise of `{c.Element}`",
         NoiseKind.AmplifierCurrentNonInverting => $"the current noise of `{c.Element}` at its + input",
         NoiseKind.AmplifierCurrentInverting => $"the current noise of `{c.Element}` at its − input",
         _ => $"the shot noise of `{c.Element}`",
-    };
+    } + $" ({Say.Percent(c.Share)} of the noise power)";
 
     /// <summary>What would lower a contributor.</summary>
-    public static string Fix(NoiseContribution c) => c.Kind switch
+    public static string Fix(NoiseContribution? c) => c?.Kind switch
     {
         NoiseKind.Thermal => "lower that resistance (noise voltage grows as √R) or narrow the noise band",
         NoiseKind.AmplifierVoltage => "choose an amplifier with a lower noise density, or lower the noise gain",
         NoiseKind.AmplifierCurrentNonInverting or NoiseKind.AmplifierCurrentInverting => "choose an amplifier with lower current noise (a JFET or CMOS input), or lower the resistance its input sees",
-        _ => "change the diode's operating current, or filter after it",
+        NoiseKind.Shot => "change the diode's operating current, or filter after it",
+        _ => "narrow the noise band",
     };
 
     /// <summary>Most points of a noise plot's traces: enough for a smooth curve, small enough for a diff-able SVG.</summary>
