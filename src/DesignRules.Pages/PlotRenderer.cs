@@ -164,7 +164,7 @@ internal static class PlotRenderer
         double bottom = Math.Max(floor, shown.SelectMany(c => c.Density).Concat(plot.Total).DefaultIfEmpty(floor).Min());
         model.Axes.Add(new LogarithmicAxis
         {
-            Position = AxisPosition.Left, Title = "Noise density at the output", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12,
+            Position = AxisPosition.Left, Title = "Noise density at the output (V/√Hz)", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12,
             Minimum = bottom * 0.8, Maximum = top * 1.25,
             LabelFormatter = v => new DesignRules.Quantities.Quantity(v, DesignRules.Quantities.Dimension.VoltageNoiseDensity).Format(),
         });
