@@ -113,7 +113,7 @@ public sealed class ResultCacheTests : IDisposable
             {
                 "flip a byte of the payload" => Flip(bytes, bytes.Length - 10),
                 "cut the entry short" => bytes[..(bytes.Length / 2)],
-                "another format version" => System.Text.Encoding.UTF8.GetBytes(System.Text.Encoding.UTF8.GetString(bytes).Replace("designrules-results 1\n", "designrules-results 0\n", StringComparison.Ordinal)),
+                "another format version" => System.Text.Encoding.UTF8.GetBytes(System.Text.Encoding.UTF8.GetString(bytes).Replace("designrules-results " + ResultCodec.FormatVersion.ToString(System.Globalization.CultureInfo.InvariantCulture) + "\n", "designrules-results 0\n", StringComparison.Ordinal)),
                 _ => "{}"u8.ToArray(),
             });
         }
