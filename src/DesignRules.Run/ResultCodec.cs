@@ -12,8 +12,8 @@ namespace DesignRules.Run;
 /// </summary>
 internal static class ResultCodec
 {
-    /// <summary>The version of this encoding, part of every entry's key. 3: a figure keeps its temperature; 4: a finding keeps its fix hint.</summary>
-    public const int FormatVersion = 4;
+    /// <summary>The version of this encoding, part of every entry's key. 3: a figure keeps its temperature; 4: a finding keeps its fix hint; 5: a plot keeps its noise densities, a stage its noise figures.</summary>
+    public const int FormatVersion = 5;
 
     private static readonly JsonSerializerOptions Options = new()
     {

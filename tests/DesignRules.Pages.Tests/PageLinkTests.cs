@@ -74,6 +74,12 @@ public sealed class PageLinkTests
                 Assert.Contains("Magnitude (dB)", texts);
                 Assert.Contains("magnitude", texts);
             }
+            else if (plot.EndsWith("-noise.svg", StringComparison.Ordinal))
+            {
+                Assert.Contains("Frequency (Hz)", texts);
+                Assert.Contains("Noise density at the output (V/√Hz)", texts);
+                Assert.Contains("total", texts);
+            }
             else
             {
                 Assert.Contains("Samples", texts);

@@ -116,6 +116,8 @@ internal static class PartsReader
         span?.Finish();
         var maxDiff = m.Quantity("max-differential-input", Dimension.Voltage, required: false, ValueChecks.Positive);
         var noise = m.Quantity("noise-density", Dimension.VoltageNoiseDensity, required: false, ValueChecks.NotNegative);
+        var currentNoise = m.Quantity("current-noise", Dimension.CurrentNoiseDensity, required: false, ValueChecks.NotNegative);
+        var noiseCorner = m.Quantity("noise-corner", Dimension.Frequency, required: false, ValueChecks.NotNegative);
         var recovery = m.Quantity("overload-recovery", Dimension.Time, required: false, ValueChecks.NotNegative);
         var drift = m.Quantity("offset-drift", Dimension.VoltageDrift, required: false, ValueChecks.NotNegative);
         var doubling = m.Quantity("bias-doubling", Dimension.Temperature, required: false,
@@ -133,6 +135,8 @@ internal static class PartsReader
             OffsetCurrent = ios,
             OffsetDrift = drift,
             BiasDoubling = doubling,
+            CurrentNoise = currentNoise,
+            NoiseCorner = noiseCorner,
         };
     }
 

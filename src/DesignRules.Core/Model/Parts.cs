@@ -77,6 +77,11 @@ public sealed record AmplifierPart(
     /// practice), if the part states it; without it the bias current is taken as constant with temperature.
     /// </summary>
     public Located<Quantity>? BiasDoubling { get; init; }
+    /// <summary>Input current noise density at each input (taken as white), if given.</summary>
+    public Located<Quantity>? CurrentNoise { get; init; }
+
+    /// <summary>1/f corner of the input voltage noise (e_n(f)² = e_n²·(1 + f_c/f)), if given; without it the voltage noise is white.</summary>
+    public Located<Quantity>? NoiseCorner { get; init; }
 }
 
 /// <summary>A diode class or part. Either a saturation current and emission coefficient or a forward-voltage point is given.</summary>

@@ -25,6 +25,7 @@ internal static class PlotCollector
         // Only settled periods are plotted: an unsettled transient is reported (DR925), not drawn as if it were the signal.
         var transient = chain.Period is null || !analyses.Steady(BandEnd.Top).Settled ? null : analyses.Transient(BandEnd.Top);
         var ac = analyses.Ac();
+        var noise = Noise.StageNoise.Stages(evaluation).ToDictionary(n => n.Stage.StageId, Noise.StageNoise.Plot, StringComparer.Ordinal);
         var plots = new List<StagePlots>();
         foreach (var stage in chain.Stages)
         {
@@ -84,7 +85,10 @@ internal static class PlotCollector
                 }
             }
 
-            plots.Add(new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId)));
+            plots.Add(new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId))
+            {
+                Noise = noise.GetValueOrDefault(stage.StageId),
+            });
         }
 
         return plots;

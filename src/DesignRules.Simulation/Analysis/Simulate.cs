@@ -110,6 +110,52 @@ public static class Simulate
         return AcAnalysis.Run(compiled, solver.Context.X, sweep, limits, op);
     }
 
+    /// <summary>
+    /// Noise analysis, linearised at the DC operating point: the output noise density of every resistor (4kT/R),
+    /// amplifier (e_n with its 1/f corner, i_n at each input) and diode (2q|I|), integrated over the request's band,
+    /// with the gain from the request's input source to refer it to the input (see <see cref="NoiseRequest"/>).
+    /// </summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="request">Output node, input source, band and integration tolerance.</param>
+    /// <param name="limits">Solver bounds.</param>
+    public static NoiseResult Noise(Circuit circuit, NoiseRequest request, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        ArgumentNullException.ThrowIfNull(request);
+        limits ??= SolverLimits.Default;
+        if (request.Validate() is { } bad) return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, bad));
+        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new NoiseResult(failure);
+        if (!compiled!.Devices.Any(d => d.Id == request.InputSource && d is VoltageSourceDevice or CurrentSourceDevice))
+        {
+            return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, $"the noise input '{request.InputSource}' is not an independent voltage or current source of this circuit") { ElementId = request.InputSource });
+        }
+
+        if (request.InputLevel is { } level)
+        {
+            if (!compiled.Devices.Any(d => d.Id == request.InputSource && d is VoltageSourceDevice))
+            {
+                return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, $"an input level needs the noise input '{request.InputSource}' to be a voltage source") { ElementId = request.InputSource });
+            }
+
+            var context = solver.Context;
+            context.OverrideSource = request.InputSource;
+            context.OverrideValue = level;
+            failure = OperatingPointSolver.Solve(solver, "the operating point of the noise analysis");
+            if (failure is not null && OperatingPointSolver.Continue(solver, v => context.OverrideValue = v, 0, level))
+            {
+                // A level that switches a diode on is reached in steps from a zero source, as a DC sweep does.
+                failure = null;
+            }
+        }
+        else
+        {
+            failure = OperatingPointSolver.Solve(solver, "the DC operating point");
+        }
+
+        if (failure is not null) return new NoiseResult(failure);
+        return NoiseAnalysis.Run(compiled, solver.Context.X, request, limits);
+    }
+
     /// <summary>Transient analysis from the DC operating point at t = 0 (see <see cref="TransientOptions"/>).</summary>
     /// <param name="circuit">Circuit to solve.</param>
     /// <param name="options">Stop time, step bounds, method and tolerances.</param>
