@@ -1,5 +1,6 @@
 using DesignRules.Elaboration;
 using DesignRules.Figures.LoadingBandwidthStress;
+using DesignRules.Figures.Noise;
 using DesignRules.Figures.SlewSaturation;
 using DesignRules.Figures.Tolerance;
 using DesignRules.Model;
@@ -24,8 +25,8 @@ internal interface IAnalysisFailures
 /// <summary>
 /// The named analyses of one design, each computed at most once, on first use, and shared by every rule that needs it:
 /// the nominal chain and its settled transient at each band end, the DC operating point, the AC sweep, the amplifier
-/// waveforms, the single-supply bias, the offset corners, the small-signal loading, the output-current demand, and per
-/// stage the worst case and the Monte Carlo of its DC transfer. Not thread-safe: one design is evaluated on one thread.
+/// waveforms, the single-supply bias, the offset corners, the small-signal loading, the output-current demand, the noise
+/// of the stages that ask for it, and per stage the worst case and the Monte Carlo of its DC transfer. Not thread-safe: one design is evaluated on one thread.
 /// </summary>
 internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo, IAnalysisFailures failures)
 {
@@ -47,6 +48,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private IReadOnlyList<(ToleranceCorner Corner, BandWaveforms Band)>? cornerWaveforms;
     private IReadOnlyList<(ToleranceCorner Corner, ElaboratedChain Chain, IReadOnlyDictionary<string, AmplifierDemand> Demands)>? cornerDemands;
     private IReadOnlyDictionary<string, FillingHold>? fillingHolds;
+    private IReadOnlyList<StageNoiseFigures>? noise;
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -119,6 +121,13 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>The peak stages whose hold capacitor is still filling in the measured periods, by stage id.</summary>
     public IReadOnlyDictionary<string, FillingHold> FillingHolds => fillingHolds ??= HoldFilling.Compute(this);
+
+    /// <summary>
+    /// The noise at the output of every stage whose requirements ask for it (<c>snr</c>, <c>noise</c>, a rectifier's
+    /// <c>min-signal</c>), over its noise band, in signal order: the nominal chain compiled once for noise and each stage
+    /// analysed on it (<see cref="StageNoise"/>), shared by the noise rules and the pages.
+    /// </summary>
+    public IReadOnlyList<StageNoiseFigures> Noise => noise ??= StageNoise.Compute(this);
 
     /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
     public IReadOnlyList<StageProbe> Stages

@@ -1,9 +1,7 @@
 using DesignRules.Elaboration;
 using DesignRules.Model;
-using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
-using DesignRules.Simulation;
 
-namespace DesignRules.Rules.Evaluation.Noise;
+namespace DesignRules.Figures.Noise;
 
 /// <summary>
 /// The noise of one stage's output: the engine's noise analysis of the whole chain (every resistor, amplifier and diode up
@@ -28,11 +26,15 @@ internal sealed record StageNoiseFigures(StageProbe Stage, NoiseResult Result, d
     /// <summary>The output noise referred to the stage's own input (divided by its ideal gain), V RMS.</summary>
     public double NoiseAtStageInput => StageGain > 0 ? Result.OutputRms / StageGain : double.PositiveInfinity;
 
-    /// <summary>The band as people read it.</summary>
-    public string Band => $"{Say.Hertz(Low)} to {Say.Hertz(High)}";
+    /// <summary>The largest contributor, or null when the analysis found no noise source.</summary>
+    public NoiseContribution? Largest => Result.Contributors.Count > 0 ? Result.Contributors[0] : null;
 }
 
-/// <summary>Which stages get a noise analysis, over which band, and the shared analysis itself.</summary>
+/// <summary>
+/// Which stages get a noise analysis, over which band, and the analysis itself: the nominal chain compiled once for
+/// noise (<see cref="NoiseCircuit"/>), every wanted stage analysed on it, its operating point solved once per input level.
+/// <see cref="DesignAnalyses.Noise"/> computes it once per design and every noise rule and the pages share it.
+/// </summary>
 internal static class StageNoise
 {
     /// <summary>True when a stage states a requirement that needs its noise: <c>snr</c>, <c>noise</c>, or a rectifier's <c>min-signal</c>.</summary>
@@ -54,20 +56,22 @@ internal static class StageNoise
     }
 
     /// <summary>
-    /// The noise figures of every stage that wants them and has a band, in signal order; a failed analysis is reported
-    /// once (DR920) and its stage skipped.
+    /// The noise figures of every stage that wants them and has a band, in signal order, from one compilation of the
+    /// nominal chain; a failed analysis is reported once (DR920) and its stage left out.
     /// </summary>
-    public static IEnumerable<StageNoiseFigures> Stages(DesignEvaluation evaluation)
+    public static IReadOnlyList<StageNoiseFigures> Compute(DesignAnalyses analyses)
     {
-        var chain = evaluation.Analyses.Chain(BandEnd.Top);
+        var chain = analyses.Chain(BandEnd.Top);
         if (!chain.Succeeded)
         {
-            yield break;
+            return [];
         }
 
-        var design = evaluation.Design;
+        var design = analyses.Design;
         double level = SourceSignal.Amplitude(design.Source.Waveform);
         double? inputLevel = null;
+        NoiseCircuit? circuit = null;
+        var figures = new List<StageNoiseFigures>();
         foreach (var stage in chain.Stages)
         {
             double gain = Math.Max(Math.Abs(stage.Transfer.SlopePositive), Math.Abs(stage.Transfer.SlopeNegative));
@@ -78,21 +82,23 @@ internal static class StageNoise
 
             if (Wanted(stage) && Band(design, stage.Stage) is { } band)
             {
-                var request = new NoiseRequest(stage.OutputNode, chain.SourceId, band.Low, band.High) { InputLevel = inputLevel };
-                var result = evaluation.Analyses.Shared("noise:" + stage.StageId, () => Simulate.Noise(chain.Circuit, request));
+                circuit ??= NoiseCircuit.Compile(chain.Circuit);
+                var result = circuit.Analyse(new NoiseRequest(stage.OutputNode, chain.SourceId, band.Low, band.High) { InputLevel = inputLevel });
                 if (result.Failure is { } failure)
                 {
-                    evaluation.ReportFailure("the noise analysis", failure, chain);
+                    analyses.ReportFailure("the noise analysis", failure, chain);
                 }
                 else
                 {
                     double signal = stage.Stage.Requirements.MinSignal?.Value.Value ?? level;
-                    yield return new StageNoiseFigures(stage, result, band.Low, band.High, signal, gain, RmsFactor(design.Source.Waveform.Kind));
+                    figures.Add(new StageNoiseFigures(stage, result, band.Low, band.High, signal, gain, RmsFactor(design.Source.Waveform.Kind)));
                 }
             }
 
             level *= gain;
         }
+
+        return figures;
     }
 
     /// <summary>
@@ -118,56 +124,4 @@ internal static class StageNoise
         WaveformKind.Square or WaveformKind.Dc => 1,
         _ => 1 / Math.Sqrt(2),
     };
-
-    /// <summary>A contributor in words with its share: "the thermal noise of `rect.rf` (40 % of the noise power)".</summary>
-    public static string Cause(NoiseContribution? c) => c is null ? "not known (the analysis found no noise source)" : c.Kind switch
-    {
-        NoiseKind.Thermal => $"the thermal noise of `{c.Element}`",
-        NoiseKind.AmplifierVoltage => $"the voltage noise of `{c.Element}`",
-        NoiseKind.AmplifierCurrentNonInverting => $"the current noise of `{c.Element}` at its + input",
-        NoiseKind.AmplifierCurrentInverting => $"the current noise of `{c.Element}` at its − input",
-        _ => $"the shot noise of `{c.Element}`",
-    } + $" ({Say.Percent(c.Share)} of the noise power)";
-
-    /// <summary>What would lower a contributor.</summary>
-    public static string Fix(NoiseContribution? c) => c?.Kind switch
-    {
-        NoiseKind.Thermal => "lower that resistance (noise voltage grows as √R) or narrow the noise band",
-        NoiseKind.AmplifierVoltage => "choose an amplifier with a lower noise density, or lower the noise gain",
-        NoiseKind.AmplifierCurrentNonInverting or NoiseKind.AmplifierCurrentInverting => "choose an amplifier with lower current noise (a JFET or CMOS input), or lower the resistance its input sees",
-        NoiseKind.Shot => "change the diode's operating current, or filter after it",
-        _ => "narrow the noise band",
-    };
-
-    /// <summary>Most points of a noise plot's traces: enough for a smooth curve, small enough for a diff-able SVG.</summary>
-    private const int PlotPoints = 161;
-
-    /// <summary>The plot data of a stage's noise: the analysis' final grid thinned to at most <see cref="PlotPoints"/> points.</summary>
-    public static NoisePlot Plot(StageNoiseFigures figures)
-    {
-        var r = figures.Result;
-        int count = r.Frequencies.Count;
-        int stride = Math.Max(1, (int)Math.Ceiling((count - 1) / (double)(PlotPoints - 1)));
-        var index = Enumerable.Range(0, count).Where(i => i % stride == 0 || i == count - 1).ToArray();
-        double[] Pick(IReadOnlyList<double> values) => index.Select(i => values[i]).ToArray();
-        var contributors = r.Contributors.Select(c => new NoiseContributor(c.Element, Words(c.Kind), c.Rms, c.Share, Pick(c.Density))).ToList();
-        return new NoisePlot(Pick(r.Frequencies), Pick(r.OutputDensity), contributors, r.OutputRms);
-    }
-
-    /// <summary>A kind of noise as a page names it.</summary>
-    public static string Words(NoiseKind kind) => kind switch
-    {
-        NoiseKind.Thermal => "thermal 4kTR",
-        NoiseKind.AmplifierVoltage => "voltage noise e_n",
-        NoiseKind.AmplifierCurrentNonInverting => "current noise i_n at +",
-        NoiseKind.AmplifierCurrentInverting => "current noise i_n at −",
-        _ => "shot noise 2qI",
-    };
-
-    /// <summary>Where to point a noise finding: the element of the largest contributor, else the stage.</summary>
-    public static Diagnostics.SourceSpan Target(DesignEvaluation evaluation, StageNoiseFigures figures)
-    {
-        var chain = evaluation.Analyses.Chain(BandEnd.Top);
-        return figures.Result.Contributors.Count > 0 ? chain.Locate(figures.Result.Contributors[0].Element) : figures.Stage.Stage.Span;
-    }
 }

@@ -75,8 +75,8 @@ public static class RequirementTable
                 && stage is BlockStage { Block.TakesDifferentialInput: true },
             NotApplicableReason = "common-mode rejection is measured on a difference stage that is the first stage, fed from a source with a `common-mode` level",
         },
-        Noise("snr", ["DR420"], r => r.SignalToNoise?.Span, r => $"at least {(20 * Math.Log10(r.SignalToNoise!.Value.Value)).ToString("0.#", CultureInfo.InvariantCulture)} dB"),
-        Noise("noise", ["DR421"], r => r.Noise?.Span,
+        Noise("snr", [RuleIds.SignalToNoise], r => r.SignalToNoise?.Span, r => $"at least {(20 * Math.Log10(r.SignalToNoise!.Value.Value)).ToString("0.#", CultureInfo.InvariantCulture)} dB"),
+        Noise("noise", [RuleIds.NoiseLevel], r => r.Noise?.Span,
             r => $"at most {r.Noise!.Rms.Value.Format()} RMS {(r.Noise.At.Value == NoiseReference.Input ? "referred to the input" : "at the output")}"),
         Filter("cutoff", r => r.Cutoff, s => s is FilterShape.LowPass or FilterShape.HighPass, "a cutoff belongs to a low- or high-pass filter block (a band-pass states its `centre`)"),
         Filter("centre", r => r.Centre, s => s is FilterShape.BandPass, "a centre frequency belongs to a band-pass filter block (a low- or high-pass states its `cutoff`)"),
@@ -123,19 +123,4 @@ public static class RequirementTable
 
     private static string Words(string pascal) =>
         string.Concat(pascal.Select((c, i) => i > 0 && char.IsUpper(c) ? "-" + char.ToLower(c, CultureInfo.InvariantCulture) : char.ToLower(c, CultureInfo.InvariantCulture).ToString()));
-}
-
-/// <summary>
-/// The one definition of each property of a stage that rules, hygiene checks and pages ask about. Every caller uses
-/// these, so that "is this a rectifying stage" has one answer.
-/// </summary>
-internal static class StageProperties
-{
-    /// <summary>
-    /// True for a stage that rectifies: a block whose descriptor says so; a netlist that holds a diode and is required to
-    /// pass one or both half-cycles (a netlist gain stage with a clamp diode does not rectify).
-    /// </summary>
-    public static bool IsRectifying(StageProbe probe) => probe.Stage is BlockStage block
-        ? block.Block.Rectifies
-        : probe.Diodes.Count > 0 && probe.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
 }

@@ -122,38 +122,7 @@ public static class Simulate
     {
         ArgumentNullException.ThrowIfNull(circuit);
         ArgumentNullException.ThrowIfNull(request);
-        limits ??= SolverLimits.Default;
-        if (request.Validate() is { } bad) return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, bad));
-        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new NoiseResult(failure);
-        if (!compiled!.Devices.Any(d => d.Id == request.InputSource && d is VoltageSourceDevice or CurrentSourceDevice))
-        {
-            return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, $"the noise input '{request.InputSource}' is not an independent voltage or current source of this circuit") { ElementId = request.InputSource });
-        }
-
-        if (request.InputLevel is { } level)
-        {
-            if (!compiled.Devices.Any(d => d.Id == request.InputSource && d is VoltageSourceDevice))
-            {
-                return new NoiseResult(new SimulationFailure(FailureKind.UnusableRequest, $"an input level needs the noise input '{request.InputSource}' to be a voltage source") { ElementId = request.InputSource });
-            }
-
-            var context = solver.Context;
-            context.OverrideSource = request.InputSource;
-            context.OverrideValue = level;
-            failure = OperatingPointSolver.Solve(solver, "the operating point of the noise analysis");
-            if (failure is not null && OperatingPointSolver.Continue(solver, v => context.OverrideValue = v, 0, level))
-            {
-                // A level that switches a diode on is reached in steps from a zero source, as a DC sweep does.
-                failure = null;
-            }
-        }
-        else
-        {
-            failure = OperatingPointSolver.Solve(solver, "the DC operating point");
-        }
-
-        if (failure is not null) return new NoiseResult(failure);
-        return NoiseAnalysis.Run(compiled, solver.Context.X, request, limits);
+        return NoiseCircuit.Compile(circuit, limits).Analyse(request);
     }
 
     /// <summary>Transient analysis from the DC operating point at t = 0 (see <see cref="TransientOptions"/>).</summary>

@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Noise;
 
 /// <summary>
 /// Small-signal noise analysis at the DC operating point. At each frequency the devices load their linearised

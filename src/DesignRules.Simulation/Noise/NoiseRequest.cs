@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Noise;
 
 /// <summary>How each noise source's transfer to the output is found.</summary>
 public enum NoiseTransferMethod

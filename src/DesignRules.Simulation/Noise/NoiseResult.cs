@@ -1,4 +1,4 @@
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Noise;
 
 /// <summary>One contributor to the output noise: an element's noise source, its density at the output and its share.</summary>
 /// <param name="Element">Id of the element.</param>

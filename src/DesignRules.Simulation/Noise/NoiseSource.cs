@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Noise;
 
 /// <summary>The physical origin of a noise contributor.</summary>
 public enum NoiseKind

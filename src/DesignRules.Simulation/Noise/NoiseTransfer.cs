@@ -1,6 +1,6 @@
 using System.Numerics;
 
-namespace DesignRules.Simulation;
+namespace DesignRules.Simulation.Noise;
 
 /// <summary>
 /// Finds, at one frequency, the transfer of every noise source and of the input source to the output node, from the

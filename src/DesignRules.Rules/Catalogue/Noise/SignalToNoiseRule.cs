@@ -1,5 +1,6 @@
+using System.Globalization;
+using DesignRules.Diagnostics;
 using DesignRules.Rules.Evaluation;
-using DesignRules.Rules.Evaluation.Noise;
 
 namespace DesignRules.Rules.Catalogue.Noise;
 
@@ -10,17 +11,17 @@ namespace DesignRules.Rules.Catalogue.Noise;
 /// </summary>
 internal sealed class SignalToNoiseRule : Rule
 {
-    public override string Id => "DR420";
+    public override RuleId Id => RuleIds.SignalToNoise;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
-        foreach (var figures in StageNoise.Stages(evaluation))
+        foreach (var figures in evaluation.Analyses.Noise)
         {
             string id = figures.Stage.StageId;
             double snr = figures.SignalToNoiseDecibels;
             var stated = figures.Stage.Stage.Requirements.SignalToNoise;
             double? required = stated is null ? null : 20 * Math.Log10(stated.Value.Value);
-            var figure = new Figure("signal-to-noise ratio", snr, "dB");
+            var figure = FigureKinds.SignalToNoise.Of(snr);
             evaluation.Record(id, required is { } atLeast ? figure.AtLeast(atLeast) : figure);
             if (stated is null || required is not { } limit)
             {
@@ -33,21 +34,21 @@ internal sealed class SignalToNoiseRule : Rule
                 continue;
             }
 
-            var top = figures.Result.Contributors.Count > 0 ? figures.Result.Contributors[0] : null;
-            evaluation.Report(Id, id, StageNoise.Target(evaluation, figures), new Dictionary<string, string>
+            var top = figures.Largest;
+            evaluation.Report(Id, id, NoiseFindings.Target(evaluation, figures), new Dictionary<string, string>
             {
                 ["stage"] = id,
                 ["snr"] = Decibels(snr),
                 ["signal"] = Say.Volts(figures.SignalPeak),
                 ["noise"] = Say.Volts(figures.Result.OutputRms),
-                ["band"] = figures.Band,
+                ["band"] = NoiseFindings.Band(figures),
                 ["limit"] = Decibels(limit),
                 ["margin"] = Decibels(limit - snr),
-                ["cause"] = StageNoise.Cause(top),
-                ["fix"] = StageNoise.Fix(top),
-            }, figure, new Figure("required signal-to-noise ratio", limit, "dB"));
+                ["cause"] = NoiseFindings.Cause(top),
+                ["fix"] = NoiseFindings.Fix(top),
+            }, figure, FigureKinds.RequiredSignalToNoise.Of(limit));
         }
     }
 
-    private static string Decibels(double db) => db.ToString("0.#", System.Globalization.CultureInfo.InvariantCulture) + " dB";
+    private static string Decibels(double db) => db.ToString("0.#", CultureInfo.InvariantCulture) + " dB";
 }

@@ -1,7 +1,7 @@
+using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
-using DesignRules.Rules.Evaluation.Noise;
 
 namespace DesignRules.Rules.Catalogue.Noise;
 
@@ -17,12 +17,12 @@ internal sealed class SmallestSignalRule : Rule
     /// <summary>The forward current the diode drop is taken at, A (as DR502).</summary>
     private const double DiodeCurrent = 1e-3;
 
-    public override string Id => "DR422";
+    public override RuleId Id => RuleIds.SmallestSignal;
 
     public override void Evaluate(DesignEvaluation evaluation)
     {
         var chain = evaluation.Analyses.Chain(BandEnd.Top);
-        foreach (var figures in StageNoise.Stages(evaluation))
+        foreach (var figures in evaluation.Analyses.Noise)
         {
             var stage = figures.Stage;
             if (!StageProperties.IsRectifying(stage) || stage.Stage.Requirements.MinSignal is not { } minSignal)
@@ -50,9 +50,9 @@ internal sealed class SmallestSignalRule : Rule
             double noise = figures.NoiseAtStageInput;
             double floor = deadZone + (crest * noise);
             double signal = minSignal.Value.Value;
-            evaluation.Record(id, "rectifier dead zone", deadZone, "V");
-            evaluation.Record(id, "noise floor at the stage input", noise, "V");
-            var figure = new Figure("dead zone plus noise floor", floor, "V").AtMost(signal);
+            evaluation.Record(id, FigureKinds.RectifierDeadZone.Of(deadZone));
+            evaluation.Record(id, FigureKinds.NoiseFloorAtInput.Of(noise));
+            var figure = FigureKinds.DeadZoneAndFloor.Of(floor).AtMost(signal);
             evaluation.Record(id, figure);
             evaluation.Judged(id, "min-signal", Id);
             if (floor <= signal)
@@ -69,10 +69,10 @@ internal sealed class SmallestSignalRule : Rule
                 ["frequency"] = Say.Hertz(top),
                 ["crest"] = crest.ToString("0.##", System.Globalization.CultureInfo.InvariantCulture),
                 ["noise"] = Say.Volts(noise),
-                ["band"] = figures.Band,
+                ["band"] = NoiseFindings.Band(figures),
                 ["floor"] = Say.Volts(floor),
                 ["margin"] = Say.Volts(floor - signal),
-            }, figure, new Figure("smallest signal", signal, "V"));
+            }, figure, FigureKinds.SmallestSignal.Of(signal));
         }
     }
 }
