@@ -1,3 +1,5 @@
+using DesignRules.Diagnostics;
+
 namespace DesignRules.Rules.Tests.Noise;
 
 /// <summary>DR420-DR422: signal-to-noise ratio, noise level, and a rectifier's smallest signal against its dead zone and noise floor.</summary>
@@ -11,7 +13,7 @@ public sealed class NoiseRuleTests
 
     [Fact]
     public void A_signal_to_noise_ratio_below_its_requirement_points_at_the_largest_contributor() =>
-        Assert.Contains("voltage noise of `amp.u1`", RuleFixture.Verify("noise/inverting-snr-short.yaml").Findings.Single(f => f.RuleId == "DR420").Message, StringComparison.Ordinal);
+        Assert.Contains("voltage noise of `amp.u1`", RuleFixture.Verify("noise/inverting-snr-short.yaml").Findings.Single(f => f.RuleId == RuleIds.SignalToNoise).Message, StringComparison.Ordinal);
 
     [Fact]
     public void Output_noise_within_its_requirement_passes() => RuleFixture.Verify("noise/inverting-noise-within.yaml");
@@ -38,13 +40,13 @@ public sealed class NoiseRuleTests
         double power = (121 * en * en * ((fc * Math.Log(fh / fl)) + (fh - fl)))
             + ((4 * K * T * rin * 100) + (4 * K * T * rf) + (inoise * inoise * rf * rf)) * (fh - fl);
         double expected = Math.Sqrt(power);
-        var output = figures.Single(f => f.Name == "output noise");
+        var output = figures.Single(f => f.Key == FigureKinds.OutputNoise.Key);
         // 1 %: the amplifier's closed-loop roll-off (GBW 4 MHz / 11 = 364 kHz) and the 10 kΩ load are not in the textbook sum.
         Assert.Equal(expected, output.Value, expected * 0.01);
-        Assert.Equal(expected / 10, figures.Single(f => f.Name == "input-referred noise").Value, expected / 10 * 0.01);
+        Assert.Equal(expected / 10, figures.Single(f => f.Key == FigureKinds.InputReferredNoise.Key).Value, expected / 10 * 0.01);
 
         // SNR = 20·log10((10 mV · 10 / √2) / noise).
         double snr = 20 * Math.Log10(10e-3 * 10 / Math.Sqrt(2) / expected);
-        Assert.Equal(snr, figures.Single(f => f.Name == "signal-to-noise ratio").Value, 0.1);
+        Assert.Equal(snr, figures.Single(f => f.Key == FigureKinds.SignalToNoise.Key).Value, 0.1);
     }
 }
