@@ -107,12 +107,43 @@ public sealed class NoiseAnalysisTests
         var noise = Simulate.Noise(circuit, new NoiseRequest("out", "vin", 100, 1e3));
         Assert.True(noise.Succeeded, noise.Failure?.ToString());
 
-        // Textbook inverting-stage noise: noise gain 1 + Rf/Rin = 11 on e_n; Rin's 4kT·Rin amplified by the signal gain
-        // Rf/Rin; Rf's own 4kT·Rf and i_n·Rf appear at the output directly; all added in quadrature.
-        double fourKT = 4 * K * t;
-        double output = Math.Sqrt(Math.Pow(11 * en, 2) + (fourKT * rin * 100) + (fourKT * rf) + Math.Pow(inoise * rf, 2));
-        Assert.All(noise.OutputDensity, d => Assert.Equal(output, d, output * 1e-4));
+        // Worked by hand with the op-amp noise model of the textbooks (S. Franco, Design with Operational Amplifiers and
+        // Analog Integrated Circuits, chapter "Noise": e_n times the noise gain 1 + Rf/Rin, each resistor's 4kTR through
+        // its own gain, i_n·Rf, added in quadrature), 4kT at 300 K = 1.6568e-20 J with the SI 2019 Boltzmann constant:
+        //   e_n · 11              = 110.00 nV/√Hz
+        //   √(4kT·1 kΩ) · Rf/Rin   =  40.70 nV/√Hz
+        //   √(4kT·10 kΩ)           =  12.87 nV/√Hz
+        //   i_n · Rf              =  20.00 nV/√Hz
+        //   total √(Σ²)           = 119.68 nV/√Hz; over 100 Hz..1 kHz × √900 = 3.590 µV RMS; referred to the input
+        //   (signal gain 10) 0.3590 µV RMS.
+        Assert.All(noise.OutputDensity, d => Assert.Equal(119.68e-9, d, 0.01e-9));
+        Assert.Equal(3.590e-6, noise.OutputRms, 0.001e-6);
         Assert.Equal(10, noise.PassbandGain, 10 * 1e-4);
+        Assert.Equal(0.3590e-6, noise.InputReferredRms, 0.0001e-6);
+        Assert.Equal(("u1", NoiseKind.AmplifierVoltage), (noise.Contributors[0].Element, noise.Contributors[0].Kind));
+    }
+
+    [Fact]
+    public void A_circuit_compiled_once_for_noise_serves_every_output_from_one_operating_point_per_input_level()
+    {
+        var circuit = NonInvertingWithSource(1e3, 9e3, 1e3, 10e-9, 1e-12, 300);
+        var compiled = NoiseCircuit.Compile(circuit);
+        var atOut = compiled.Analyse(new NoiseRequest("out", "vin", 100, 1e3));
+        var atFeedback = compiled.Analyse(new NoiseRequest("fb", "vin", 100, 1e3));
+        Assert.Equal(1, compiled.OperatingPointsSolved);
+
+        // The same figures as a circuit compiled afresh for each request.
+        foreach (var (reused, node) in new[] { (atOut, "out"), (atFeedback, "fb") })
+        {
+            var fresh = Simulate.Noise(circuit, new NoiseRequest(node, "vin", 100, 1e3));
+            Assert.Equal(fresh.OutputDensity, reused.OutputDensity);
+            Assert.Equal(fresh.OutputRms, reused.OutputRms);
+        }
+
+        // Another input level is another operating point; asking again at it solves nothing more.
+        compiled.Analyse(new NoiseRequest("out", "vin", 100, 1e3) { InputLevel = 0.1 });
+        compiled.Analyse(new NoiseRequest("fb", "vin", 100, 1e3) { InputLevel = 0.1 });
+        Assert.Equal(2, compiled.OperatingPointsSolved);
     }
 
     [Fact]

@@ -15,7 +15,8 @@ namespace DesignRules.Figures.Noise;
 /// <param name="SignalPeak">The smallest signal at the stage input, peak V (<c>min-signal</c>, else the source carried through the stages before).</param>
 /// <param name="StageGain">The stage's ideal gain magnitude (the larger slope of a rectifier).</param>
 /// <param name="RmsFactor">RMS over peak of the source waveform (1/√2 for a sine).</param>
-internal sealed record StageNoiseFigures(StageProbe Stage, NoiseResult Result, double Low, double High, double SignalPeak, double StageGain, double RmsFactor)
+/// <param name="Circuit">The chain compiled for noise that every stage of the design was analysed on.</param>
+internal sealed record StageNoiseFigures(StageProbe Stage, NoiseResult Result, double Low, double High, double SignalPeak, double StageGain, double RmsFactor, NoiseCircuit Circuit)
 {
     /// <summary>RMS of the smallest signal at the stage output, V.</summary>
     public double SignalRms => SignalPeak * StageGain * RmsFactor;
@@ -91,7 +92,7 @@ internal static class StageNoise
                 else
                 {
                     double signal = stage.Stage.Requirements.MinSignal?.Value.Value ?? level;
-                    figures.Add(new StageNoiseFigures(stage, result, band.Low, band.High, signal, gain, RmsFactor(design.Source.Waveform.Kind)));
+                    figures.Add(new StageNoiseFigures(stage, result, band.Low, band.High, signal, gain, RmsFactor(design.Source.Waveform.Kind), circuit));
                 }
             }
 

@@ -1,4 +1,8 @@
 using DesignRules.Diagnostics;
+using DesignRules.Loading;
+using DesignRules.Model;
+using DesignRules.Rules.Catalogue.Noise;
+using DesignRules.Rules.Evaluation;
 
 namespace DesignRules.Rules.Tests.Noise;
 
@@ -48,5 +52,26 @@ public sealed class NoiseRuleTests
         // SNR = 20·log10((10 mV · 10 / √2) / noise).
         double snr = 20 * Math.Log10(10e-3 * 10 / Math.Sqrt(2) / expected);
         Assert.Equal(snr, figures.Single(f => f.Key == FigureKinds.SignalToNoise.Key).Value, 0.1);
+    }
+
+    [Fact]
+    public void The_noise_of_every_stage_is_analysed_once_on_one_compiled_chain_and_shared_by_the_noise_rules()
+    {
+        var file = Path.Combine(RuleFixture.RepositoryRoot(), "example-design", "designs", "compressor-vibration-envelope.yaml");
+        var design = Assert.Single(DesignLoader.LoadFiles([file]).Designs);
+        var evaluation = new DesignEvaluation(design, RuleSet.Default);
+        foreach (var rule in new Rule[] { new SignalToNoiseRule(), new NoiseLevelRule(), new SmallestSignalRule() })
+        {
+            rule.Evaluate(evaluation);
+        }
+
+        var noise = evaluation.Analyses.Noise;
+        Assert.Same(noise, evaluation.Analyses.Noise);
+        Assert.Equal(["preamp", "rectifier"], noise.Select(n => n.Stage.StageId));
+
+        // One compilation for both stages; two operating points: the preamp's quiescent one and the rectifier's at the
+        // level it passes.
+        Assert.Same(noise[0].Circuit, noise[1].Circuit);
+        Assert.Equal(2, noise[0].Circuit.OperatingPointsSolved);
     }
 }
