@@ -223,12 +223,17 @@ internal static class PartsReader
         var ifr = m.Quantity("forward-current", Dimension.Current, required: true, ValueChecks.Positive);
         var cj = m.Quantity("capacitance", Dimension.Capacitance, required: false, ValueChecks.NotNegative);
         var bv = m.Quantity("breakdown-voltage", Dimension.Voltage, required: false, ValueChecks.Positive);
+        var coefficient = m.Quantity("forward-voltage-coefficient", Dimension.VoltageDrift, required: false,
+            q => q.Value is >= -10e-3 and <= 0 ? null : "a diode's forward-voltage coefficient lies between -10 mV/°C and 0 (silicon junctions: about -2 mV/°C)");
         if ((isat is null && vf is null) || vr is null || ifr is null || (forward is not null && (vf is null || vfCurrent is null)))
         {
             return null;
         }
 
-        return new DiodePart(id, description, typical, isat, emission, vf, vfCurrent, rs, vr, ifr, cj, bv, m.Span);
+        return new DiodePart(id, description, typical, isat, emission, vf, vfCurrent, rs, vr, ifr, cj, bv, m.Span)
+        {
+            ForwardVoltageCoefficient = coefficient,
+        };
     }
 
     private static ResistorFamily? ReadResistors(MappingReader m, Located<string> id)

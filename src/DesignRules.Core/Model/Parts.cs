@@ -111,7 +111,14 @@ public sealed record DiodePart(
     Located<Quantity> ForwardCurrentRating,
     Located<Quantity>? Capacitance,
     Located<Quantity>? BreakdownVoltage,
-    SourceSpan Span);
+    SourceSpan Span)
+{
+    /// <summary>
+    /// The forward voltage's change with temperature at a fixed current (V/K, written mV/°C), if the part states it;
+    /// without it a silicon junction's −2 mV/°C is taken (common practice).
+    /// </summary>
+    public Located<Quantity>? ForwardVoltageCoefficient { get; init; }
+}
 
 /// <summary>A family of resistors: tolerance, temperature coefficient and ratings.</summary>
 /// <param name="Id">The family id.</param>
