@@ -119,6 +119,8 @@ internal static class PartsReader
         var currentNoise = m.Quantity("current-noise", Dimension.CurrentNoiseDensity, required: false, ValueChecks.NotNegative);
         var noiseCorner = m.Quantity("noise-corner", Dimension.Frequency, required: false, ValueChecks.NotNegative);
         var recovery = m.Quantity("overload-recovery", Dimension.Time, required: false, ValueChecks.NotNegative);
+        var slewDerating = m.Quantity("slew-derating", Dimension.TemperatureCoefficient, required: false,
+            q => Math.Abs(q.Value) <= 4e-3 ? null : "a slew-rate derating lies within ±0.004 /°C (±0.4 % per °C)");
         var drift = m.Quantity("offset-drift", Dimension.VoltageDrift, required: false, ValueChecks.NotNegative);
         var doubling = m.Quantity("bias-doubling", Dimension.Temperature, required: false,
             ValueChecks.Within(1, 100, "a bias-current doubling interval lies between 1 °C and 100 °C (JFET and CMOS inputs: about 10 °C)"));
@@ -137,6 +139,7 @@ internal static class PartsReader
             BiasDoubling = doubling,
             CurrentNoise = currentNoise,
             NoiseCorner = noiseCorner,
+            SlewDerating = slewDerating,
         };
     }
 

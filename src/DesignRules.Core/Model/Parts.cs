@@ -80,6 +80,13 @@ public sealed record AmplifierPart(
     /// <summary>Input current noise density at each input (taken as white), if given.</summary>
     public Located<Quantity>? CurrentNoise { get; init; }
 
+    /// <summary>
+    /// Optional derating of the slew rate with temperature, a fraction per kelvin (written /°C or ppm/°C): the slew rate at
+    /// T is SR·(1 + d·(T − 25 °C)). Applied where a design states a temperature range; without it the slew rate is taken
+    /// as constant.
+    /// </summary>
+    public Located<Quantity>? SlewDerating { get; init; }
+
     /// <summary>1/f corner of the input voltage noise (e_n(f)² = e_n²·(1 + f_c/f)), if given; without it the voltage noise is white.</summary>
     public Located<Quantity>? NoiseCorner { get; init; }
 }

@@ -69,6 +69,26 @@ internal static class TemperatureBehaviour
     public static double BiasGrowth(AmplifierVariable a, double celsius) => a.Doubling > 0 ? Math.Pow(2, (celsius - Reference) / a.Doubling) : 1;
 
     public static double DiodeShift(DiodeVariable diode, double celsius) => diode.Coefficient * (celsius - Reference);
+
+    /// <summary>An amplifier's slew rate at <paramref name="celsius"/> over its rate at 25 °C: 1 + d·(T − 25 °C), d its stated derating (none: 1).</summary>
+    public static double SlewFactor(Model.AmplifierPart part, double celsius) => 1 + ((part.SlewDerating?.Value.Value ?? 0) * (celsius - Reference));
+
+    /// <summary>
+    /// The slowest slew rate of an amplifier over the design's operating range, as a factor of its 25 °C rate, and the end
+    /// of the range it occurs at (the derating is linear, so its extreme lies at an end); (1, null) without a range or a
+    /// derating.
+    /// </summary>
+    public static (double Factor, double? At) SlowestSlew(Model.Design design, Model.AmplifierPart part)
+    {
+        if (design.Temperature is not { } range || part.SlewDerating is not { } derating || derating.Value.Value == 0)
+        {
+            return (1, null);
+        }
+
+        double low = range.Value.Low.Value, high = range.Value.High.Value;
+        double atLow = SlewFactor(part, low), atHigh = SlewFactor(part, high);
+        return atLow < atHigh ? (atLow, low) : (atHigh, high);
+    }
 }
 
 /// <summary>
