@@ -38,6 +38,9 @@ public static class PartModels
             CommonModeHeadroomNegative = Math.Max(0, part.InputRange.Negative.Value.Value),
             MaxDifferentialInput = part.MaxDifferentialInput?.Value.Value,
             OverloadRecoveryTime = part.OverloadRecovery?.Value.Value ?? 0,
+            InputVoltageNoise = part.NoiseDensity?.Value.Value ?? 0,
+            InputCurrentNoise = part.CurrentNoise?.Value.Value ?? 0,
+            NoiseCorner = part.NoiseCorner?.Value.Value ?? 0,
         };
     }
 

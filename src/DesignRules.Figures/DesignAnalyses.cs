@@ -2,6 +2,7 @@ using DesignRules.Blocks;
 using DesignRules.Elaboration;
 using DesignRules.Figures.Filters;
 using DesignRules.Figures.LoadingBandwidthStress;
+using DesignRules.Figures.Noise;
 using DesignRules.Figures.SlewSaturation;
 using DesignRules.Figures.Stability;
 using DesignRules.Figures.Tolerance;
@@ -27,8 +28,8 @@ internal interface IAnalysisFailures
 /// <summary>
 /// The named analyses of one design, each computed at most once, on first use, and shared by every rule that needs it:
 /// the nominal chain and its settled transient at each band end, the DC operating point, the AC sweep, the amplifier
-/// waveforms, the single-supply bias, the offset corners, the small-signal loading, the output-current demand, and per
-/// stage the worst case and the Monte Carlo of its DC transfer. Not thread-safe: one design is evaluated on one thread.
+/// waveforms, the single-supply bias, the offset corners, the small-signal loading, the output-current demand, the noise
+/// of the stages that ask for it, and per stage the worst case and the Monte Carlo of its DC transfer. Not thread-safe: one design is evaluated on one thread.
 /// </summary>
 internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo, IAnalysisFailures failures)
 {
@@ -55,6 +56,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private LoopGainFigures? loopGains;
     private StepFigures? steps;
     private readonly Dictionary<(string ElementId, double Limit), CapacitiveLoadFix?> capacitiveLoads = [];
+    private IReadOnlyList<StageNoiseFigures>? noise;
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -180,6 +182,13 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin) =>
         capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin), out var c) ? c
         : capacitiveLoads[(loop.ElementId, minPhaseMargin)] = CapacitiveLoadVariants.Compute(LoopGains.Chain, loop, minPhaseMargin);
+
+    /// <summary>
+    /// The noise at the output of every stage whose requirements ask for it (<c>snr</c>, <c>noise</c>, a rectifier's
+    /// <c>min-signal</c>), over its noise band, in signal order: the nominal chain compiled once for noise and each stage
+    /// analysed on it (<see cref="StageNoise"/>), shared by the noise rules and the pages.
+    /// </summary>
+    public IReadOnlyList<StageNoiseFigures> Noise => noise ??= StageNoise.Compute(this);
 
     /// <summary>The stages of the nominal chain (none when the chain could not be built).</summary>
     public IReadOnlyList<StageProbe> Stages

@@ -47,7 +47,7 @@ public static class DatasheetPages
             foreach (var plots in summary.Plots)
             {
                 var stage = OutputFolder.SafeName(plots.StageId);
-                files.AddRange(new (object? Data, string Kind)[] { (plots.Transient, "transient"), (plots.Bode, "response"), (plots.Distribution, "monte-carlo") }
+                files.AddRange(new (object? Data, string Kind)[] { (plots.Transient, "transient"), (plots.Bode, "response"), (plots.Distribution, "monte-carlo"), (plots.Noise, "noise") }
                     .Where(p => p.Data is not null).Select(p => $"plots/{name}/{stage}-{p.Kind}.svg"));
 
                 // The stability plots belong to the page as much as the others: a kept page keeps them, or they would vanish.
@@ -104,6 +104,11 @@ public static class DatasheetPages
                 if (plots.Distribution is not null)
                 {
                     contents[$"plots/{name}/{stage}-monte-carlo.svg"] = PlotRenderer.Histogram(plots.StageId, plots.Distribution);
+                }
+
+                if (plots.Noise is not null)
+                {
+                    contents[$"plots/{name}/{stage}-noise.svg"] = PlotRenderer.NoiseDensity(plots.StageId, plots.Noise);
                 }
             }
 

@@ -193,7 +193,45 @@ internal static class PageModel
             ["step_plot"] = plots?.Step is null ? null : Link(plotPath(stage.Id.Value, "step")),
             ["step_overshoot"] = plots?.Step?.Overshoot,
             ["amplifier_nodes"] = new ScriptArray(plots?.Transient?.Traces.Where(t => t.Role == TraceRole.AmplifierOutput).Select(t => t.Name) ?? []),
+            ["noise_plot"] = plots?.Noise is null ? null : Link(plotPath(stage.Id.Value, "noise")),
+            ["noise_rms"] = plots?.Noise?.OutputRms,
+            ["noise_contributors"] = NoiseContributors(plots?.Noise),
         };
+    }
+
+    /// <summary>Rows of the noise contributor table shown before the rest are summed into one row.</summary>
+    private const int NoiseRows = 8;
+
+    /// <summary>The largest contributors, one row each, the rest summed in power into one row.</summary>
+    private static ScriptArray NoiseContributors(NoisePlot? noise)
+    {
+        var rows = new ScriptArray();
+        if (noise is null)
+        {
+            return rows;
+        }
+
+        // Contributors below 0.01 % of the noise power are summed with the rest: they would only be rows of zeros.
+        var listed = noise.Contributors.Take(NoiseRows).Where(c => c.Share >= 1e-4).ToList();
+        foreach (var c in listed)
+        {
+            rows.Add(new ScriptObject { ["element"] = c.Element, ["source"] = c.Source, ["rms"] = c.Rms, ["share"] = c.Share });
+        }
+
+        var rest = noise.Contributors.Skip(listed.Count).ToList();
+        if (rest.Count > 0)
+        {
+            rows.Add(new ScriptObject
+            {
+                ["element"] = null,
+                ["others"] = $"{rest.Count} others",
+                ["source"] = string.Empty,
+                ["rms"] = Math.Sqrt(rest.Sum(c => c.Rms * c.Rms)),
+                ["share"] = rest.Sum(c => c.Share),
+            });
+        }
+
+        return rows;
     }
 
     private static ScriptObject Part(string slot, string id, string description, string kind) => new()

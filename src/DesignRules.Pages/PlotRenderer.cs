@@ -145,6 +145,55 @@ internal static class PlotRenderer
         return Export(model);
     }
 
+    /// <summary>Contributors drawn beside the total; the rest are in the page's table.</summary>
+    private const int NoiseTraces = 6;
+
+    public static string NoiseDensity(string stageId, NoisePlot plot)
+    {
+        var model = Model($"{stageId}: output noise density, {EngineeringFunctions.Engineering(plot.OutputRms, "V")} RMS over the band");
+        model.Axes.Add(new LogarithmicAxis
+        {
+            Position = AxisPosition.Bottom, Title = "Frequency (Hz)", MajorGridlineStyle = LineStyle.Dot,
+            LabelFormatter = f => new DesignRules.Quantities.Quantity(f, DesignRules.Quantities.Dimension.Frequency).Format(),
+        });
+
+        // A log axis cannot show zero: a contributor whose transfer vanishes somewhere is drawn at a floor far below the total.
+        double top = plot.Total.Count == 0 ? 1e-9 : plot.Total.Max();
+        double floor = top * 1e-4;
+        var shown = plot.Contributors.Where(c => c.Share >= 1e-4).Take(NoiseTraces).ToList();
+        double bottom = Math.Max(floor, shown.SelectMany(c => c.Density).Concat(plot.Total).DefaultIfEmpty(floor).Min());
+        model.Axes.Add(new LogarithmicAxis
+        {
+            Position = AxisPosition.Left, Title = "Noise density at the output (V/√Hz)", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12,
+            Minimum = bottom * 0.8, Maximum = top * 1.25,
+            LabelFormatter = v => new DesignRules.Quantities.Quantity(v, DesignRules.Quantities.Dimension.VoltageNoiseDensity).Format(),
+        });
+        var total = new LineSeries { Title = "total", StrokeThickness = 2.5 };
+        for (var i = 0; i < plot.Frequency.Count; i++)
+        {
+            total.Points.Add(new DataPoint(plot.Frequency[i], Math.Max(plot.Total[i], floor)));
+        }
+
+        model.Series.Add(total);
+        foreach (var c in shown)
+        {
+            var series = new LineSeries
+            {
+                Title = $"{c.Element} {c.Source} ({EngineeringFunctions.Engineering(c.Share, "%")})",
+                StrokeThickness = 1.5,
+                LineStyle = LineStyle.Dash,
+            };
+            for (var i = 0; i < plot.Frequency.Count; i++)
+            {
+                series.Points.Add(new DataPoint(plot.Frequency[i], Math.Max(c.Density[i], floor)));
+            }
+
+            model.Series.Add(series);
+        }
+
+        return Export(model);
+    }
+
     private static PlotModel Model(string title)
     {
         var model = new PlotModel

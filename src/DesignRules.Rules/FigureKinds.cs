@@ -383,6 +383,37 @@ public static class FigureKinds
     /// <summary>The nearest capacitor value of the declared E-series. <c>hygiene.nearest-preferred-capacitor</c></summary>
     public static readonly FigureKind NearestPreferredCapacitorValue = new("hygiene.nearest-preferred-capacitor", "F", "nearest preferred value");
 
+    // Noise (DR420-DR422).
+    /// <summary>RMS noise at the stage output over its noise band. <c>noise.output</c></summary>
+    public static readonly FigureKind OutputNoise = new("noise.output", "V", "output noise (RMS)");
+
+    /// <summary>The output noise referred to the design's input (over the pass-band gain from the source). <c>noise.input-referred</c></summary>
+    public static readonly FigureKind InputReferredNoise = new("noise.input-referred", "V", "input-referred noise (RMS)");
+
+    /// <summary>The largest RMS noise the stage's <c>noise</c> requirement allows. <c>noise.allowed</c></summary>
+    public static readonly FigureKind AllowedNoise = new("noise.allowed", "V", "allowed noise (RMS)");
+
+    /// <summary>A contributor's share of the output noise power (subject: the element). <c>noise.share</c></summary>
+    public static readonly FigureKind NoiseShare = new("noise.share", "%", "share of the output noise power of {0}");
+
+    /// <summary>Signal-to-noise ratio of the smallest signal at the stage output. <c>noise.snr</c></summary>
+    public static readonly FigureKind SignalToNoise = new("noise.snr", "dB", "signal-to-noise ratio");
+
+    /// <summary>The stage's <c>snr</c> requirement. <c>noise.snr.required</c></summary>
+    public static readonly FigureKind RequiredSignalToNoise = new("noise.snr.required", "dB", "required signal-to-noise ratio");
+
+    /// <summary>A precision rectifier's dead zone referred to its input (offset plus diode drop over loop gain). <c>noise.dead-zone</c></summary>
+    public static readonly FigureKind RectifierDeadZone = new("noise.dead-zone", "V", "rectifier dead zone");
+
+    /// <summary>The stage's output noise divided by its gain (RMS). <c>noise.floor-at-input</c></summary>
+    public static readonly FigureKind NoiseFloorAtInput = new("noise.floor-at-input", "V", "noise floor at the stage input");
+
+    /// <summary>The dead zone plus the crest factor times the noise floor. <c>noise.dead-zone-and-floor</c></summary>
+    public static readonly FigureKind DeadZoneAndFloor = new("noise.dead-zone-and-floor", "V", "dead zone plus noise floor");
+
+    /// <summary>The smallest signal the stage must rectify (<c>min-signal</c>). <c>noise.smallest-signal</c></summary>
+    public static readonly FigureKind SmallestSignal = new("noise.smallest-signal", "V", "smallest signal");
+
     /// <summary>Every kind, in declaration order.</summary>
     public static IReadOnlyList<FigureKind> All { get; } = typeof(FigureKinds).GetFields(System.Reflection.BindingFlags.Public | System.Reflection.BindingFlags.Static)
         .Where(f => f.FieldType == typeof(FigureKind)).Select(f => (FigureKind)f.GetValue(null)!).ToList();

@@ -60,6 +60,21 @@ public sealed record SampleDistribution(string Figure, string Unit, IReadOnlyLis
     public string? Caption { get; init; }
 }
 
+/// <summary>One contributor to a stage's output noise, for the noise plot and the contributor table.</summary>
+/// <param name="Element">The element id (<c>amp.rf</c>, <c>amp.u1</c>, <c>source.rs</c>).</param>
+/// <param name="Source">What kind of noise, in words ("thermal 4kTR", "voltage noise e_n").</param>
+/// <param name="Rms">Its RMS noise at the stage output over the band, V.</param>
+/// <param name="Share">Its fraction of the output noise power (0..1).</param>
+/// <param name="Density">Its density at the output at each plot frequency, V/√Hz.</param>
+public sealed record NoiseContributor(string Element, string Source, double Rms, double Share, IReadOnlyList<double> Density);
+
+/// <summary>The noise density at a stage's output over the noise band: the total and each contributor, largest first.</summary>
+/// <param name="Frequency">Hertz, log-spaced, both band ends included.</param>
+/// <param name="Total">Total density at the output, V/√Hz.</param>
+/// <param name="Contributors">Every contributor, largest first.</param>
+/// <param name="OutputRms">The integrated RMS noise at the output, V.</param>
+public sealed record NoisePlot(IReadOnlyList<double> Frequency, IReadOnlyList<double> Total, IReadOnlyList<NoiseContributor> Contributors, double OutputRms);
+
 /// <summary>The plot data of one stage; each part is absent when it does not apply or its analysis failed.</summary>
 /// <param name="StageId">The stage id.</param>
 /// <param name="Transient">The band-top transient.</param>
@@ -72,4 +87,6 @@ public sealed record StagePlots(string StageId, TransientPlot? Transient, BodePl
 
     /// <summary>The small-step response, where the stage rings (overshoot above 5 %); null otherwise.</summary>
     public StepPlot? Step { get; init; }
+    /// <summary>The output noise density with its contributors, for a stage whose requirements asked for its noise.</summary>
+    public NoisePlot? Noise { get; init; }
 }

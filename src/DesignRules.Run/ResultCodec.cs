@@ -14,7 +14,8 @@ internal static class ResultCodec
 {
     /// <summary>
     /// The version of this encoding, part of every entry's key. 3: a figure keeps its temperature; 4: a finding keeps its fix
-    /// hint; 5: a stage's plots keep their loop-gain and step plots (an entry of 4 would replay a page without them).
+    /// hint; 5: a stage's plots keep their loop-gain and step plots (an entry of 4 would replay a page without them), and a
+    /// plot its noise densities, a stage its noise figures.
     /// </summary>
     public const int FormatVersion = 5;
 

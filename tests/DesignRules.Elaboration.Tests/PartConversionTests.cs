@@ -23,6 +23,9 @@ public sealed class PartConversionTests
             bias-current: { typical: 20 nA, maximum: 100 nA }
             supply-span: { minimum: 8 V, maximum: 36 V }
             max-differential-input: 15 V
+            noise-density: 9 nV/rtHz
+            current-noise: 0.3 pA/rtHz
+            noise-corner: 40 Hz
             overload-recovery: 2 us
         diodes:
           - id: point-diode
@@ -66,6 +69,9 @@ public sealed class PartConversionTests
         Assert.Equal(0, model.CommonModeHeadroomNegative);        // beyond the rail: the engine takes 0 (flags beyond-rail inputs)
         Assert.Equal(15, model.MaxDifferentialInput!.Value, 12);
         Assert.Equal(2e-6, model.OverloadRecoveryTime, 15);
+        Assert.Equal(9e-9, model.InputVoltageNoise, 1e-21);
+        Assert.Equal(0.3e-12, model.InputCurrentNoise, 1e-24);
+        Assert.Equal(40, model.NoiseCorner, 12);
     }
 
     [Fact]

@@ -86,6 +86,12 @@ public sealed class PageLinkTests
                 Assert.Contains("Voltage (V)", texts);
                 Assert.Contains(texts, t => t.EndsWith("(stage output)", StringComparison.Ordinal));
             }
+            else if (plot.EndsWith("-noise.svg", StringComparison.Ordinal))
+            {
+                Assert.Contains("Frequency (Hz)", texts);
+                Assert.Contains("Noise density at the output (V/√Hz)", texts);
+                Assert.Contains("total", texts);
+            }
             else
             {
                 Assert.Contains("Samples", texts);

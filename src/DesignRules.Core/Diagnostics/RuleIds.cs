@@ -70,6 +70,15 @@ public static class RuleIds
     /// <summary>DR410: Filter figure over tolerances.</summary>
     public static readonly RuleId FilterTolerance = new("DR410");
 
+    /// <summary>DR420: Signal-to-noise ratio.</summary>
+    public static readonly RuleId SignalToNoise = new("DR420");
+
+    /// <summary>DR421: Noise level.</summary>
+    public static readonly RuleId NoiseLevel = new("DR421");
+
+    /// <summary>DR422: Smallest signal above the dead zone and the noise floor.</summary>
+    public static readonly RuleId SmallestSignal = new("DR422");
+
     /// <summary>DR501: Closed-loop bandwidth.</summary>
     public static readonly RuleId ClosedLoopBandwidth = new("DR501");
 

@@ -417,6 +417,11 @@ internal static class DesignReader
         var centre = FilterTargetOf(m, "centre", Dimension.Frequency, ValueChecks.Positive);
         var q = FilterTargetOf(m, "q", Dimension.Ratio, ValueChecks.PositiveWithin(1e-3, 1e3, "a Q lies between 0.001 and 1000"));
         var passbandGain = FilterTargetOf(m, "passband-gain", Dimension.Ratio, ValueChecks.Within(1e-6, 1e7, "a gain magnitude lies between 1e-6 and 1e7"));
+        var snr = m.Quantity("snr", Dimension.Ratio, required: false,
+            q => q.Value is > 1 and <= 1e12 ? null : "a signal-to-noise ratio is above 1 (0 dB) and at most 1e12 (240 dB), e.g. 60 dB");
+        var noise = ReadNoise(m);
+        var noiseBand = m.Range("noise-band", Dimension.Frequency, required: false,
+            r => r.Low.Value > 0 ? null : "the noise band must start above 0 Hz");
         StopbandRequirement? stopband = null;
         if (m.Child("stopband", $"the stop-band requirement of {m.What}", required: false, string.Empty) is { } sb)
         {
@@ -431,7 +436,41 @@ internal static class DesignReader
         return new Requirements(transfer, gain, accuracy, glitch, yield, bandwidth, offset, minSignal, m.Span)
         {
             CommonModeRejection = cmrr, Cutoff = cutoff, Centre = centre, Q = q, PassbandGain = passbandGain, Stopband = stopband,
+            SignalToNoise = snr, Noise = noise, NoiseBand = noiseBand,
         };
+    }
+
+    private static readonly Dictionary<string, NoiseReference> NoiseReferences = new(StringComparer.Ordinal)
+    {
+        ["output"] = NoiseReference.Output,
+        ["input"] = NoiseReference.Input,
+    };
+
+    /// <summary>A noise requirement: an RMS voltage at the output (<c>noise: 50 uV</c>) or <c>{ rms: 2 uV, at: input }</c>.</summary>
+    private static NoiseRequirement? ReadNoise(MappingReader m)
+    {
+        var node = m.Node("noise", required: false, "an RMS noise voltage such as 50 uV, or { rms: 2 uV, at: input }");
+        if (node is null)
+        {
+            return null;
+        }
+
+        if (node is YamlScalar s)
+        {
+            var q = m.ParseQuantity(s, "noise", Dimension.Voltage, ValueChecks.Positive);
+            return q is null ? null : new NoiseRequirement(q, new Located<NoiseReference>(NoiseReference.Output, q.Span), q.Span);
+        }
+
+        var n = MappingReader.Of(node, "the noise requirement", d(m));
+        if (n is null)
+        {
+            return null;
+        }
+
+        var rms = n.Quantity("rms", Dimension.Voltage, required: true, ValueChecks.Positive);
+        var at = n.Choice("at", NoiseReferences, required: false);
+        n.Finish();
+        return rms is null ? null : new NoiseRequirement(rms, at ?? new Located<NoiseReference>(NoiseReference.Output, rms.Span), n.Span);
     }
 
     /// <summary>A filter figure written as <c>{ value: …, within: 2% }</c>.</summary>

@@ -116,7 +116,11 @@ internal static class PartsReader
         span?.Finish();
         var maxDiff = m.Quantity("max-differential-input", Dimension.Voltage, required: false, ValueChecks.Positive);
         var noise = m.Quantity("noise-density", Dimension.VoltageNoiseDensity, required: false, ValueChecks.NotNegative);
+        var currentNoise = m.Quantity("current-noise", Dimension.CurrentNoiseDensity, required: false, ValueChecks.NotNegative);
+        var noiseCorner = m.Quantity("noise-corner", Dimension.Frequency, required: false, ValueChecks.NotNegative);
         var recovery = m.Quantity("overload-recovery", Dimension.Time, required: false, ValueChecks.NotNegative);
+        var slewDerating = m.Quantity("slew-derating", Dimension.TemperatureCoefficient, required: false,
+            q => Math.Abs(q.Value) <= 4e-3 ? null : "a slew-rate derating lies within ±0.004 /°C (±0.4 % per °C)");
         var drift = m.Quantity("offset-drift", Dimension.VoltageDrift, required: false, ValueChecks.NotNegative);
         var doubling = m.Quantity("bias-doubling", Dimension.Temperature, required: false,
             ValueChecks.Within(1, 100, "a bias-current doubling interval lies between 1 °C and 100 °C (JFET and CMOS inputs: about 10 °C)"));
@@ -135,6 +139,9 @@ internal static class PartsReader
             OffsetDrift = drift,
             BiasDoubling = doubling,
             CapacitiveLoad = capacitiveLoad,
+            CurrentNoise = currentNoise,
+            NoiseCorner = noiseCorner,
+            SlewDerating = slewDerating,
         };
     }
 
@@ -221,12 +228,17 @@ internal static class PartsReader
         var ifr = m.Quantity("forward-current", Dimension.Current, required: true, ValueChecks.Positive);
         var cj = m.Quantity("capacitance", Dimension.Capacitance, required: false, ValueChecks.NotNegative);
         var bv = m.Quantity("breakdown-voltage", Dimension.Voltage, required: false, ValueChecks.Positive);
+        var coefficient = m.Quantity("forward-voltage-coefficient", Dimension.VoltageDrift, required: false,
+            q => q.Value is >= -10e-3 and <= 0 ? null : "a diode's forward-voltage coefficient lies between -10 mV/°C and 0 (silicon junctions: about -2 mV/°C)");
         if ((isat is null && vf is null) || vr is null || ifr is null || (forward is not null && (vf is null || vfCurrent is null)))
         {
             return null;
         }
 
-        return new DiodePart(id, description, typical, isat, emission, vf, vfCurrent, rs, vr, ifr, cj, bv, m.Span);
+        return new DiodePart(id, description, typical, isat, emission, vf, vfCurrent, rs, vr, ifr, cj, bv, m.Span)
+        {
+            ForwardVoltageCoefficient = coefficient,
+        };
     }
 
     private static ResistorFamily? ReadResistors(MappingReader m, Located<string> id)

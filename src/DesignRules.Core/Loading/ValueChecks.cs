@@ -53,6 +53,7 @@ public static class PlausibleRange
         [Dimension.TemperatureCoefficient] = (1e-12, 1),
         [Dimension.VoltageNoiseDensity] = (1e-15, 1e-3),
         [Dimension.VoltageDrift] = (1e-12, 1),
+        [Dimension.CurrentNoiseDensity] = (1e-18, 1e-3),
     };
 
     /// <summary>The smallest non-zero and the largest magnitude accepted for a dimension (temperatures have their key's own range).</summary>
@@ -79,6 +80,7 @@ public static class PlausibleRange
         Dimension.TemperatureCoefficient => "temperature coefficient",
         Dimension.VoltageNoiseDensity => "noise density",
         Dimension.VoltageDrift => "voltage drift",
+        Dimension.CurrentNoiseDensity => "current noise density",
         _ => dimension.ToString().ToLowerInvariant(),
     };
 }

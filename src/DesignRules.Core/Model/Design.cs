@@ -156,9 +156,36 @@ public sealed record Requirements(
     /// <summary>The least attenuation a filter stage must give at a frequency in its stop band.</summary>
     public StopbandRequirement? Stopband { get; init; }
 
+    /// <summary>
+    /// Lowest allowed signal-to-noise ratio at the stage output for the smallest signal (<see cref="MinSignal"/>, else the
+    /// source's level), a plain amplitude ratio (<c>snr: 60 dB</c> is 1000).
+    /// </summary>
+    public Located<Quantity>? SignalToNoise { get; init; }
+
+    /// <summary>Largest allowed RMS noise over the noise band, at the stage output or referred to the design's input.</summary>
+    public NoiseRequirement? Noise { get; init; }
+
+    /// <summary>The band noise is integrated over when the source states no band of its own.</summary>
+    public Located<QuantityRange>? NoiseBand { get; init; }
+
     /// <summary>No requirement at all.</summary>
     public static Requirements None(SourceSpan span) => new(null, null, null, null, null, null, null, null, span);
 }
+
+/// <summary>Where a noise requirement is measured.</summary>
+public enum NoiseReference
+{
+    /// <summary>At the stage output.</summary>
+    Output,
+    /// <summary>Referred to the design's input: the output noise divided by the pass-band gain from the source.</summary>
+    Input,
+}
+
+/// <summary>The largest RMS noise a stage may show, and where it is measured.</summary>
+/// <param name="Rms">The RMS noise voltage over the noise band.</param>
+/// <param name="At">At the output, or referred to the input.</param>
+/// <param name="Span">Where the requirement is written.</param>
+public sealed record NoiseRequirement(Located<Quantity> Rms, Located<NoiseReference> At, SourceSpan Span);
 
 /// <summary>A filter figure a stage must reach, and how far the built circuit may be off it (relative).</summary>
 /// <param name="Value">The figure (a frequency, a Q, a gain).</param>

@@ -80,6 +80,18 @@ public sealed record AmplifierPart(
 
     /// <summary>The largest capacitance the part is specified to drive stably at its output, if the part states one.</summary>
     public Located<Quantity>? CapacitiveLoad { get; init; }
+    /// <summary>Input current noise density at each input (taken as white), if given.</summary>
+    public Located<Quantity>? CurrentNoise { get; init; }
+
+    /// <summary>
+    /// Optional derating of the slew rate with temperature, a fraction per kelvin (written /°C or ppm/°C): the slew rate at
+    /// T is SR·(1 + d·(T − 25 °C)). Applied where a design states a temperature range; without it the slew rate is taken
+    /// as constant.
+    /// </summary>
+    public Located<Quantity>? SlewDerating { get; init; }
+
+    /// <summary>1/f corner of the input voltage noise (e_n(f)² = e_n²·(1 + f_c/f)), if given; without it the voltage noise is white.</summary>
+    public Located<Quantity>? NoiseCorner { get; init; }
 }
 
 /// <summary>A diode class or part. Either a saturation current and emission coefficient or a forward-voltage point is given.</summary>
@@ -109,7 +121,14 @@ public sealed record DiodePart(
     Located<Quantity> ForwardCurrentRating,
     Located<Quantity>? Capacitance,
     Located<Quantity>? BreakdownVoltage,
-    SourceSpan Span);
+    SourceSpan Span)
+{
+    /// <summary>
+    /// The forward voltage's change with temperature at a fixed current (V/K, written mV/°C), if the part states it;
+    /// without it a silicon junction's −2 mV/°C is taken (common practice).
+    /// </summary>
+    public Located<Quantity>? ForwardVoltageCoefficient { get; init; }
+}
 
 /// <summary>A family of resistors: tolerance, temperature coefficient and ratings.</summary>
 /// <param name="Id">The family id.</param>

@@ -31,4 +31,6 @@ public enum Dimension
     VoltageNoiseDensity,
     /// <summary>Volt per kelvin: a voltage's drift with temperature (written µV/°C by people).</summary>
     VoltageDrift,
+    /// <summary>Ampere per root hertz (written pA/√Hz by people).</summary>
+    CurrentNoiseDensity,
 }

@@ -25,6 +25,7 @@ internal static class QuantityFormatter
             Dimension.TemperatureCoefficient => Plain(v, digits, 6) + " ppm/°C",
             Dimension.VoltageNoiseDensity => Plain(v, digits, 9) + " nV/√Hz",
             Dimension.VoltageDrift => Plain(v, digits, 6) + " µV/°C",
+            Dimension.CurrentNoiseDensity => Plain(v, digits, 12) + " pA/√Hz",
             _ => Engineering(v, digits, UnitSymbol(q.Dimension)),
         };
     }

@@ -22,6 +22,7 @@ public static class QuantityForms
         Dimension.TemperatureCoefficient => "a temperature coefficient such as 50 ppm/°C, ±25 ppm/K or 0.0039 /K",
         Dimension.VoltageNoiseDensity => "a noise density such as 18 nV/rtHz, 18 nV/√Hz or 4 nV/sqrt(Hz)",
         Dimension.VoltageDrift => "a voltage drift such as 5 µV/°C, 2 uV/C or -2 mV/°C",
+        Dimension.CurrentNoiseDensity => "a current noise density such as 0.5 pA/rtHz, 4 fA/√Hz or 1 pA/sqrt(Hz)",
         _ => "a number with an optional SI prefix and unit",
     };
 
@@ -42,6 +43,7 @@ public static class QuantityForms
         Dimension.TemperatureCoefficient => "a temperature coefficient",
         Dimension.VoltageNoiseDensity => "a noise density",
         Dimension.VoltageDrift => "a voltage drift",
+        Dimension.CurrentNoiseDensity => "a current noise density",
         _ => "a quantity",
     };
 }

@@ -125,7 +125,7 @@ internal sealed class ToleranceCircuit
         var diodes = Variables.Diodes;
         for (int i = 0; i < diodes.Count; i++)
         {
-            double shift = (v.Diodes[i] * DiodeSpread.ForwardVoltage) + TemperatureBehaviour.DiodeShift(v.Temperature);
+            double shift = (v.Diodes[i] * DiodeSpread.ForwardVoltage) + TemperatureBehaviour.DiodeShift(diodes[i], v.Temperature);
             double scale = shift != 0 ? DiodeSpread.SaturationScale(diodes[i], shift) : 1;
             solver.SetDiodeSaturationCurrent(diodes[i].ElementId, diodeSaturation[i] * scale);
         }

@@ -28,7 +28,8 @@ internal sealed record AmplifierVariable(string ElementId, double MaximumOffset,
 /// <summary>A diode whose forward voltage may lie anywhere in the nominal ± <see cref="DiodeSpread.ForwardVoltage"/>.</summary>
 /// <param name="ElementId">Engine element id (<c>stage.d1</c>).</param>
 /// <param name="SlopeVoltage">n·V_T of its model, V: a forward-voltage shift δ is a saturation-current factor exp(−δ/(n·V_T)).</param>
-internal sealed record DiodeVariable(string ElementId, double SlopeVoltage);
+/// <param name="Coefficient">Its forward voltage's change with temperature, V/K: the part's, else <see cref="TemperatureBehaviour.DiodeForwardVoltageCoefficient"/>.</param>
+internal sealed record DiodeVariable(string ElementId, double SlopeVoltage, double Coefficient = TemperatureBehaviour.DiodeForwardVoltageCoefficient);
 
 /// <summary>
 /// The diode forward-voltage spread the tolerance analysis assumes. Diodes of one type from different lots differ in
@@ -50,15 +51,15 @@ internal static class DiodeSpread
 /// ± spread like its tolerance, so the extreme at T is t + |α|·|T − 25 °C| (the extreme-value treatment of a tempco);
 /// an amplifier's offset extreme grows by its drift, Vos,max + TCVos·|T − 25 °C| (the standard offset/drift relation);
 /// its bias currents scale by 2^((T − 25 °C)/doubling) where the part states a doubling interval (JFET and CMOS inputs:
-/// about 10 °C, common practice); a diode's forward voltage moves by about −2 mV/°C (common practice for silicon
-/// junctions at a fixed current), whatever its spread.
+/// about 10 °C, common practice); a diode's forward voltage moves by its part's coefficient, else by about −2 mV/°C
+/// (common practice for silicon junctions at a fixed current), whatever its spread.
 /// </summary>
 internal static class TemperatureBehaviour
 {
     /// <summary>The temperature parts files state their figures at, °C.</summary>
     public const double Reference = 25;
 
-    /// <summary>Diode forward-voltage coefficient at a fixed current, V/K (common practice: about −2 mV/°C).</summary>
+    /// <summary>Diode forward-voltage coefficient at a fixed current where the part states none, V/K (common practice: about −2 mV/°C).</summary>
     public const double DiodeForwardVoltageCoefficient = -2e-3;
 
     public static double ResistorSpread(ResistorVariable r, double celsius) => r.Tolerance + (r.Tempco * Math.Abs(celsius - Reference));
@@ -67,7 +68,27 @@ internal static class TemperatureBehaviour
 
     public static double BiasGrowth(AmplifierVariable a, double celsius) => a.Doubling > 0 ? Math.Pow(2, (celsius - Reference) / a.Doubling) : 1;
 
-    public static double DiodeShift(double celsius) => DiodeForwardVoltageCoefficient * (celsius - Reference);
+    public static double DiodeShift(DiodeVariable diode, double celsius) => diode.Coefficient * (celsius - Reference);
+
+    /// <summary>An amplifier's slew rate at <paramref name="celsius"/> over its rate at 25 °C: 1 + d·(T − 25 °C), d its stated derating (none: 1).</summary>
+    public static double SlewFactor(Model.AmplifierPart part, double celsius) => 1 + ((part.SlewDerating?.Value.Value ?? 0) * (celsius - Reference));
+
+    /// <summary>
+    /// The slowest slew rate of an amplifier over the design's operating range, as a factor of its 25 °C rate, and the end
+    /// of the range it occurs at (the derating is linear, so its extreme lies at an end); (1, null) without a range or a
+    /// derating.
+    /// </summary>
+    public static (double Factor, double? At) SlowestSlew(Model.Design design, Model.AmplifierPart part)
+    {
+        if (design.Temperature is not { } range || part.SlewDerating is not { } derating || derating.Value.Value == 0)
+        {
+            return (1, null);
+        }
+
+        double low = range.Value.Low.Value, high = range.Value.High.Value;
+        double atLow = SlewFactor(part, low), atHigh = SlewFactor(part, high);
+        return atLow < atHigh ? (atLow, low) : (atHigh, high);
+    }
 }
 
 /// <summary>
@@ -110,7 +131,8 @@ internal sealed class ToleranceVariables
                 a.Part.BiasDoubling?.Value.Value ?? 0))
             .ToArray();
         Diodes = stage.Diodes.OrderBy(d => d.ElementId, StringComparer.Ordinal)
-            .Select(d => new DiodeVariable(d.ElementId, d.Model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature)))
+            .Select(d => new DiodeVariable(d.ElementId, d.Model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature),
+                d.Part.ForwardVoltageCoefficient?.Value.Value ?? TemperatureBehaviour.DiodeForwardVoltageCoefficient))
             .ToArray();
     }
 
@@ -175,7 +197,7 @@ internal sealed class ToleranceVariables
         var diodes = new Dictionary<string, double>(StringComparer.Ordinal);
         for (int i = 0; i < Diodes.Count; i++)
         {
-            double shift = (v.Diodes[i] * DiodeSpread.ForwardVoltage) + TemperatureBehaviour.DiodeShift(v.Temperature);
+            double shift = (v.Diodes[i] * DiodeSpread.ForwardVoltage) + TemperatureBehaviour.DiodeShift(Diodes[i], v.Temperature);
             if (shift != 0)
             {
                 diodes[Diodes[i].ElementId] = DiodeSpread.SaturationScale(Diodes[i], shift);

@@ -25,6 +25,7 @@ internal static class PlotCollector
         // Only settled periods are plotted: an unsettled transient is reported (DR925), not drawn as if it were the signal.
         var transient = chain.Period is null || !analyses.Steady(BandEnd.Top).Settled ? null : analyses.Transient(BandEnd.Top);
         var ac = analyses.Ac();
+        var noise = analyses.Noise.ToDictionary(n => n.Stage.StageId, NoisePlotOf, StringComparer.Ordinal);
         var plots = new List<StagePlots>();
         foreach (var stage in chain.Stages)
         {
@@ -84,11 +85,39 @@ internal static class PlotCollector
                 }
             }
 
-            plots.Add(StabilityPlotData.With(evaluation, new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId))));
+            plots.Add(StabilityPlotData.With(evaluation, new StagePlots(stage.StageId, t, bode, evaluation.Distributions.GetValueOrDefault(stage.StageId))
+            {
+                Noise = noise.GetValueOrDefault(stage.StageId),
+            }));
         }
 
         return plots;
     }
+
+    /// <summary>Most points of a noise plot's traces: enough for a smooth curve, small enough for a diff-able SVG.</summary>
+    private const int NoisePlotPoints = 161;
+
+    /// <summary>The plot data of a stage's noise: the analysis' final grid thinned to at most <see cref="NoisePlotPoints"/> points.</summary>
+    private static NoisePlot NoisePlotOf(StageNoiseFigures figures)
+    {
+        var r = figures.Result;
+        int count = r.Frequencies.Count;
+        int stride = Math.Max(1, (int)Math.Ceiling((count - 1) / (double)(NoisePlotPoints - 1)));
+        var index = Enumerable.Range(0, count).Where(i => i % stride == 0 || i == count - 1).ToArray();
+        double[] Pick(IReadOnlyList<double> values) => index.Select(i => values[i]).ToArray();
+        var contributors = r.Contributors.Select(c => new NoiseContributor(c.Element, NoiseWords(c.Kind), c.Rms, c.Share, Pick(c.Density))).ToList();
+        return new NoisePlot(Pick(r.Frequencies), Pick(r.OutputDensity), contributors, r.OutputRms);
+    }
+
+    /// <summary>A kind of noise as a page names it.</summary>
+    private static string NoiseWords(NoiseKind kind) => kind switch
+    {
+        NoiseKind.Thermal => "thermal 4kTR",
+        NoiseKind.AmplifierVoltage => "voltage noise e_n",
+        NoiseKind.AmplifierCurrentNonInverting => "current noise i_n at +",
+        NoiseKind.AmplifierCurrentInverting => "current noise i_n at −",
+        _ => "shot noise 2qI",
+    };
 
     /// <summary>A filter stage's marks: the signal band, the measured −3 dB points and the stop-band requirement.</summary>
     private static (IReadOnlyList<ResponseMark> Marks, double? StopbandDb)? FilterMarks(DesignEvaluation evaluation, StageProbe stage)

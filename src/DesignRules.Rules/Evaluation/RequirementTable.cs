@@ -63,7 +63,7 @@ public static class RequirementTable
             JudgedOnChain = chain => chain.Stages.All(s => s.Transfer.Kind == TransferKind.Gain),
         },
         new("output-offset", [RuleIds.OutputOffset], r => r.OutputOffset?.Span, r => r.OutputOffset!.Value.Format()),
-        new("min-signal", [RuleIds.RectifierLoopGain], r => r.MinSignal?.Span, r => r.MinSignal!.Value.Format())
+        new("min-signal", [RuleIds.RectifierLoopGain, RuleIds.SmallestSignal], r => r.MinSignal?.Span, r => r.MinSignal!.Value.Format())
         {
             AppliesTo = (_, _, probe) => probe is not null && StageProperties.IsRectifying(probe),
             NotApplicableReason = "the smallest-signal check applies to precision rectifiers",
@@ -75,6 +75,9 @@ public static class RequirementTable
                 && stage is BlockStage { Block.TakesDifferentialInput: true },
             NotApplicableReason = "common-mode rejection is measured on a difference stage that is the first stage, fed from a source with a `common-mode` level",
         },
+        Noise("snr", [RuleIds.SignalToNoise], r => r.SignalToNoise?.Span, r => $"at least {(20 * Math.Log10(r.SignalToNoise!.Value.Value)).ToString("0.#", CultureInfo.InvariantCulture)} dB"),
+        Noise("noise", [RuleIds.NoiseLevel], r => r.Noise?.Span,
+            r => $"at most {r.Noise!.Rms.Value.Format()} RMS {(r.Noise.At.Value == NoiseReference.Input ? "referred to the input" : "at the output")}"),
         Filter("cutoff", r => r.Cutoff, s => s is FilterShape.LowPass or FilterShape.HighPass, "a cutoff belongs to a low- or high-pass filter block (a band-pass states its `centre`)"),
         Filter("centre", r => r.Centre, s => s is FilterShape.BandPass, "a centre frequency belongs to a band-pass filter block (a low- or high-pass states its `cutoff`)"),
         Filter("q", r => r.Q, _ => true, "Q is measured on the filter blocks"),
@@ -86,6 +89,14 @@ public static class RequirementTable
             NotApplicableReason = "stop-band attenuation is measured on the filter blocks",
         },
     ];
+
+    // Noise is integrated over a band: the stage's noise-band, else the source's band.
+    private static RequirementKind Noise(string key, IReadOnlyList<string> rules, Func<Requirements, SourceSpan?> stated, Func<Requirements, string> text) =>
+        new(key, rules, stated, text)
+        {
+            AppliesTo = (design, stage, _) => stage.Requirements.NoiseBand is not null || design.Source.Waveform.Band is not null,
+            NotApplicableReason = "noise is integrated over a band: give the source a `band` or state `noise-band` beside the requirement",
+        };
 
     /// <summary>The ideal response of a filter block stage; null for any other stage.</summary>
     internal static FilterResponse? FilterOf(Stage stage) => Figures.DesignAnalyses.IdealFilter(stage);
@@ -112,19 +123,4 @@ public static class RequirementTable
 
     private static string Words(string pascal) =>
         string.Concat(pascal.Select((c, i) => i > 0 && char.IsUpper(c) ? "-" + char.ToLower(c, CultureInfo.InvariantCulture) : char.ToLower(c, CultureInfo.InvariantCulture).ToString()));
-}
-
-/// <summary>
-/// The one definition of each property of a stage that rules, hygiene checks and pages ask about. Every caller uses
-/// these, so that "is this a rectifying stage" has one answer.
-/// </summary>
-internal static class StageProperties
-{
-    /// <summary>
-    /// True for a stage that rectifies: a block whose descriptor says so; a netlist that holds a diode and is required to
-    /// pass one or both half-cycles (a netlist gain stage with a clamp diode does not rectify).
-    /// </summary>
-    public static bool IsRectifying(StageProbe probe) => probe.Stage is BlockStage block
-        ? block.Block.Rectifies
-        : probe.Diodes.Count > 0 && probe.Transfer.Kind is TransferKind.AbsoluteValue or TransferKind.HalfWavePositive or TransferKind.HalfWaveNegative;
 }

@@ -110,6 +110,21 @@ public static partial class Simulate
         return AcAnalysis.Run(compiled, solver.Context.X, sweep, limits, op);
     }
 
+    /// <summary>
+    /// Noise analysis, linearised at the DC operating point: the output noise density of every resistor (4kT/R),
+    /// amplifier (e_n with its 1/f corner, i_n at each input) and diode (2q|I|), integrated over the request's band,
+    /// with the gain from the request's input source to refer it to the input (see <see cref="NoiseRequest"/>).
+    /// </summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="request">Output node, input source, band and integration tolerance.</param>
+    /// <param name="limits">Solver bounds.</param>
+    public static NoiseResult Noise(Circuit circuit, NoiseRequest request, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        ArgumentNullException.ThrowIfNull(request);
+        return NoiseCircuit.Compile(circuit, limits).Analyse(request);
+    }
+
     /// <summary>Transient analysis from the DC operating point at t = 0 (see <see cref="TransientOptions"/>).</summary>
     /// <param name="circuit">Circuit to solve.</param>
     /// <param name="options">Stop time, step bounds, method and tolerances.</param>

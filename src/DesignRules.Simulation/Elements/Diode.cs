@@ -82,6 +82,23 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
         context.Admittance(junction, cathode, new Complex(g, context.Omega * model.JunctionCapacitance));
     }
 
+    /// <summary>Unknown index of the junction's anode side (the anode itself without series resistance).</summary>
+    public int Junction => junction;
+
+    /// <summary>Unknown index of the cathode (−1 for the reference).</summary>
+    public int Cathode => cathode;
+
+    /// <summary>
+    /// Junction current at a solution vector, without the solver's junction shunt (which is a numerical aid, not a
+    /// carrier flow): the current whose shot noise 2·q·|I| the noise analysis counts.
+    /// </summary>
+    internal double JunctionCurrent(double[] x, double temperature)
+    {
+        Prepare(temperature);
+        double v = (junction >= 0 ? x[junction] : 0) - (cathode >= 0 ? x[cathode] : 0);
+        return Current(v, 0, out _);
+    }
+
     /// <summary>Junction current (Shockley law plus breakdown plus the junction shunt) and its conductance.</summary>
     internal double Current(double v, double shunt, out double conductance)
     {

@@ -15,6 +15,12 @@ internal sealed record ResistorDefinition(string Id, string A, string B, double 
 /// <summary>Compiled resistor: conductance G = 1/R.</summary>
 internal sealed class ResistorDevice(string id, int a, int b, double conductance) : Device(id)
 {
+    /// <summary>Unknown index of node A (−1 for the reference).</summary>
+    public int A => a;
+
+    /// <summary>Unknown index of node B (−1 for the reference).</summary>
+    public int B => b;
+
     /// <summary>G = 1/R; a tolerance run changes it in place instead of compiling the circuit again.</summary>
     public double Conductance
     {

@@ -72,6 +72,18 @@ public sealed record AmplifierModel
     /// <summary>Overload recovery time in s (0: the output leaves a limit as soon as the drive reverses).</summary>
     public double OverloadRecoveryTime { get; init; }
 
+    /// <summary>Input voltage noise density e_n in V/√Hz in its white region, in series with the non-inverting input (0: noiseless).</summary>
+    public double InputVoltageNoise { get; init; }
+
+    /// <summary>Input current noise density i_n in A/√Hz at each input, uncorrelated between the inputs, taken as white (0: noiseless).</summary>
+    public double InputCurrentNoise { get; init; }
+
+    /// <summary>
+    /// 1/f corner of the voltage noise in Hz: e_n(f)² = e_n²·(1 + f_c/f), so below f_c the density rises as 1/√f
+    /// (0: white voltage noise).
+    /// </summary>
+    public double NoiseCorner { get; init; }
+
     /// <summary>A single-pole amplifier with equal rising and falling slew rates and the other parameters at their defaults.</summary>
     /// <param name="gainBandwidth">GBW in Hz.</param>
     /// <param name="openLoopGain">A0 in V/V.</param>
@@ -99,6 +111,7 @@ public sealed record AmplifierModel
         if (!double.IsFinite(InputOffsetVoltage) || !double.IsFinite(InputBiasCurrentInverting) || !double.IsFinite(InputBiasCurrentNonInverting)) return "amplifier offset and bias currents must be finite";
         if (!NonNegative(CommonModeHeadroomPositive) || !NonNegative(CommonModeHeadroomNegative)) return "amplifier common-mode headroom must be zero or positive";
         if (MaxDifferentialInput is { } md && !Positive(md)) return "amplifier maximum differential input must be positive";
+        if (!NonNegative(InputVoltageNoise) || !NonNegative(InputCurrentNoise) || !NonNegative(NoiseCorner)) return "amplifier noise densities and noise corner must be zero or positive";
         if (!NonNegative(OverloadRecoveryTime)) return "amplifier overload recovery time must be zero or positive";
         return null;
     }

@@ -9,6 +9,7 @@ public sealed class HygieneRuleTests
     [InlineData("hygiene/glitch-on-linear-stage.yaml")]
     [InlineData("hygiene/yield-without-accuracy.yaml")]
     [InlineData("hygiene/capacitor-off-series.yaml")]
+    [InlineData("hygiene/noise-without-band.yaml")]
     public void Each_fixture_yields_exactly_its_stated_hygiene_findings(string fixture) => RuleFixture.Verify(fixture);
 
     [Fact]

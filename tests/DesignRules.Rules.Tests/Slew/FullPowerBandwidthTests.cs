@@ -32,4 +32,23 @@ public sealed class FullPowerBandwidthTests
         Assert.Contains("0.6 V/µs", finding.Message, StringComparison.Ordinal);
         Assert.Contains("24 kHz", finding.Message, StringComparison.Ordinal);
     }
+
+    [Fact]
+    public void A_stage_inside_its_full_power_bandwidth_at_25_C_is_clean() =>
+        RuleFixture.Verify("slew/slew-derated-at-25-only.yaml");
+
+    [Fact]
+    public void The_same_stage_over_a_range_fails_at_the_hot_end_where_its_derated_slew_rate_is_slowest()
+    {
+        var report = RuleFixture.Verify("slew/slew-derated-hot-end-fails.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == Diagnostics.RuleIds.FullPowerBandwidth);
+        Assert.Contains("at 85 °C", finding.Message, StringComparison.Ordinal);
+
+        // Textbook full-power bandwidth SR/(2π·Vp) with the class's derating applied by hand: 0.6 V/µs × (1 − 0.002 × 60)
+        // = 0.528 V/µs over 2π × 5 V = 16.8 kHz, at 85 °C.
+        var fpbw = report.Designs.Single().StageFigures.Single(s => s.Key == "amp").Value.Single(f => f.Key == FigureKinds.FullPowerBandwidth.At("u1"));
+        double expected = 0.6e6 * 0.88 / (2 * Math.PI * 5);
+        Assert.InRange(fpbw.Value, expected * 0.98, expected * 1.02);
+        Assert.Equal(85, fpbw.Temperature);
+    }
 }

@@ -1,4 +1,6 @@
 using DesignRules.Diagnostics;
+using DesignRules.Elaboration;
+using DesignRules.Figures.Tolerance;
 using DesignRules.Loading;
 using DesignRules.Model;
 using DesignRules.Quantities;
@@ -97,4 +99,24 @@ public sealed class OperatingTemperatureTests
         Assert.Equal(1e-6, q.Value, 1e-18);
         Assert.Equal("10 µV/°C", new Quantity(10e-6, Dimension.VoltageDrift).Format());
     }
+
+    [Fact]
+    public void A_diode_part_moves_its_forward_voltage_by_its_own_coefficient_and_one_that_states_none_by_minus_2_mV_per_C()
+    {
+        // The fixture diode states -1.5 mV/°C: at 85 °C its forward voltage is 1.5 mV/°C × (85 − 25) °C = 90 mV lower.
+        var (_, stated) = ToleranceFixture.Load("diode-coefficient-stated.yaml");
+        var own = ToleranceVariables.Of(stated, ElaborationOptions.Default).Diodes;
+        Assert.Equal(2, own.Count);
+        Assert.All(own, d => Assert.Equal(-90e-3, TemperatureBehaviour.DiodeShift(d, 85), 1e-12));
+
+        // The same block with a part that states none: −2 mV/°C (common practice for silicon junctions), 120 mV at 85 °C,
+        // and the cold end raises it: +2 mV/°C × 65 °C = +130 mV at −40 °C.
+        var (_, defaulted) = ToleranceFixture.Load("absolute-value-symmetric.yaml");
+        var others = ToleranceVariables.Of(defaulted, ElaborationOptions.Default).Diodes;
+        Assert.All(others, d => Assert.Equal(-120e-3, TemperatureBehaviour.DiodeShift(d, 85), 1e-12));
+        Assert.All(others, d => Assert.Equal(130e-3, TemperatureBehaviour.DiodeShift(d, -40), 1e-12));
+    }
+
+    [Fact]
+    public void The_design_with_its_own_diode_coefficient_checks_clean_over_its_range() => RuleFixture.Verify("tolerance/diode-coefficient-stated.yaml");
 }

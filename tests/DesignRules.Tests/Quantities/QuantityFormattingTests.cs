@@ -15,6 +15,7 @@ public sealed class ValuesAreWrittenInEngineeringNotation
     [InlineData(0.25, Dimension.Voltage, "250 mV")]
     [InlineData(50e-6, Dimension.TemperatureCoefficient, "50 ppm/°C")]
     [InlineData(18e-9, Dimension.VoltageNoiseDensity, "18 nV/√Hz")]
+    [InlineData(0.4e-12, Dimension.CurrentNoiseDensity, "0.4 pA/√Hz")]
     [InlineData(0.125, Dimension.Power, "125 mW")]
     [InlineData(3e6, Dimension.Frequency, "3 MHz")]
     [InlineData(20.0, Dimension.Frequency, "20 Hz")]

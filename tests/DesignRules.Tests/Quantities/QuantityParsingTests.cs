@@ -73,6 +73,8 @@ public sealed class ValuesAreReadInEveryAcceptedForm
     [InlineData("18 nV/rtHz", Dimension.VoltageNoiseDensity, 18e-9)]
     [InlineData("18nV/sqrt(Hz)", Dimension.VoltageNoiseDensity, 18e-9)]
     [InlineData("1.2 µV/√Hz", Dimension.VoltageNoiseDensity, 1.2e-6)]
+    [InlineData("0.5 pA/rtHz", Dimension.CurrentNoiseDensity, 0.5e-12)]
+    [InlineData("4 fA/√Hz", Dimension.CurrentNoiseDensity, 4e-15)]
     // ratios: plain, percent, ppm
     [InlineData("2", Dimension.Ratio, 2.0)]
     [InlineData("-2", Dimension.Ratio, -2.0)]

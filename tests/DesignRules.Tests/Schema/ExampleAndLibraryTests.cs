@@ -110,6 +110,7 @@ public sealed class ShippedFilesMatchTheSchemas
             ["gbw"] = Dimension.Frequency, ["second-pole"] = Dimension.Frequency, ["open-loop-gain"] = Dimension.Ratio,
             ["output-resistance"] = Dimension.Resistance, ["output-current"] = Dimension.Current, ["min-stable-gain"] = Dimension.Ratio,
             ["max-differential-input"] = Dimension.Voltage, ["noise-density"] = Dimension.VoltageNoiseDensity,
+            ["current-noise"] = Dimension.CurrentNoiseDensity, ["noise-corner"] = Dimension.Frequency,
             ["overload-recovery"] = Dimension.Time, ["slew-rate"] = Dimension.SlewRate, ["saturation-current"] = Dimension.Current,
             ["emission"] = Dimension.Ratio, ["series-resistance"] = Dimension.Resistance, ["reverse-voltage"] = Dimension.Voltage,
             ["forward-current"] = Dimension.Current, ["capacitance"] = Dimension.Capacitance, ["breakdown-voltage"] = Dimension.Voltage,

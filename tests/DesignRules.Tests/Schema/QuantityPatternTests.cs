@@ -62,6 +62,10 @@ public sealed class QuantityPatternsFollowTheUnitOfTheKey
     [InlineData("noise-density", "4 nV/√Hz", true)]
     [InlineData("noise-density", "4 nV/sqrt(Hz)", true)]
     [InlineData("noise-density", "4 nA/rtHz", false)]
+    [InlineData("current-noise-density", "0.5 pA/rtHz", true)]
+    [InlineData("current-noise-density", "4 fA/√Hz", true)]
+    [InlineData("current-noise-density", "1 pA/sqrt(Hz)", true)]
+    [InlineData("current-noise-density", "4 nV/rtHz", false)]
     [InlineData("ratio", "1%", true)]
     [InlineData("ratio", "±0.5%", true)]
     [InlineData("ratio", "106 dB", true)]
@@ -119,6 +123,7 @@ public sealed class QuantityPatternsFollowTheUnitOfTheKey
         { "power", Dimension.Power, false },
         { "slew-rate", Dimension.SlewRate, false },
         { "noise-density", Dimension.VoltageNoiseDensity, false },
+        { "current-noise-density", Dimension.CurrentNoiseDensity, false },
         { "ratio", Dimension.Ratio, true },
         { "tempco", Dimension.TemperatureCoefficient, true },
     };
@@ -140,7 +145,7 @@ public sealed class QuantityPatternsFollowTheUnitOfTheKey
         string[] units =
         [
             "", "V", "A", "Ω", "\u2126", "R", "ohm", "Ohms", "F", "H", "Hz", "s", "sec", "W", "V/s", "V/ms", "V/us", "V/µs", "V/ns",
-            "V/√Hz", "V/rtHz", "V/sqrt(Hz)", "%", "ppm", "dB", "°C", "C", "ppm/°C", "ppm/K", "/K", "/°C", "hz", "v", "Hz ", "V/Hz", " V",
+            "V/√Hz", "V/rtHz", "V/sqrt(Hz)", "A/√Hz", "A/rtHz", "A/sqrt(Hz)", "%", "ppm", "dB", "°C", "C", "ppm/°C", "ppm/K", "/K", "/°C", "hz", "v", "Hz ", "V/Hz", " V",
         ];
         var disagreements = new List<string>();
         foreach (var sign in signs)

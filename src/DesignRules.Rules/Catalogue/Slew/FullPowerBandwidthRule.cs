@@ -1,6 +1,7 @@
 using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Catalogue.Slew;
 
@@ -9,7 +10,9 @@ namespace DesignRules.Rules.Catalogue.Slew;
 /// transient and SR the slower of its rising and falling slew rates, against the highest signal frequency times the
 /// min-ratio threshold. For a sine source it is the sine formula SR/(2π·Vp); for any other waveform it is the frequency at
 /// which the actual waveform's steepest slope (scaled to the output's excursion) equals SR — SR/(4·Vp) for a triangle,
-/// whose steepest slope is 4·Vp·f. A square's edges are steps, judged as slewing events by DR102, not here.
+/// whose steepest slope is 4·Vp·f. A square's edges are steps, judged as slewing events by DR102, not here. Where the
+/// design states a temperature range and the part a slew-rate derating, SR is the slowest over the range (at one of its
+/// ends) and the finding names that temperature.
 /// </summary>
 internal sealed class FullPowerBandwidthRule : Rule
 {
@@ -31,12 +34,14 @@ internal sealed class FullPowerBandwidthRule : Rule
         {
             var stageId = a.Stage.StageId;
             double peak = a.PeakExcursion;
+            var (derating, at) = TemperatureBehaviour.SlowestSlew(evaluation.Design, a.Probe.Part);
+            double slew = a.SlewSlower * derating;
             // The output's steepest slope is the source's shape factor times 2π·f·Vp (exactly 2π·f·Vp for a sine).
-            double fpbw = peak > 0 ? a.SlewSlower / (2 * Math.PI * shape.Factor * peak) : double.PositiveInfinity;
+            double fpbw = peak > 0 ? slew / (2 * Math.PI * shape.Factor * peak) : double.PositiveInfinity;
             double limit = frequency * evaluation.Threshold(Id, "min-ratio", stageId);
             if (double.IsFinite(fpbw))
             {
-                evaluation.Record(stageId, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtLeast(limit));
+                evaluation.Record(stageId, FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtLeast(limit).AtTemperature(at));
             }
 
             if (fpbw >= limit)
@@ -49,13 +54,13 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["node"] = a.Node,
                 ["peak"] = Say.Volts(peak),
                 ["frequency"] = Say.Hertz(frequency),
-                ["slew"] = Say.Slew(a.SlewSlower),
+                ["slew"] = Say.Slew(slew) + ToleranceAnalyses.AtTemperature(at),
                 ["formula"] = shape.Formula,
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
-            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, 2 * Math.PI * shape.Factor * peak * limit), FixHints.WithSlewRate), FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
-               FigureKinds.PeakExcursion.Of(peak), FigureKinds.SlewRate.Of(a.SlewSlower),
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, 2 * Math.PI * shape.Factor * peak * limit / derating), FixHints.WithSlewRate), FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtTemperature(at), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
+               FigureKinds.PeakExcursion.Of(peak), FigureKinds.SlewRate.Of(slew).AtTemperature(at),
                FigureKinds.SteepestSlope.Of(2 * Math.PI * shape.Factor * frequency * peak));
         }
     }
