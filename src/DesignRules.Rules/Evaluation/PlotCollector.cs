@@ -1,5 +1,6 @@
 using System.Numerics;
 using DesignRules.Elaboration;
+using DesignRules.Rules.Evaluation.Stability;
 
 namespace DesignRules.Rules.Evaluation;
 

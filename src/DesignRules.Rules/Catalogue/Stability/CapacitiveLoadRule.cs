@@ -1,6 +1,7 @@
 using DesignRules.Diagnostics;
 using DesignRules.Figures.Stability;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Stability;
 
 namespace DesignRules.Rules.Catalogue.Stability;
 
@@ -52,7 +53,7 @@ internal sealed class CapacitiveLoadRule : Rule
             var capacitor = fix.Capacitors.OrderByDescending(id => chain.Circuit.Capacitance(id)).First();
             var capacitorSpan = chain.Locate(capacitor);
             var located = capacitorSpan != chain.Design.Id.Span;
-            var hint = Hint($"{stageId}.{amp.Slot}", costsMargin ? fix.Isolation : null, costsMargin ? (fix.Largest is { } c ? FixHints.RoundDown(c) : null) : stated,
+            var hint = Hint($"{stageId}.{amp.Slot}", costsMargin ? fix.Isolation : null, costsMargin && fix.Largest is { } c ? FixHints.RoundDown(c) : stated,
                 fix.Capacitors.Count == 1 && located ? capacitorSpan : null, capacitor);
             if (hint is null)
             {

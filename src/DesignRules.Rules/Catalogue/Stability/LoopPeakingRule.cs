@@ -1,4 +1,5 @@
 using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Stability;
 using DesignRules.Diagnostics;
 using DesignRules.Figures.Stability;
 

@@ -1,6 +1,6 @@
 using DesignRules.Figures.Stability;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Rules.Evaluation.Stability;
 
 /// <summary>Plot data of the stability analyses for a stage's page: one loop-gain plot per closed loop, a step plot where the stage rings.</summary>
 internal static class StabilityPlotData

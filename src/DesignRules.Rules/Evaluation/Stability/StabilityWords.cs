@@ -1,7 +1,7 @@
 using System.Globalization;
 using DesignRules.Figures.Stability;
 
-namespace DesignRules.Rules.Evaluation;
+namespace DesignRules.Rules.Evaluation.Stability;
 
 /// <summary>How the stability rules and pages say their figures to people.</summary>
 internal static class StabilityWords
