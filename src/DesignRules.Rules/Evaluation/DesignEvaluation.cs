@@ -40,6 +40,18 @@ internal sealed class DesignEvaluation : IAnalysisFailures
 
     public DesignAnalyses Analyses { get; }
 
+    /// <summary>
+    /// The most re-runs the engine-searched fix hints of one design may take together (<see cref="HintProbe"/>): a bound on
+    /// the time hints add to a check, whatever the number of findings. Rules run one after another, so which hints get
+    /// searched is deterministic; one that finds the budget spent gives no searched hint.
+    /// </summary>
+    public const int HintRunBudget = 32;
+
+    private int hintRuns;
+
+    /// <summary>Takes one re-run from <see cref="HintRunBudget"/>; false when it is spent.</summary>
+    public bool TakeHintRun() => Interlocked.Increment(ref hintRuns) <= HintRunBudget;
+
     public MonteCarloSettings MonteCarlo => ruleSet.MonteCarlo;
 
     public IReadOnlyList<Finding> Findings => findings;
@@ -171,7 +183,7 @@ internal sealed class DesignEvaluation : IAnalysisFailures
         var message = rule.Render(arguments);
         if (fix is not null)
         {
-            message += " Fix: " + fix.Text;
+            message += " Fix: " + fix.Said;
         }
 
         lock (findings)

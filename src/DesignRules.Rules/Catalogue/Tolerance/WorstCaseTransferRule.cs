@@ -71,7 +71,7 @@ internal sealed class WorstCaseTransferRule : Rule
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}") + ToleranceAnalyses.AtTemperature(hot),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, [FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot), FigureKinds.Accuracy.Of(accuracy),
+            }, SearchedFixHints.MaximumResistorTolerance(evaluation, this, id, FigureKinds.WorstCaseTransferError), [FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot), FigureKinds.Accuracy.Of(accuracy),
                 .. analysis.Metric.Dynamic is { } held ? [FigureKinds.HoldDroop.Of(held.High - held.Low)] : Array.Empty<Figure>()]);
         }
     }
