@@ -16,7 +16,7 @@ namespace DesignRules.Rules.Evaluation;
 internal static class SearchedFixHints
 {
     /// <summary>The most re-runs one search takes, confirmation aside.</summary>
-    public const int MaximumRuns = 10;
+    public const int MaximumRuns = 12;
 
     /// <summary>The relative width of the bracket a bisection stops at.</summary>
     public const double Tolerance = 0.005;
@@ -42,7 +42,7 @@ internal static class SearchedFixHints
     public static FixHint? MaximumAmplitude(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan span, double? guessScale)
     {
         var design = evaluation.Design;
-        if (evaluation.ConfirmsHint || DesignEdits.Amplitude(design) is not { } present)
+        if (!Searches(evaluation, rule, stageId) || DesignEdits.Amplitude(design) is not { } present)
         {
             return null;
         }
@@ -74,7 +74,7 @@ internal static class SearchedFixHints
     public static FixHint? MaximumBandTop(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan span, double? guessScale)
     {
         var design = evaluation.Design;
-        if (evaluation.ConfirmsHint || DesignEdits.BandTop(design) is not { } present)
+        if (!Searches(evaluation, rule, stageId) || DesignEdits.BandTop(design) is not { } present)
         {
             return null;
         }
@@ -116,7 +116,7 @@ internal static class SearchedFixHints
     {
         var design = evaluation.Design;
         double present = DesignEdits.ResistorTolerance(design, stageId);
-        if (evaluation.ConfirmsHint || present <= 0)
+        if (!Searches(evaluation, rule, stageId) || present <= 0)
         {
             return null;
         }
@@ -185,7 +185,7 @@ internal static class SearchedFixHints
     public static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan span, double? gainScale)
     {
         var design = evaluation.Design;
-        if (evaluation.ConfirmsHint || design.Stages.FirstOrDefault(s => s.Id.Value == stageId) is not BlockStage)
+        if (!Searches(evaluation, rule, stageId) || design.Stages.FirstOrDefault(s => s.Id.Value == stageId) is not BlockStage)
         {
             return null;
         }
@@ -278,6 +278,10 @@ internal static class SearchedFixHints
             ? members.Where(m => m <= value * (1 + 1e-9)).DefaultIfEmpty(members[0]).Max()
             : members.Where(m => m >= value * (1 - 1e-9)).DefaultIfEmpty(members[^1]).Min();
     }
+
+    /// <summary>False inside a re-run (searches never nest) and where the rule is off for the stage (its finding is dropped).</summary>
+    private static bool Searches(DesignEvaluation evaluation, Rule rule, string stageId) =>
+        !evaluation.ConfirmsHint && evaluation.IsOn(rule.Id, stageId);
 
     private static Figure? Judged(DesignEvaluation evaluation, string stageId, FigureKind kind) =>
         evaluation.Figures.TryGetValue(stageId, out var figures) ? figures.FirstOrDefault(f => f.Key.Kind == kind) : null;
