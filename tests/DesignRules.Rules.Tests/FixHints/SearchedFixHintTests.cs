@@ -114,6 +114,19 @@ public sealed class SearchedFixHintTests : IDisposable
     }
 
     [Fact]
+    public void A_difference_stage_with_resistors_of_the_hinted_tolerance_rejects_its_common_mode_and_one_just_looser_does_not()
+    {
+        const string fixture = "tolerance/difference-mismatched.yaml";
+        var fix = HintOf(fixture, "DR403", FixKind.MaximumResistorTolerance);
+
+        // Sedra & Smith, Microelectronic Circuits: worst-case CMRR ≈ (1 + G)/(4·t), so with G = 1 the 5 V common-mode level
+        // moves the output by 5 V · 4t/2 = 10·t; the 5 % accuracy of the 1 V full scale allows 50 mV: t ≤ 0.5 % (first order).
+        Assert.InRange(fix.Value, 0.0045, 0.005);
+        Assert.Empty(Findings(SwapTolerance(fixture, "thin-film-1pct", fix.Value), "DR403"));
+        Assert.NotEmpty(Findings(SwapTolerance(fixture, "thin-film-1pct", fix.Value * JustBeyond), "DR403"));
+    }
+
+    [Fact]
     public void A_stage_no_resistor_tolerance_can_fix_says_so()
     {
         // r4 = 5.1k where the absolute-value circuit needs r2/2 = 5k: the half-cycles differ by 2 % with exact resistors, so
@@ -189,7 +202,8 @@ public sealed class SearchedFixHintTests : IDisposable
             ? text.Replace("libraries: [", "libraries: [hinted-parts.yaml, ", StringComparison.Ordinal)
             : "libraries: [hinted-parts.yaml]\n" + text;
         text = text.Replace("resistors: thick-film-5pct", "resistors: hinted-resistors", StringComparison.Ordinal)
-            .Replace("resistors: thin-film-0p1pct", "resistors: hinted-resistors", StringComparison.Ordinal);
+            .Replace("resistors: thin-film-0p1pct", "resistors: hinted-resistors", StringComparison.Ordinal)
+            .Replace("resistors: thin-film-1pct", "resistors: hinted-resistors", StringComparison.Ordinal);
         return Write(text);
     }
 
