@@ -182,7 +182,20 @@ internal static class SearchedFixHints
     /// further at most twice). <paramref name="gainScale"/>, where known (the largest amplitude over the present one), guesses
     /// the boundary. A SARIF fix replaces the value in the design file.
     /// </summary>
-    public static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan span, double? gainScale)
+    public static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan? span, double? gainScale) =>
+        GainSettingValue(evaluation, rule, stageId, span, gainScale, null);
+
+    /// <summary>
+    /// As <see cref="GainSettingValue(DesignEvaluation, Rule, string, SourceSpan?, double?)"/>, for a stage whose nominal gain
+    /// is off its required one: the resistor moves toward the value that gives the required gain exactly (its ideal
+    /// gain times <paramref name="targetScale"/>, to first order in the resistor's sensitivity), the search's bound.
+    /// </summary>
+    public static FixHint? GainCorrectingValue(DesignEvaluation evaluation, Rule rule, string stageId, double targetScale) =>
+        Math.Abs(Math.Log(targetScale)) > Tolerance && double.IsFinite(targetScale) && targetScale > 0
+            ? GainSettingValue(evaluation, rule, stageId, null, null, targetScale)
+            : null;
+
+    private static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan? span, double? gainScale, double? targetScale)
     {
         var design = evaluation.Design;
         if (!Searches(evaluation, rule, stageId) || design.Stages.FirstOrDefault(s => s.Id.Value == stageId) is not BlockStage)
@@ -197,8 +210,9 @@ internal static class SearchedFixHints
 
         var (resistor, sensitivity) = setter;
         double present = resistor.Value;
-        // Lowering the gain: down for a resistor the gain rises with (rf), up for one it falls with (rin).
-        double bound = sensitivity > 0 ? present / 16 : present * 16;
+        // Lowering the gain: down for a resistor the gain rises with (rf), up for one it falls with (rin); raising it, the other way.
+        bool down = (targetScale is not { } raise || raise < 1) == (sensitivity > 0);
+        double bound = targetScale is { } exact ? present * Math.Exp(Math.Log(exact) / sensitivity) : down ? present / 16 : present * 16;
         double? guess = gainScale is { } k && k > 0 ? present * Math.Exp(Math.Log(k) / sensitivity) : null;
         var probe = new HintProbe(evaluation, rule, stageId, span);
         var outcome = BoundedSearch.Boundary(r => probe.Passes(DesignEdits.WithValue(design, stageId, resistor.Name, r)), present, bound, guess, Tolerance, MaximumRuns);
@@ -207,7 +221,6 @@ internal static class SearchedFixHints
             return null;
         }
 
-        bool down = sensitivity > 0;
         ESeries? series = design.ESeries is { } declared && ESeries.TryGet(declared.Value, out var s) ? s : null;
         double candidate = series is null ? (down ? FixHints.RoundDown(passing) : FixHints.RoundUp(passing)) : SeriesBeyond(series, passing, down);
         for (int i = 0; i < 3; i++)

@@ -157,6 +157,27 @@ public sealed class SearchedFixHintTests : IDisposable
         Assert.NotEmpty(Findings(Write(Replace(text, fix, "68k")), "DR201"));
     }
 
+    [Fact]
+    public void Writing_the_hinted_E24_feedback_resistor_brings_an_off_gain_stage_within_its_accuracy_and_the_next_value_up_does_not()
+    {
+        // A gain of −2 required to 2 % from rf = 24k over rin = 10k (−2.4, 20 % off) with 0.1 % resistors: no resistor
+        // tolerance can fix that, so the value of the resistor comes first.
+        var text = Fixture("tolerance/inverting-over-budget.yaml")
+            .Replace("design:\n", "e-series: E24\ndesign:\n", StringComparison.Ordinal)
+            .Replace("resistors: thick-film-5pct", "resistors: thin-film-0p1pct", StringComparison.Ordinal)
+            .Replace("rf: 20k", "rf: 24k", StringComparison.Ordinal);
+        var finding = Findings(Write(text), "DR401").Single();
+        var fix = finding.Fix!;
+        Assert.Equal(FixKind.PreferredValue, fix.Kind);
+        Assert.Equal("amp.rf", fix.Subject);
+        Assert.Contains(fix.Alternatives, h => h.Kind == FixKind.MaximumResistorTolerance && h.Value == 0);
+
+        // Textbook inverting gain −rf/rin = −2 with rin = 10k: rf = 20k, an E24 value (IEC 60063); the next one up is 22k.
+        Assert.Equal(20e3, fix.Value, 1e-6);
+        Assert.Empty(Findings(Write(Replace(text, fix, fix.Replacement!)), "DR401"));
+        Assert.NotEmpty(Findings(Write(Replace(text, fix, "22k")), "DR401"));
+    }
+
     private static FixHint HintOf(string fixture, string rule, FixKind kind)
     {
         var report = RuleFixture.Verify(fixture);
