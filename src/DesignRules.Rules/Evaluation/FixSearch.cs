@@ -10,7 +10,7 @@ namespace DesignRules.Rules.Evaluation;
 /// re-run that ends in a problem of the tool (a DR9xx finding: an analysis failed) cannot judge and answers null, and so
 /// does one the design's budget of re-runs (<see cref="DesignEvaluation.HintRunBudget"/>) no longer allows.
 /// </summary>
-internal sealed class HintProbe(DesignEvaluation evaluation, Rule rule, string? stageId, SourceSpan? span)
+internal sealed class HintProbe(DesignEvaluation evaluation, Rule rule, string? stageId, SourceSpan? span, bool transient = true)
 {
     /// <summary>How many re-runs this probe made.</summary>
     public int Runs { get; private set; }
@@ -21,7 +21,7 @@ internal sealed class HintProbe(DesignEvaluation evaluation, Rule rule, string? 
     /// <summary>True when the finding is gone from <paramref name="design"/>, false when it is still there, null when the re-run cannot judge.</summary>
     public bool? Passes(Design design)
     {
-        if (!evaluation.TakeHintRun())
+        if (!evaluation.TakeHintRun(transient))
         {
             return null;
         }

@@ -121,7 +121,8 @@ internal static class SearchedFixHints
             return null;
         }
 
-        var probe = new HintProbe(evaluation, rule, stageId, null);
+        // The worst case is a DC analysis: its re-runs cost no settled transient.
+        var probe = new HintProbe(evaluation, rule, stageId, null, transient: false);
         switch (probe.Passes(DesignEdits.WithResistorTolerance(design, stageId, 0)))
         {
             case null:
@@ -183,7 +184,7 @@ internal static class SearchedFixHints
     /// the boundary. A SARIF fix replaces the value in the design file.
     /// </summary>
     public static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan? span, double? gainScale) =>
-        GainSettingValue(evaluation, rule, stageId, span, gainScale, null);
+        GainSettingValue(evaluation, rule, stageId, span, gainScale, null, transient: true);
 
     /// <summary>
     /// As <see cref="GainSettingValue(DesignEvaluation, Rule, string, SourceSpan?, double?)"/>, for a stage whose nominal gain
@@ -192,10 +193,10 @@ internal static class SearchedFixHints
     /// </summary>
     public static FixHint? GainCorrectingValue(DesignEvaluation evaluation, Rule rule, string stageId, double targetScale) =>
         Math.Abs(Math.Log(targetScale)) > Tolerance && double.IsFinite(targetScale) && targetScale > 0
-            ? GainSettingValue(evaluation, rule, stageId, null, null, targetScale)
+            ? GainSettingValue(evaluation, rule, stageId, null, null, targetScale, transient: false)
             : null;
 
-    private static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan? span, double? gainScale, double? targetScale)
+    private static FixHint? GainSettingValue(DesignEvaluation evaluation, Rule rule, string stageId, SourceSpan? span, double? gainScale, double? targetScale, bool transient)
     {
         var design = evaluation.Design;
         if (!Searches(evaluation, rule, stageId) || design.Stages.FirstOrDefault(s => s.Id.Value == stageId) is not BlockStage)
@@ -214,7 +215,7 @@ internal static class SearchedFixHints
         bool down = (targetScale is not { } raise || raise < 1) == (sensitivity > 0);
         double bound = targetScale is { } exact ? present * Math.Exp(Math.Log(exact) / sensitivity) : down ? present / 16 : present * 16;
         double? guess = gainScale is { } k && k > 0 ? present * Math.Exp(Math.Log(k) / sensitivity) : null;
-        var probe = new HintProbe(evaluation, rule, stageId, span);
+        var probe = new HintProbe(evaluation, rule, stageId, span, transient);
         var outcome = BoundedSearch.Boundary(r => probe.Passes(DesignEdits.WithValue(design, stageId, resistor.Name, r)), present, bound, guess, Tolerance, MaximumRuns);
         if (!outcome.Judged || outcome.Passing is not { } passing)
         {
