@@ -54,7 +54,7 @@ internal sealed class DesignEvaluation : IAnalysisFailures
     /// averaging time constant) none, so that hints never cost much more than the re-runs of a quick design.
     /// Deterministic: it depends on the design only.
     /// </summary>
-    public const long HintStepBudget = 40_000;
+    public const long HintStepBudget = 80_000;
 
     private int hintRuns;
     private long hintSteps;
