@@ -262,9 +262,9 @@ internal static class PageModel
                 ["severity"] = f.Severity.ToString().ToLowerInvariant(),
                 // Messages put node and key names in `code`; those stay code spans, the rest is escaped text.
                 // The fix hint has its own column ("what would fix it"), so the page shows the message without it.
-                ["message"] = new MarkdownText(MarkdownEscape.Message(f.Fix is { } fix && f.Message.EndsWith(" Fix: " + fix.Text, StringComparison.Ordinal)
-                    ? f.Message[..^(" Fix: ".Length + fix.Text.Length)] : f.Message)),
-                ["fix"] = f.Fix is null ? null : new MarkdownText(MarkdownEscape.Message(f.Fix.Text)),
+                ["message"] = new MarkdownText(MarkdownEscape.Message(f.Fix is { } fix && f.Message.EndsWith(" Fix: " + fix.Said, StringComparison.Ordinal)
+                    ? f.Message[..^(" Fix: ".Length + fix.Said.Length)] : f.Message)),
+                ["fix"] = f.Fix is null ? null : new MarkdownText(MarkdownEscape.Message(f.Fix.Said)),
                 ["fix_subject"] = f.Fix?.Subject,
                 ["line"] = f.Span.Line,
                 ["column"] = f.Span.Column,

@@ -160,7 +160,14 @@ public static class JsonReport
             return;
         }
 
-        w.WriteStartObject("fix");
+        w.WritePropertyName("fix");
+        WriteFixObject(w, fix, settings);
+    }
+
+    /// <summary>One fix hint as an object; its alternatives (other changes that would each fix the finding) nest as <c>alternatives</c>.</summary>
+    private static void WriteFixObject(Utf8JsonWriter w, FixHint fix, ReportSettings settings)
+    {
+        w.WriteStartObject();
         w.WriteString("kind", fix.KindName);
         w.WriteString("subject", fix.Subject);
         ReportJson.Number(w, "value", fix.Value);
@@ -175,6 +182,17 @@ public static class JsonReport
             w.WriteNumber("column", span.Column);
             w.WriteNumber("endLine", span.EndLine);
             w.WriteNumber("endColumn", span.EndColumn);
+        }
+
+        if (fix.Alternatives.Count > 0)
+        {
+            w.WriteStartArray("alternatives");
+            foreach (var alternative in fix.Alternatives)
+            {
+                WriteFixObject(w, alternative, settings);
+            }
+
+            w.WriteEndArray();
         }
 
         w.WriteEndObject();

@@ -188,18 +188,30 @@ public static class SarifReport
     }
 
     /// <summary>
-    /// Writes the SARIF 2.1.0 <c>fixes</c> of a finding whose fix hint is one YAML value replacement: one fix with one
-    /// artifact change that deletes the value's region and inserts the replacement text, so an editor or a review bot can
-    /// apply it. A hint that needs another part (a figure, not a value) has no SARIF fix; its text is in the message.
+    /// Writes the SARIF 2.1.0 <c>fixes</c> of a finding whose fix hint (or one of its alternatives) is one YAML value
+    /// replacement: per such hint one fix with one artifact change that deletes the value's region and inserts the
+    /// replacement text, so an editor or a review bot can apply it. A hint that needs another part (a figure, not a value)
+    /// or a different signal has no SARIF fix; its text is in the message.
     /// </summary>
     private static void WriteFixes(Utf8JsonWriter w, Finding f, ReportSettings settings)
     {
-        if (f.Fix is not { ValueSpan: { } span, Replacement: { } replacement } fix)
+        var values = f.Fix?.All.Where(h => h is { ValueSpan: not null, Replacement: not null }).ToList() ?? [];
+        if (values.Count == 0)
         {
             return;
         }
 
         w.WriteStartArray("fixes");
+        foreach (var fix in values)
+        {
+            WriteFix(w, fix, fix.ValueSpan!, fix.Replacement!, settings);
+        }
+
+        w.WriteEndArray();
+    }
+
+    private static void WriteFix(Utf8JsonWriter w, FixHint fix, SourceSpan span, string replacement, ReportSettings settings)
+    {
         w.WriteStartObject();
         w.WriteStartObject("description");
         w.WriteString("text", fix.Text);
@@ -234,7 +246,6 @@ public static class SarifReport
         w.WriteEndObject();
         w.WriteEndArray();
         w.WriteEndObject();
-        w.WriteEndArray();
     }
 
     private static void WriteRegion(Utf8JsonWriter w, SourceSpan span)

@@ -97,6 +97,8 @@ public enum FixKind
 
     /// <summary>The capacitance an amplifier's output drives must be at most this (F); one YAML value where one capacitor makes it up.</summary>
     MaximumCapacitance,
+    /// <summary>The highest signal frequency (Hz, the band top) the design handles as it stands.</summary>
+    MaximumBandTop,
 }
 
 /// <summary>
@@ -119,6 +121,23 @@ public sealed record FixHint(FixKind Kind, string Subject, double Value, string 
     /// <summary>True when no part class in the design's visible parts libraries reaches the hinted figure (the text says so).</summary>
     public bool BeyondPartClasses { get; init; }
 
+    /// <summary>
+    /// Other changes that would each make the finding pass on their own (e.g. the largest amplitude the design handles as it
+    /// stands, beside the slew rate a faster part needs); <see cref="Said"/> follows this hint's text with theirs.
+    /// </summary>
+    public IReadOnlyList<FixHint> Alternatives { get; init; } = [];
+
+    /// <summary>This hint and every alternative, this one first.</summary>
+    public IEnumerable<FixHint> All => Alternatives.Prepend(this);
+
+    /// <summary>The hint and its alternatives in words, as appended to the message and shown on the page ("…. Alternatively, …").</summary>
+    public string Said => string.Concat(Alternatives.Select(a => " Alternatively, " + a.Text).Prepend(Text.TrimEnd()));
+
+    /// <summary>This hint with <paramref name="alternative"/> (and its own alternatives) offered beside it; null leaves it unchanged.</summary>
+    public FixHint Or(FixHint? alternative) => alternative is null
+        ? this
+        : this with { Alternatives = [.. Alternatives, .. alternative.All] };
+
     /// <summary>The kind's stable name in reports, e.g. <c>minimum-slew-rate</c>.</summary>
     public string KindName => Kind switch
     {
@@ -129,6 +148,7 @@ public sealed record FixHint(FixKind Kind, string Subject, double Value, string 
         FixKind.MaximumAmplitude => "maximum-amplitude",
         FixKind.IsolationResistor => "isolation-resistor",
         FixKind.MaximumCapacitance => "maximum-capacitance",
+        FixKind.MaximumBandTop => "maximum-band-top",
         _ => "preferred-value",
     };
 }

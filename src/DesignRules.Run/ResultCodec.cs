@@ -15,9 +15,9 @@ internal static class ResultCodec
     /// <summary>
     /// The version of this encoding, part of every entry's key. 3: a figure keeps its temperature; 4: a finding keeps its fix
     /// hint; 5: a stage's plots keep their loop-gain and step plots (an entry of 4 would replay a page without them), and a
-    /// plot its noise densities, a stage its noise figures.
+    /// plot its noise densities, a stage its noise figures; 6: a fix hint keeps its alternatives.
     /// </summary>
-    public const int FormatVersion = 5;
+    public const int FormatVersion = 6;
 
     private static readonly JsonSerializerOptions Options = new()
     {
@@ -75,7 +75,7 @@ internal static class ResultCodec
 
     internal sealed record StoredFix(
         FixKind Kind, string Subject, double Value, string Unit, string Text, bool BeyondPartClasses,
-        string? Replacement, string? File, int Line, int Column, int EndLine, int EndColumn);
+        string? Replacement, string? File, int Line, int Column, int EndLine, int EndColumn, List<StoredFix>? Alternatives = null);
 
     internal sealed record StoredFigure(string Kind, string? Subject, double Value, double? Limit, double? Margin, double? Temperature = null);
 
@@ -83,24 +83,27 @@ internal static class ResultCodec
     {
         public static StoredFinding ToStored(Finding f) => new(
             f.RuleId, f.Title, (int)f.Severity, f.Message, f.Span.File, f.Span.Line, f.Span.Column, f.Span.EndLine, f.Span.EndColumn,
-            f.HelpPage, f.DesignId, f.StageId, f.Waiver, f.Figures.Select(FigureCodec.ToStored).ToList(), f.Fix is { } x
-                ? new StoredFix(x.Kind, x.Subject, x.Value, x.Unit, x.Text, x.BeyondPartClasses, x.Replacement, x.ValueSpan?.File,
-                    x.ValueSpan?.Line ?? 0, x.ValueSpan?.Column ?? 0, x.ValueSpan?.EndLine ?? 0, x.ValueSpan?.EndColumn ?? 0)
-                : null);
+            f.HelpPage, f.DesignId, f.StageId, f.Waiver, f.Figures.Select(FigureCodec.ToStored).ToList(), f.Fix is { } x ? ToStored(x) : null);
+
+        private static StoredFix ToStored(FixHint x) => new(x.Kind, x.Subject, x.Value, x.Unit, x.Text, x.BeyondPartClasses, x.Replacement, x.ValueSpan?.File,
+            x.ValueSpan?.Line ?? 0, x.ValueSpan?.Column ?? 0, x.ValueSpan?.EndLine ?? 0, x.ValueSpan?.EndColumn ?? 0,
+            x.Alternatives.Count > 0 ? x.Alternatives.Select(ToStored).ToList() : null);
+
+        private static FixHint FromStored(StoredFix x) =>
+            new(Enum.IsDefined(x.Kind) ? x.Kind : throw new JsonException("unknown fix kind"), x.Subject, x.Value, x.Unit, x.Text)
+            {
+                BeyondPartClasses = x.BeyondPartClasses,
+                Replacement = x.Replacement,
+                ValueSpan = x.File is null ? null : new SourceSpan(x.File, x.Line, x.Column, x.EndLine, x.EndColumn),
+                Alternatives = x.Alternatives?.Select(FromStored).ToList() ?? [],
+            };
 
         public static Finding FromStored(StoredFinding s) => new(
             s.RuleId, s.Title, Enum.IsDefined((Severity)s.Severity) ? (Severity)s.Severity : throw new JsonException("unknown severity"),
             s.Message, new SourceSpan(s.File, s.Line, s.Column, s.EndLine, s.EndColumn), s.HelpPage, s.DesignId, s.StageId, s.Waiver,
             s.Figures.Select(FigureCodec.FromStored).ToList())
         {
-            Fix = s.Fix is { } x
-                ? new FixHint(Enum.IsDefined(x.Kind) ? x.Kind : throw new JsonException("unknown fix kind"), x.Subject, x.Value, x.Unit, x.Text)
-                {
-                    BeyondPartClasses = x.BeyondPartClasses,
-                    Replacement = x.Replacement,
-                    ValueSpan = x.File is null ? null : new SourceSpan(x.File, x.Line, x.Column, x.EndLine, x.EndColumn),
-                }
-                : null,
+            Fix = s.Fix is { } x ? FromStored(x) : null,
         };
     }
 

@@ -49,6 +49,29 @@ public sealed class JsonReportSchemaTests
     }
 
     [Fact]
+    public void A_fix_with_alternatives_is_valid_against_the_schema_and_lists_them_after_the_value_to_write()
+    {
+        var folder = Directory.CreateTempSubdirectory("designrules-fix-alternatives-").FullName;
+        try
+        {
+            var design = Path.Combine(folder, "clip.yaml");
+            File.WriteAllText(design, SarifFixTests.ClippingStage);
+            var report = DesignCheck.Run([design], new CheckOptions(null, new DateOnly(2026, 12, 1)));
+            var json = JsonReport.ToBytes(report, new ReportSettings(folder, null, "0.0.0"));
+
+            Assert.Empty(Problems(json));
+            var fix = JsonDocument.Parse(json).RootElement.GetProperty("findings").EnumerateArray()
+                .Single(f => f.GetProperty("ruleId").GetString() == "DR201").GetProperty("fix");
+            Assert.Equal("preferred-value", fix.GetProperty("kind").GetString());
+            Assert.Equal("maximum-amplitude", Assert.Single(fix.GetProperty("alternatives").EnumerateArray()).GetProperty("kind").GetString());
+        }
+        finally
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+    }
+
+    [Fact]
     public void The_schema_refuses_a_figure_without_a_key_and_a_report_of_another_version()
     {
         var text = System.Text.Encoding.UTF8.GetString(JsonReport.ToBytes(ReportFixtures.Report(), ReportFixtures.Settings));

@@ -40,6 +40,52 @@ internal sealed class DesignEvaluation : IAnalysisFailures
 
     public DesignAnalyses Analyses { get; }
 
+    /// <summary>
+    /// The most re-runs the engine-searched fix hints of one design may take together (<see cref="HintProbe"/>): a bound on
+    /// the time hints add to a check, whatever the number of findings. Rules run one after another, so which hints get
+    /// searched is deterministic; one that finds the budget spent gives no searched hint.
+    /// </summary>
+    public const int HintRunBudget = 32;
+
+    /// <summary>
+    /// The most time steps of settled transient the re-runs of one design's searched hints may take together, counting
+    /// each re-run of a transient rule as the steps the design's own settled transients took (every band end): a design
+    /// that needs fine steps gets few re-runs, and one whose transient needed continuation runs to settle (a long
+    /// averaging time constant) none, so that hints never cost much more than the re-runs of a quick design.
+    /// Deterministic: it depends on the design only.
+    /// </summary>
+    public const long HintStepBudget = 80_000;
+
+    private int hintRuns;
+    private long hintSteps;
+
+    /// <summary>
+    /// Takes one re-run from <see cref="HintRunBudget"/> and, for a rule judged on the settled transient
+    /// (<paramref name="transient"/>), its time steps from <see cref="HintStepBudget"/>; false when either would be exceeded.
+    /// </summary>
+    public bool TakeHintRun(bool transient)
+    {
+        // A transient that needed continuation runs to settle (a slow mode extrapolated) makes every re-run as slow, and
+        // its corners too: such a design is not searched at all.
+        if (transient && Analyses.IsPeriodic && Analyses.BandEnds.Any(e => SettleSteps(e) < 0))
+        {
+            return false;
+        }
+
+        long cost = transient && Analyses.IsPeriodic ? Analyses.BandEnds.Sum(SettleSteps) : 0;
+        lock (findings)
+        {
+            if (hintRuns >= HintRunBudget || hintSteps + cost > HintStepBudget)
+            {
+                return false;
+            }
+
+            hintRuns++;
+            hintSteps += cost;
+            return true;
+        }
+    }
+
     public MonteCarloSettings MonteCarlo => ruleSet.MonteCarlo;
 
     public IReadOnlyList<Finding> Findings => findings;
@@ -78,6 +124,22 @@ internal sealed class DesignEvaluation : IAnalysisFailures
         {
             judged.Add((stageId, requirement, ruleId));
         }
+    }
+
+    /// <summary>The time steps the settled transient at <paramref name="end"/> took in its one run; −1 when it needed continuation runs.</summary>
+    private long SettleSteps(BandEnd end)
+    {
+        var steady = Analyses.Steady(end);
+        var statistics = steady.Result.Statistics;
+        long steps = statistics.AcceptedSteps + statistics.RejectedSteps;
+        var time = steady.Result.Time;
+        if (Analyses.Chain(end).Period is not { } period || !(period > 0) || time.Count < 2)
+        {
+            return steps;
+        }
+
+        double last = (time[^1] - time[0]) / period;
+        return last > 0 && steady.Periods > last * 1.01 ? -1 : steps;
     }
 
     /// <summary>Every (stage, requirement, rule) judgment recorded.</summary>
@@ -174,7 +236,7 @@ internal sealed class DesignEvaluation : IAnalysisFailures
         var message = rule.Render(arguments);
         if (fix is not null)
         {
-            message += " Fix: " + fix.Text;
+            message += " Fix: " + fix.Said;
         }
 
         lock (findings)

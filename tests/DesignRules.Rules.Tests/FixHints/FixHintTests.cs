@@ -104,7 +104,7 @@ public sealed class FixHintTests : IDisposable
         var finding = report.Findings.First(f => f.RuleId == rule);
         var fix = finding.Fix ?? throw new Xunit.Sdk.XunitException($"{rule} in {fixture} has no fix hint: {finding.Message}");
         Assert.Equal(kind, fix.Kind);
-        Assert.EndsWith("Fix: " + fix.Text, finding.Message, StringComparison.Ordinal);
+        Assert.EndsWith("Fix: " + fix.Said, finding.Message, StringComparison.Ordinal);
         return fix;
     }
 

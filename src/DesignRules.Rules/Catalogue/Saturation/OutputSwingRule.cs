@@ -85,8 +85,52 @@ internal sealed class OutputSwingRule : Rule
                 ["limit"] = $"{Say.Volts(s.WithMargin)} ({Say.Volts(s.Limit)} less {Say.Volts(s.Margin)} margin)",
                 ["rail"] = s.Rail,
                 ["margin"] = s.Clips ? "the output clips" : $"{Say.Volts(s.Over)} over",
-            }, FigureKinds.OutputExtreme.Of(s.Extreme), FigureKinds.SwingLimit.Of(s.Limit), FigureKinds.OffsetShift.Of(s.Offset));
+            }, Fix(evaluation, s), FigureKinds.OutputExtreme.Of(s.Extreme), FigureKinds.SwingLimit.Of(s.Limit), FigureKinds.OffsetShift.Of(s.Offset));
         }
+    }
+
+    /// <summary>
+    /// The searched fix: the nearest E-series value of the stage's gain-setting resistor that keeps the output inside its
+    /// limit (one YAML value to write), with the largest source amplitude the design handles as it stands beside it; the
+    /// amplitude found first guesses the resistor's boundary (the swing scales with gain times amplitude).
+    /// </summary>
+    private FixHint? Fix(DesignEvaluation evaluation, Swing s)
+    {
+        var a = s.Amplifier;
+        var stageId = a.Stage.StageId;
+        var amplitude = SearchedFixHints.MaximumAmplitude(evaluation, this, stageId, a.Named.PartSpan, AmplitudeGuess(evaluation, s));
+        double? scale = amplitude is { Value: > 0 } h && DesignEdits.Amplitude(evaluation.Design) is { } present ? h.Value / present : null;
+        var value = SearchedFixHints.GainSettingValue(evaluation, this, stageId, a.Named.PartSpan, scale);
+        return value is null ? amplitude : value.Or(amplitude);
+    }
+
+    /// <summary>
+    /// The closed-form guess of the largest amplitude, as a fraction of today's, for an amplifier that drives its stage's
+    /// output: the ideal transfers of the stages up to it give its peak G·A, and the limit less the margin and the offset
+    /// shift over that peak is the fraction that just fits (rails taken around 0 V; the search corrects what this misses).
+    /// </summary>
+    private static double? AmplitudeGuess(DesignEvaluation evaluation, Swing s)
+    {
+        var a = s.Amplifier;
+        var chain = evaluation.Analyses.Chain(Elaboration.BandEnd.Top);
+        if (a.Probe.OutputNode != a.Stage.OutputNode || !chain.Succeeded || DesignEdits.Amplitude(evaluation.Design) is not { } present)
+        {
+            return null;
+        }
+
+        double gain = 1;
+        foreach (var stage in chain.Stages)
+        {
+            gain *= stage.Transfer.Gain;
+            if (stage.StageId == a.Stage.StageId)
+            {
+                break;
+            }
+        }
+
+        double room = Math.Abs(s.WithMargin) - s.Offset;
+        double guess = room / Math.Abs(gain * present);
+        return guess > 0 && guess < 1 && double.IsFinite(guess) ? guess : null;
     }
 
     private sealed record Swing(AmplifierWaveform Amplifier, string Rail, double Extreme, double Offset, double Limit, double WithMargin, double Margin, bool Clips, ToleranceCorner? Corner)

@@ -59,7 +59,11 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
-            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, 2 * Math.PI * shape.Factor * peak * limit / derating), FixHints.WithSlewRate), FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtTemperature(at), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, 2 * Math.PI * shape.Factor * peak * limit / derating), FixHints.WithSlewRate)
+                // As it stands: the full-power bandwidth falls as 1/Vp, so the amplitude (and the band top) may be fpbw/limit
+                // of today's, the closed-form guess the search confirms.
+                .Or(SearchedFixHints.MaximumAmplitude(evaluation, this, stageId, a.Named.PartSpan, fpbw / limit))
+                .Or(SearchedFixHints.MaximumBandTop(evaluation, this, stageId, a.Named.PartSpan, fpbw / limit)), FigureKinds.FullPowerBandwidth.Of(a.Probe.Slot, fpbw).AtTemperature(at), FigureKinds.RequiredFullPowerBandwidth.Of(limit),
                FigureKinds.PeakExcursion.Of(peak), FigureKinds.SlewRate.Of(slew).AtTemperature(at),
                FigureKinds.SteepestSlope.Of(2 * Math.PI * shape.Factor * frequency * peak));
         }

@@ -74,7 +74,12 @@ internal sealed class SlewDemandRule : Rule
                 ["window"] = Say.Seconds(time),
                 ["slew"] = Say.Slew(slew),
                 ["margin"] = Say.Slew(d.Rate - slew),
-            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, d.Rate), FixHints.WithSlewRate), FigureKinds.SlewDemand.Of(a.Node, d.Rate), FigureKinds.SlewRate.Of(slew),
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, d.Rate), FixHints.WithSlewRate)
+                // As it stands: a swing that scales with the signal, or a window that scales with the period, needs 1/ratio of
+                // today's amplitude or band top (the guess); a jump fixed by the circuit (a rail, a diode drop) does not
+                // scale with the amplitude, and the search says so.
+                .Or(SearchedFixHints.MaximumAmplitude(evaluation, this, a.Stage.StageId, a.Named.PartSpan, 1 / d.Ratio))
+                .Or(SearchedFixHints.MaximumBandTop(evaluation, this, a.Stage.StageId, a.Named.PartSpan, 1 / d.Ratio)), FigureKinds.SlewDemand.Of(a.Node, d.Rate), FigureKinds.SlewRate.Of(slew),
                FigureKinds.SlewingSwing.Of(e.Swing), FigureKinds.SlewWindow.Of(time));
         }
     }

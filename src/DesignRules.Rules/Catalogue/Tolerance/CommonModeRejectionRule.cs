@@ -70,7 +70,7 @@ internal sealed class CommonModeRejectionRule : Rule
                 ["cmrr"] = $"{Say.Ratio(cmrr)} ({Say.Decibels(cmrr)})",
                 ["tolerance"] = Say.Percent(tolerance),
                 ["consequence"] = consequence,
-            }, [.. figures]);
+            }, SearchedFixHints.MaximumResistorTolerance(evaluation, this, id, FigureKinds.CommonModeError), [.. figures]);
         }
     }
 }

@@ -38,7 +38,8 @@ internal sealed class HalfCycleSymmetryRule : Rule
                 ["error"] = Say.Percent(mismatch),
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}"),
                 ["limit"] = Say.Percent(accuracy),
-            }, FigureKinds.HalfCycleMismatch.Of(mismatch), FigureKinds.Accuracy.Of(accuracy));
+                ["margin"] = Say.Percent(mismatch - accuracy),
+            }, SearchedFixHints.MaximumResistorTolerance(evaluation, this, id, FigureKinds.HalfCycleMismatch), FigureKinds.HalfCycleMismatch.Of(mismatch), FigureKinds.Accuracy.Of(accuracy));
         }
     }
 }

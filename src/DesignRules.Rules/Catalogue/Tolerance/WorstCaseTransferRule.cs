@@ -71,8 +71,26 @@ internal sealed class WorstCaseTransferRule : Rule
                 ["detail"] = detail + (dominant is null ? string.Empty : $"; most from {dominant.What}") + ToleranceAnalyses.AtTemperature(hot),
                 ["limit"] = Say.Percent(accuracy),
                 ["margin"] = Say.Percent(error - accuracy),
-            }, [FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot), FigureKinds.Accuracy.Of(accuracy),
+            }, Fix(evaluation, stage, analysis), [FigureKinds.WorstCaseTransferError.Of(error).AtTemperature(hot), FigureKinds.Accuracy.Of(accuracy),
                 .. analysis.Metric.Dynamic is { } held ? [FigureKinds.HoldDroop.Of(held.High - held.Low)] : Array.Empty<Figure>()]);
         }
+    }
+
+    /// <summary>
+    /// The searched fix: the loosest resistor tolerance that meets the accuracy; where the nominal gain is off the required
+    /// one, also the nearest E-series value of the gain-setting resistor that meets it (first where no tolerance would).
+    /// </summary>
+    private FixHint? Fix(DesignEvaluation evaluation, DesignRules.Elaboration.StageProbe stage, DesignRules.Figures.Tolerance.WorstCaseAnalysis analysis)
+    {
+        var tolerance = SearchedFixHints.MaximumResistorTolerance(evaluation, this, stage.StageId, FigureKinds.WorstCaseTransferError);
+        var value = analysis.Target.Kind == TransferKind.Gain && stage.Stage.Requirements.Gain is not null && stage.Transfer.Gain != 0
+            ? SearchedFixHints.GainCorrectingValue(evaluation, this, stage.StageId, analysis.Target.SlopePositive / stage.Transfer.Gain)
+            : null;
+        return (tolerance, value) switch
+        {
+            (null, _) => value,
+            ({ Value: 0 }, { } v) => v.Or(tolerance),
+            _ => tolerance.Or(value),
+        };
     }
 }
