@@ -41,6 +41,17 @@ public sealed class StabilityRuleTests
     }
 
     [Fact]
+    public void The_next_E24_value_below_the_hinted_isolation_resistor_leaves_the_phase_margin_short()
+    {
+        // The hint is the smallest E24 resistor (IEC 60063) that restores the phase margin. The passing fixture fits the
+        // hinted 20 Ω and meets the margin; 18 Ω, the E24 value just short of it, must leave the margin short (DR510), so
+        // the hint is the least value that serves and not merely one that does.
+        var fitted = File.ReadAllText(RuleFixture.Path("stability/follower-cable-isolated.yaml"));
+        Assert.Empty(StabilityFindings(fitted, RuleIds.PhaseMargin));
+        Assert.NotEmpty(StabilityFindings(fitted.Replace("{ id: riso, type: resistor, value: 20,", "{ id: riso, type: resistor, value: 18,", StringComparison.Ordinal), RuleIds.PhaseMargin));
+    }
+
+    [Fact]
     public void A_load_beyond_the_parts_stated_capacitance_is_hinted_as_one_value_and_writing_it_clears_the_finding()
     {
         var fixture = RuleFixture.Path("stability/line-driver-beyond-stated-load.yaml");
@@ -56,7 +67,9 @@ public sealed class StabilityRuleTests
         Assert.NotEmpty(CapacitiveLoadFindings(Replace(text, fix.ValueSpan, (fix.Value * 1.02 * 1e9).ToString("R", System.Globalization.CultureInfo.InvariantCulture) + " nF")));
     }
 
-    private static List<Finding> CapacitiveLoadFindings(string designText)
+    private static List<Finding> CapacitiveLoadFindings(string designText) => StabilityFindings(designText, RuleIds.CapacitiveLoad);
+
+    private static List<Finding> StabilityFindings(string designText, RuleId rule)
     {
         var folder = Directory.CreateTempSubdirectory("designrules-stability-").FullName;
         try
@@ -67,7 +80,7 @@ public sealed class StabilityRuleTests
             File.WriteAllText(file, designText);
             var report = DesignCheck.Run([file], new CheckOptions(null, new DateOnly(2026, 12, 1)));
             Assert.DoesNotContain(report.Findings, f => f.RuleId.StartsWith("DR9", StringComparison.Ordinal));
-            return report.Findings.Where(f => f.RuleId == RuleIds.CapacitiveLoad.Value).ToList();
+            return report.Findings.Where(f => f.RuleId == rule.Value).ToList();
         }
         finally
         {
