@@ -45,6 +45,25 @@ public sealed class GbwDeratingTests
         Assert.Equal(-0.003, part.GbwDerating!.Value.Value, 12);
     }
 
-    private static Figure Figure(CheckReport report, FigureKey key) =>
-        report.Designs.Single().StageFigures.Single(s => s.Key == "gain").Value.Single(f => f.Key == key);
+    [Fact]
+    public void A_rectifier_keeps_its_loop_gain_at_25_C_and_loses_it_at_the_hot_end_in_proportion_to_its_GBW()
+    {
+        var at25 = RuleFixture.Verify("bandwidth/rectifier-gbw-derated-at-25-only.yaml");
+        var hot = RuleFixture.Verify("bandwidth/rectifier-gbw-derated-hot-end-fails.yaml");
+        var finding = Assert.Single(hot.Findings, f => f.RuleId == Diagnostics.RuleIds.RectifierLoopGain);
+        Assert.Contains("at 85 °C", finding.Message, StringComparison.Ordinal);
+
+        // Textbook single-pole open-loop gain A(f) = A0 / √(1 + (f·A0/GBW)²) ≈ GBW/f: at 7 kHz with A0 = 100 dB it is
+        // GBW/f to 1 part in 10⁵, so the loop gain GBW/(f·noise gain) = 1 MHz / (7 kHz × 2) = 71.4 at 25 °C scales with
+        // the derated GBW, 1 − 0.003 × (85 − 25) = 0.82 times at 85 °C.
+        var gain25 = Figure(at25, FigureKinds.LoopGain.At("u1"), "rect");
+        var gainHot = Figure(hot, FigureKinds.LoopGain.At("u1"), "rect");
+        Assert.Equal(1e6 / (7e3 * 2), gain25.Value, 1e6 / (7e3 * 2) * 1e-3);
+        Assert.Equal(0.82, gainHot.Value / gain25.Value, 1e-6);
+        Assert.Equal(85, gainHot.Temperature);
+        Assert.Null(gain25.Temperature);
+    }
+
+    private static Figure Figure(CheckReport report, FigureKey key, string stage = "gain") =>
+        report.Designs.Single().StageFigures.Single(s => s.Key == stage).Value.Single(f => f.Key == key);
 }
