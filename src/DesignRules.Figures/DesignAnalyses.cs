@@ -57,6 +57,9 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private StepFigures? steps;
     private readonly Dictionary<(string ElementId, double Limit), CapacitiveLoadFix?> capacitiveLoads = [];
     private IReadOnlyList<StageNoiseFigures>? noise;
+    private IReadOnlyList<GbwAtTemperature>? gbwEnds;
+    private readonly Dictionary<double, (AcResult Sweep, SmallSignal? Small)> acAt = [];
+    private readonly Dictionary<double, LoopGainFigures> loopGainsAt = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -171,6 +174,21 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     /// (one loop-gain analysis per amplifier per design, shared by the stability rules and the pages).
     /// </summary>
     public LoopGainFigures LoopGains => loopGains ??= LoopGainAnalyses.Compute(Chain(BandEnd.Top));
+
+    /// <summary>
+    /// The nominal chain with its amplifiers' GBW at each end of the operating range where a part's <c>gbw-derating</c>
+    /// moves it (variants of the compiled circuit); empty without a range or a derating.
+    /// </summary>
+    public IReadOnlyList<GbwAtTemperature> GbwEnds => gbwEnds ??= GbwOverTemperature.Ends(Design, Chain(BandEnd.Top));
+
+    /// <summary>The AC sweep and the small-signal list (as <see cref="Ac"/> and <see cref="SmallSignal"/>) with the GBWs of <paramref name="end"/>.</summary>
+    public (AcResult Sweep, SmallSignal? Small) AcAt(GbwAtTemperature end) =>
+        acAt.TryGetValue(end.Celsius, out var r) ? r
+        : acAt[end.Celsius] = (Simulate.AcSweep(end.Chain.Circuit, AcSweepPlan(end.Chain)), LoadingBandwidthStress.SmallSignal.Compute(this, end.Chain));
+
+    /// <summary>Every amplifier's loop gain and margins (as <see cref="LoopGains"/>) with the GBWs of <paramref name="end"/>.</summary>
+    public LoopGainFigures LoopGainsAt(GbwAtTemperature end) =>
+        loopGainsAt.TryGetValue(end.Celsius, out var l) ? l : loopGainsAt[end.Celsius] = LoopGainAnalyses.Compute(end.Chain);
 
     /// <summary>Every stage output's answer to a small step at the source (its record set by <see cref="LoopGains"/>).</summary>
     public StepFigures Steps => steps ??= StepAnalyses.Compute(LoopGains);

@@ -121,6 +121,9 @@ internal static class PartsReader
         var recovery = m.Quantity("overload-recovery", Dimension.Time, required: false, ValueChecks.NotNegative);
         var slewDerating = m.Quantity("slew-derating", Dimension.TemperatureCoefficient, required: false,
             q => Math.Abs(q.Value) <= 4e-3 ? null : "a slew-rate derating lies within ±0.004 /°C (±0.4 % per °C)");
+        // The same bound as the slew derating: across -55 °C..125 °C it keeps the GBW between 0.6 and 1.4 times its 25 °C figure, never at or below zero.
+        var gbwDerating = m.Quantity("gbw-derating", Dimension.TemperatureCoefficient, required: false,
+            q => Math.Abs(q.Value) <= 4e-3 ? null : "a GBW derating lies within ±0.004 /°C (±0.4 % per °C)");
         var drift = m.Quantity("offset-drift", Dimension.VoltageDrift, required: false, ValueChecks.NotNegative);
         var doubling = m.Quantity("bias-doubling", Dimension.Temperature, required: false,
             ValueChecks.Within(1, 100, "a bias-current doubling interval lies between 1 °C and 100 °C (JFET and CMOS inputs: about 10 °C)"));
@@ -142,6 +145,7 @@ internal static class PartsReader
             CurrentNoise = currentNoise,
             NoiseCorner = noiseCorner,
             SlewDerating = slewDerating,
+            GbwDerating = gbwDerating,
         };
     }
 

@@ -90,6 +90,13 @@ public sealed record AmplifierPart(
     /// </summary>
     public Located<Quantity>? SlewDerating { get; init; }
 
+    /// <summary>
+    /// Optional derating of the gain-bandwidth product with temperature, a fraction per kelvin (written /°C or ppm/°C): the
+    /// GBW at T is GBW·(1 + d·(T − 25 °C)). Applied where a design states a temperature range (bandwidth at the end where
+    /// GBW is lowest, stability at the end where it is highest); without it the GBW is taken as constant.
+    /// </summary>
+    public Located<Quantity>? GbwDerating { get; init; }
+
     /// <summary>1/f corner of the input voltage noise (e_n(f)² = e_n²·(1 + f_c/f)), if given; without it the voltage noise is white.</summary>
     public Located<Quantity>? NoiseCorner { get; init; }
 }

@@ -33,9 +33,11 @@ internal sealed class SmallSignal
     public static SmallSignal? Of(DesignAnalyses analyses) =>
         analyses.SmallSignal;
 
-    internal static SmallSignal? Compute(DesignAnalyses analyses)
+    internal static SmallSignal? Compute(DesignAnalyses analyses) => Compute(analyses, analyses.Chain(BandEnd.Top));
+
+    /// <summary>The same small-signal list on a variant of the band-top chain (its amplifiers at another temperature).</summary>
+    internal static SmallSignal? Compute(DesignAnalyses analyses, ElaboratedChain chain)
     {
-        var chain = analyses.Chain(BandEnd.Top);
         if (!chain.Succeeded)
         {
             return null;

@@ -73,6 +73,27 @@ internal static class TemperatureBehaviour
     /// <summary>An amplifier's slew rate at <paramref name="celsius"/> over its rate at 25 °C: 1 + d·(T − 25 °C), d its stated derating (none: 1).</summary>
     public static double SlewFactor(Model.AmplifierPart part, double celsius) => 1 + ((part.SlewDerating?.Value.Value ?? 0) * (celsius - Reference));
 
+    /// <summary>An amplifier's GBW at <paramref name="celsius"/> over its GBW at 25 °C: 1 + d·(T − 25 °C), d its stated GBW derating (none: 1).</summary>
+    public static double GbwFactor(Model.AmplifierPart part, double celsius) => 1 + ((part.GbwDerating?.Value.Value ?? 0) * (celsius - Reference));
+
+    /// <summary>
+    /// The lowest GBW of an amplifier over the design's operating range, as a factor of its 25 °C figure, and the end of
+    /// the range it occurs at (the derating is linear, so its extreme lies at an end); (1, null) without a range or a
+    /// derating, or where no end lowers it.
+    /// </summary>
+    public static (double Factor, double? At) LowestGbw(Model.Design design, Model.AmplifierPart part)
+    {
+        if (design.Temperature is not { } range || part.GbwDerating is not { } derating || derating.Value.Value == 0)
+        {
+            return (1, null);
+        }
+
+        double low = range.Value.Low.Value, high = range.Value.High.Value;
+        double atLow = GbwFactor(part, low), atHigh = GbwFactor(part, high);
+        var (factor, at) = atLow < atHigh ? (atLow, low) : (atHigh, high);
+        return factor < 1 ? (factor, at) : (1, null);
+    }
+
     /// <summary>
     /// The slowest slew rate of an amplifier over the design's operating range, as a factor of its 25 °C rate, and the end
     /// of the range it occurs at (the derating is linear, so its extreme lies at an end); (1, null) without a range or a

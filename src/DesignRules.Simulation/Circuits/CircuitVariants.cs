@@ -66,6 +66,19 @@ public sealed partial class Circuit
         return Copy(e => e is VoltageSourceDefinition v && v.Id == sourceId ? v with { Waveform = waveform } : e);
     }
 
+    /// <summary>
+    /// A copy in which each named amplifier's gain-bandwidth product is multiplied by its factor (its dominant pole moves
+    /// with it, ωp = ωu/A0; open-loop gain, second pole and slew rates stay): an amplifier at another temperature.
+    /// </summary>
+    /// <param name="factors">Factor (positive) by amplifier element id; amplifiers not named keep theirs.</param>
+    public Circuit WithGainBandwidthScaled(IReadOnlyDictionary<string, double> factors)
+    {
+        ArgumentNullException.ThrowIfNull(factors);
+        return Copy(e => e is AmplifierDefinition a && factors.TryGetValue(a.Id, out var factor)
+            ? a with { Model = a.Model with { GainBandwidth = a.Model.GainBandwidth * factor } }
+            : e);
+    }
+
     private Circuit Copy(Func<ElementDefinition, ElementDefinition> change)
     {
         var copy = new Circuit { Temperature = Temperature };

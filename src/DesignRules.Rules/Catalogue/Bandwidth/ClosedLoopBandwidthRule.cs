@@ -4,6 +4,7 @@ using DesignRules.Elaboration;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+using DesignRules.Rules.Evaluation.Tolerance;
 using DesignRules.Simulation;
 
 namespace DesignRules.Rules.Catalogue.Bandwidth;
@@ -34,12 +35,27 @@ internal sealed class ClosedLoopBandwidthRule : Rule
             return;
         }
 
+        // With a gbw-derating and a range, the stage is judged where its bandwidth is least: at 25 °C or at an end of the
+        // range where some GBW falls (DESIGN.md: closed-loop bandwidth ≈ GBW / noise gain, so the lowest GBW is worst).
+        var variants = new List<(double? At, AcResult Sweep, SmallSignal Small)> { (null, sweep, small) };
+        foreach (var end in evaluation.Analyses.GbwEnds.Where(e => e.Lowers))
+        {
+            var (derated, list) = evaluation.Analyses.AcAt(end);
+            if (derated.Succeeded && list is not null)
+            {
+                variants.Add((end.Celsius, derated, list));
+            }
+        }
+
         foreach (var stage in small.Chain.Stages.Where(s => s.Transfer.Kind == TransferKind.Gain))
         {
-            var response = Response(sweep, i => SmallSignal.InputVoltage(sweep, stage, i), stage.OutputNode);
-            var atTop = top is { } f ? Response(small.Result, i => SmallSignal.InputVoltage(small.Result, stage, i), stage.OutputNode)[small.IndexOf(f)] : (Complex?)null;
-            Check(evaluation, stage.StageId, stage.Stage.Requirements, StageFacts.Accuracy(evaluation, Id, stage.Stage), sweep, response, atTop, top,
-                Location(stage));
+            var judged = variants
+                .Select(v => (v.At, v.Sweep, Response: Response(v.Sweep, i => SmallSignal.InputVoltage(v.Sweep, stage, i), stage.OutputNode),
+                    AtTop: top is { } f ? Response(v.Small.Result, i => SmallSignal.InputVoltage(v.Small.Result, stage, i), stage.OutputNode)[v.Small.IndexOf(f)] : (Complex?)null))
+                .Select(v => (v.At, v.Sweep, v.Response, v.AtTop, Bandwidth: Bandwidth(v.Sweep, v.Response) ?? double.PositiveInfinity))
+                .MinBy(v => v.Bandwidth);
+            Check(evaluation, stage.StageId, stage.Stage.Requirements, StageFacts.Accuracy(evaluation, Id, stage.Stage), judged.Sweep, judged.Response, judged.AtTop, top,
+                Location(stage), judged.At, stage.Amplifiers.Count > 0 ? stage.Amplifiers[0].Part : null);
         }
 
         var chainBandwidth = evaluation.Design.Requirements.Bandwidth;
@@ -68,13 +84,13 @@ internal sealed class ClosedLoopBandwidthRule : Rule
     }
 
     private void Check(DesignEvaluation evaluation, string stageId, Requirements requirements, double accuracy, AcResult sweep, Complex[] response,
-        Complex? atTop, double? top, SourceSpan span)
+        Complex? atTop, double? top, SourceSpan span, double? at, AmplifierPart? part)
     {
         var bandwidth = Bandwidth(sweep, response);
         var required = requirements.Bandwidth?.Value.Value;
         if (bandwidth is { } bw)
         {
-            var figure = FigureKinds.ClosedLoopBandwidth.Of(bw);
+            var figure = FigureKinds.ClosedLoopBandwidth.Of(bw).AtTemperature(at);
             evaluation.Record(stageId, required is { } atLeast ? figure.AtLeast(atLeast) : figure);
             evaluation.Judged(stageId, "bandwidth", Id);
         }
@@ -83,7 +99,7 @@ internal sealed class ClosedLoopBandwidthRule : Rule
         double error = atTop is { } h && reference > 0 ? Math.Abs((h.Magnitude / reference) - 1) : 0;
         if (top is not null)
         {
-            evaluation.Record(stageId, FigureKinds.BandTopGainError.Of(error).AtMost(accuracy));
+            evaluation.Record(stageId, FigureKinds.BandTopGainError.Of(error).AtMost(accuracy).AtTemperature(at));
         }
 
         bool short_ = required is { } r && (bandwidth ?? double.PositiveInfinity) < r;
@@ -92,18 +108,33 @@ internal sealed class ClosedLoopBandwidthRule : Rule
             return;
         }
 
-        var bandwidthText = bandwidth is { } b ? Say.Hertz(b) : $"above {Say.Hertz(sweep.Frequencies[^1])}";
+        var bandwidthText = (bandwidth is { } b ? Say.Hertz(b) : $"above {Say.Hertz(sweep.Frequencies[^1])}") + ToleranceAnalyses.AtTemperature(at);
         evaluation.Report(Id, stageId, short_ && error <= accuracy ? requirements.Bandwidth!.Span : span, new Dictionary<string, string>
         {
             ["target"] = $"Stage `{stageId}`",
             ["bandwidth"] = bandwidthText,
             ["required"] = required is { } req
-                ? short_ ? $"at least {Say.Hertz(req)} required, {Say.Hertz(req - bandwidth!.Value)} short" : $"at least {Say.Hertz(req)} required"
+                ? short_ ? $"at least {Say.Hertz(req)} required, {Say.Hertz(req - bandwidth!.Value)} short{DeratedFix(part, at, req / bandwidth!.Value)}" : $"at least {Say.Hertz(req)} required"
                 : "no bandwidth stated",
             ["gain-error"] = top is { } f
                 ? $"; gain at {Say.Hertz(f)} is off by {Say.Percent(error)} ({Say.Percent(accuracy)} allowed{(error > accuracy ? $", {Say.Percent(error - accuracy)} over" : string.Empty)})"
                 : string.Empty,
-        }, FigureKinds.ClosedLoopBandwidth.Of(bandwidth ?? sweep.Frequencies[^1]), FigureKinds.BandTopGainError.Of(error), FigureKinds.Accuracy.Of(accuracy));
+        }, FigureKinds.ClosedLoopBandwidth.Of(bandwidth ?? sweep.Frequencies[^1]).AtTemperature(at), FigureKinds.BandTopGainError.Of(error).AtTemperature(at), FigureKinds.Accuracy.Of(accuracy));
+    }
+
+    /// <summary>
+    /// Where the shortfall is judged at a derated end: the GBW the part needs there, as a factor of its derated figure
+    /// (bandwidth scales with GBW at a fixed noise gain), so the fix names the temperature it must hold at.
+    /// </summary>
+    private static string DeratedFix(AmplifierPart? part, double? at, double factor)
+    {
+        if (at is not { } t || part is null)
+        {
+            return string.Empty;
+        }
+
+        double derated = part.GainBandwidth.Value.Value * TemperatureBehaviour.GbwFactor(part, t);
+        return $"; the part's GBW falls to {Say.Hertz(derated)}{ToleranceAnalyses.AtTemperature(t)} (its gbw-derating): choose one with at least {Say.Hertz(derated * factor)} there, or less gain in this stage";
     }
 
     private static Complex[] Response(AcResult result, Func<int, Complex> input, string output)

@@ -2,6 +2,7 @@ using DesignRules.Diagnostics;
 using DesignRules.Elaboration;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.LoadingBandwidthStress;
+using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Catalogue.Bandwidth;
 
@@ -10,7 +11,9 @@ namespace DesignRules.Rules.Catalogue.Bandwidth;
 /// single-pole amplifier is A(f) = A0 / √(1 + (f·A0/GBW)²) ≈ GBW/f (textbook), the loop gain T = A(f)·β with β = 1/noise
 /// gain, and the output keeps an error of about Vf/T (the diode's forward voltage at 1 mA over the loop gain). Compared
 /// with the smallest output to be rectified — the stated <c>min-signal</c> (at the stage input) times the stage gain, else
-/// the source amplitude carried through the ideal gains of the stages before it — times the stage's accuracy.
+/// the source amplitude carried through the ideal gains of the stages before it — times the stage's accuracy. Where the
+/// design states a temperature range and the part a <c>gbw-derating</c>, GBW is taken at the end of the range where it is
+/// lowest (least loop gain, largest error) and the finding names that temperature.
 /// </summary>
 internal sealed class RectifierLoopGainRule : Rule
 {
@@ -47,7 +50,8 @@ internal sealed class RectifierLoopGainRule : Rule
     private void Check(DesignEvaluation evaluation, ElaboratedChain chain, StageProbe stage, AmplifierProbe amp, DiodeProbe diode, double top, double inputLevel, double gain)
     {
         var stageId = stage.StageId;
-        double gbw = amp.Part.GainBandwidth.Value.Value;
+        var (derating, at) = TemperatureBehaviour.LowestGbw(evaluation.Design, amp.Part);
+        double gbw = amp.Part.GainBandwidth.Value.Value * derating;
         double a0 = amp.Part.OpenLoopGain.Value.Value;
         double openLoop = a0 / Math.Sqrt(1 + Math.Pow(top * a0 / gbw, 2));
         double beta = 1 / (NoiseGain.Of(stage.Stage, amp.Slot) ?? 1);
@@ -57,10 +61,10 @@ internal sealed class RectifierLoopGainRule : Rule
         var minSignal = stage.Stage.Requirements.MinSignal?.Value.Value;
         double signal = (minSignal ?? inputLevel) * gain;
         double relative = signal > 0 ? outputError / signal : double.PositiveInfinity;
-        evaluation.Record(stageId, FigureKinds.LoopGain.Of(amp.Slot, loopGain));
+        evaluation.Record(stageId, FigureKinds.LoopGain.Of(amp.Slot, loopGain).AtTemperature(at));
         evaluation.Judged(stageId, "min-signal", Id);
         double accuracy = StageFacts.Accuracy(evaluation, Id, stage.Stage);
-        evaluation.Record(stageId, FigureKinds.RectifierError.Of(relative).AtMost(accuracy));
+        evaluation.Record(stageId, FigureKinds.RectifierError.Of(relative).AtMost(accuracy).AtTemperature(at));
         if (relative <= accuracy)
         {
             return;
@@ -70,12 +74,12 @@ internal sealed class RectifierLoopGainRule : Rule
         {
             ["stage"] = stageId,
             ["frequency"] = Say.Hertz(top),
-            ["gain"] = Say.Ratio(loopGain),
+            ["gain"] = Say.Ratio(loopGain) + (at is null ? string.Empty : $"{ToleranceAnalyses.AtTemperature(at)}, where the part's GBW is lowest (its gbw-derating)"),
             ["error"] = $"{Say.Volts(outputError)} ({Say.Percent(relative)})",
             ["signal"] = Say.Volts(signal),
             ["limit"] = Say.Percent(accuracy),
             ["margin"] = Say.Percent(relative - accuracy),
-        }, FigureKinds.LoopGain.Of(amp.Slot, loopGain), FigureKinds.RectifierError.Of(relative), FigureKinds.Accuracy.Of(accuracy));
+        }, FigureKinds.LoopGain.Of(amp.Slot, loopGain).AtTemperature(at), FigureKinds.RectifierError.Of(relative).AtTemperature(at), FigureKinds.Accuracy.Of(accuracy));
     }
 
     /// <summary>The amplifiers whose output drives a diode of the stage (the rectifying loops), each with that diode.</summary>
