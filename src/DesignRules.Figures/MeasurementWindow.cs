@@ -48,4 +48,27 @@ internal static class MeasurementWindow
 
         return sum / (end - start);
     }
+
+    /// <summary>
+    /// The transient's values linearly interpolated onto <paramref name="grid"/> (plots want a uniform grid; the engine's
+    /// accepted time points are not uniform); held at the first and last value outside the run.
+    /// </summary>
+    public static double[] Resample(IReadOnlyList<double> time, double[] values, double[] grid)
+    {
+        var result = new double[grid.Length];
+        var j = 0;
+        for (var i = 0; i < grid.Length; i++)
+        {
+            while (j < time.Count - 2 && time[j + 1] < grid[i])
+            {
+                j++;
+            }
+
+            var span = time[j + 1] - time[j];
+            var w = span <= 0 ? 0 : Math.Clamp((grid[i] - time[j]) / span, 0, 1);
+            result[i] = values[j] + (w * (values[j + 1] - values[j]));
+        }
+
+        return result;
+    }
 }

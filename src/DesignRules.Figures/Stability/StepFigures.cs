@@ -98,11 +98,11 @@ internal static class StepAnalyses
 
             var traces = new List<StepTrace>
             {
-                new(stage.InputNode, StepNode.Input, Resample(run.Time, run.Voltage(stage.InputNode), grid)),
-                new(stage.OutputNode, StepNode.StageOutput, Resample(run.Time, output, grid)),
+                new(stage.InputNode, StepNode.Input, MeasurementWindow.Resample(run.Time, run.Voltage(stage.InputNode), grid)),
+                new(stage.OutputNode, StepNode.StageOutput, MeasurementWindow.Resample(run.Time, output, grid)),
             };
             traces.AddRange(stage.Amplifiers.Where(a => a.OutputNode != stage.OutputNode)
-                .Select(a => new StepTrace(a.OutputNode, StepNode.AmplifierOutput, Resample(run.Time, run.Voltage(a.OutputNode), grid))));
+                .Select(a => new StepTrace(a.OutputNode, StepNode.AmplifierOutput, MeasurementWindow.Resample(run.Time, run.Voltage(a.OutputNode), grid))));
             stages.Add(new StageStep(stage.StageId, response, grid.Select(t => t - start).ToArray(), traces));
         }
 
@@ -127,24 +127,5 @@ internal static class StepAnalyses
         }
 
         return true;
-    }
-
-    private static double[] Resample(IReadOnlyList<double> time, double[] values, double[] grid)
-    {
-        var result = new double[grid.Length];
-        var j = 0;
-        for (var i = 0; i < grid.Length; i++)
-        {
-            while (j < time.Count - 2 && time[j + 1] < grid[i])
-            {
-                j++;
-            }
-
-            var span = time[j + 1] - time[j];
-            var w = span <= 0 ? 0 : Math.Clamp((grid[i] - time[j]) / span, 0, 1);
-            result[i] = values[j] + (w * (values[j + 1] - values[j]));
-        }
-
-        return result;
     }
 }

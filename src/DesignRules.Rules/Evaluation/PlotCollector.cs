@@ -38,12 +38,12 @@ internal static class PlotCollector
                 var grid = Enumerable.Range(0, TracePoints).Select(i => start + ((stop - start) * i / (TracePoints - 1))).ToArray();
                 var traces = new List<Trace>
                 {
-                    new(stage.InputNode, TraceRole.Input, Resample(transient.Time, transient.Voltage(stage.InputNode), grid)),
-                    new(stage.OutputNode, TraceRole.StageOutput, Resample(transient.Time, transient.Voltage(stage.OutputNode), grid)),
+                    new(stage.InputNode, TraceRole.Input, MeasurementWindow.Resample(transient.Time, transient.Voltage(stage.InputNode), grid)),
+                    new(stage.OutputNode, TraceRole.StageOutput, MeasurementWindow.Resample(transient.Time, transient.Voltage(stage.OutputNode), grid)),
                 };
                 foreach (var amp in stage.Amplifiers.Where(a => a.OutputNode != stage.OutputNode))
                 {
-                    traces.Add(new Trace(amp.OutputNode, TraceRole.AmplifierOutput, Resample(transient.Time, transient.Voltage(amp.OutputNode), grid)));
+                    traces.Add(new Trace(amp.OutputNode, TraceRole.AmplifierOutput, MeasurementWindow.Resample(transient.Time, transient.Voltage(amp.OutputNode), grid)));
                 }
 
                 var swing = stage.Amplifiers.Select(a => new SwingBand(a.ElementId,
@@ -151,25 +151,5 @@ internal static class PlotCollector
         }
 
         return (marks, stopbandDb);
-    }
-
-    // Linear interpolation onto a uniform grid: the accepted time points of the engine are not uniform.
-    private static double[] Resample(IReadOnlyList<double> time, double[] values, double[] grid)
-    {
-        var result = new double[grid.Length];
-        var j = 0;
-        for (var i = 0; i < grid.Length; i++)
-        {
-            while (j < time.Count - 2 && time[j + 1] < grid[i])
-            {
-                j++;
-            }
-
-            var span = time[j + 1] - time[j];
-            var w = span <= 0 ? 0 : Math.Clamp((grid[i] - time[j]) / span, 0, 1);
-            result[i] = values[j] + (w * (values[j + 1] - values[j]));
-        }
-
-        return result;
     }
 }
