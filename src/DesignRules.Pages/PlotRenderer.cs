@@ -194,7 +194,8 @@ internal static class PlotRenderer
         return Export(model);
     }
 
-    private static PlotModel Model(string title)
+    /// <summary>The house look every plot shares: title, font, white page, grey frame, legend below, invariant-culture labels.</summary>
+    internal static PlotModel Model(string title)
     {
         var model = new PlotModel
         {
@@ -228,6 +229,7 @@ internal static class PlotRenderer
         TextColor = OxyColors.DimGray,
     };
 
-    private static string Export(PlotModel model) =>
+    /// <summary>The plot as a standalone SVG document of the pages' one size.</summary>
+    internal static string Export(PlotModel model) =>
         SvgExporter.ExportToString(model, Width, Height, isDocument: true, textMeasurer: new TextWidthEstimate(), useVerticalTextAlignmentWorkaround: true);
 }

@@ -4,7 +4,6 @@ using DesignRules.Rules;
 using OxyPlot;
 using OxyPlot.Annotations;
 using OxyPlot.Axes;
-using OxyPlot.Legends;
 using OxyPlot.Series;
 
 namespace DesignRules.Pages;
@@ -12,12 +11,10 @@ namespace DesignRules.Pages;
 /// <summary>Draws the loop gain of an amplifier (crossover and phase margin marked) and a stage's step response.</summary>
 internal static class StabilityPlotRenderer
 {
-    private const double Width = 960;
-    private const double Height = 500;
 
     public static string LoopGain(string stageId, LoopGainPlot plot)
     {
-        var model = Model($"{stageId}.{plot.Amplifier}: loop gain {plot.OperatingPoint}");
+        var model = PlotRenderer.Model($"{stageId}.{plot.Amplifier}: loop gain {plot.OperatingPoint}");
         model.Axes.Add(new LogarithmicAxis
         {
             Position = AxisPosition.Bottom, Title = "Frequency (Hz)", MajorGridlineStyle = LineStyle.Dot,
@@ -54,7 +51,7 @@ internal static class StabilityPlotRenderer
         {
             X = plot.Crossover, Y = plot.PhaseMargin - 180, YAxisKey = "phase", Size = 4, Text = $"phase margin {degrees}°", TextColor = OxyColors.Black,
         });
-        return Export(model);
+        return PlotRenderer.Export(model);
     }
 
     public static string Step(string stageId, StepPlot plot)
@@ -62,7 +59,7 @@ internal static class StabilityPlotRenderer
         var end = plot.Time.Count > 0 ? plot.Time[^1] : 1;
         var (scale, unit) = end < 2e-6 ? (1e9, "ns") : end < 2e-3 ? (1e6, "µs") : (1e3, "ms");
         var overshoot = (plot.Overshoot * 100).ToString("0.#", CultureInfo.InvariantCulture);
-        var model = Model($"{stageId}: answer to a {new Quantity(plot.Step, Dimension.Voltage).Format()} step at the source, overshoot {overshoot} %");
+        var model = PlotRenderer.Model($"{stageId}: answer to a {new Quantity(plot.Step, Dimension.Voltage).Format()} step at the source, overshoot {overshoot} %");
         model.Axes.Add(new LinearAxis { Position = AxisPosition.Bottom, Title = $"Time after the step ({unit})", MajorGridlineStyle = LineStyle.Dot });
         model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Voltage (V)", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12 });
         foreach (var trace in plot.Traces)
@@ -95,32 +92,6 @@ internal static class StabilityPlotRenderer
             });
         }
 
-        return Export(model);
+        return PlotRenderer.Export(model);
     }
-
-    private static PlotModel Model(string title)
-    {
-        var model = new PlotModel
-        {
-            Title = title,
-            DefaultFont = "sans-serif",
-            TitleFontSize = 14,
-            Background = OxyColors.White,
-            PlotAreaBorderColor = OxyColors.Gray,
-
-            // Axis labels in the invariant culture: the pages must not change with the build machine's locale.
-            Culture = CultureInfo.InvariantCulture,
-        };
-        model.Legends.Add(new Legend
-        {
-            LegendPlacement = LegendPlacement.Outside,
-            LegendPosition = LegendPosition.BottomLeft,
-            LegendOrientation = LegendOrientation.Vertical,
-            LegendBorder = OxyColors.Undefined,
-        });
-        return model;
-    }
-
-    private static string Export(PlotModel model) =>
-        SvgExporter.ExportToString(model, Width, Height, isDocument: true, textMeasurer: new TextWidthEstimate(), useVerticalTextAlignmentWorkaround: true);
 }
