@@ -56,7 +56,7 @@ internal sealed class RectifierLoopGainRule : Rule
         double openLoop = a0 / Math.Sqrt(1 + Math.Pow(top * a0 / gbw, 2));
         double beta = 1 / (NoiseGain.Of(stage.Stage, amp.Slot) ?? 1);
         double loopGain = openLoop * beta;
-        double vf = DiodeConduction.ForwardVoltage(diode.Model, DiodeCurrent, chain.Options.Temperature);
+        double vf = diode.Model.ForwardVoltage(DiodeCurrent, chain.Options.Temperature);
         double outputError = vf / loopGain;
         var minSignal = stage.Stage.Requirements.MinSignal?.Value.Value;
         double signal = (minSignal ?? inputLevel) * gain;

@@ -134,7 +134,7 @@ internal sealed class HighImpedanceOutputRule : Rule
         double peakCurrent = 0, fullScale = 0;
         for (int i = 0; i < time.Count; i++)
         {
-            current[i] = DiodeConduction.ForwardCurrent(diode.Model, anode[i] - cathode[i], temperature);
+            current[i] = diode.Model.ForwardCurrent(anode[i] - cathode[i], temperature);
             if (time[i] >= start && time[i] <= end)
             {
                 peakCurrent = Math.Max(peakCurrent, current[i]);

@@ -44,7 +44,7 @@ internal sealed class SmallestSignalRule : Rule
             double top = SourceSignal.TopFrequency(evaluation.Design.Source.Waveform) ?? figures.High;
             double openLoop = a0 / Math.Sqrt(1 + Math.Pow(top * a0 / gbw, 2));
             double offset = Math.Abs(amp.Part.OffsetVoltage.Maximum.Value.Value);
-            double vf = DiodeConduction.ForwardVoltage(diode.Model, DiodeCurrent, chain.Options.Temperature);
+            double vf = diode.Model.ForwardVoltage(DiodeCurrent, chain.Options.Temperature);
             double deadZone = offset + (vf / openLoop);
             double crest = evaluation.Threshold(Id, "crest-factor", id);
             double noise = figures.NoiseAtStageInput;

@@ -29,6 +29,6 @@ internal sealed class DiodeForwardCurrentRule : Rule
             }
 
             // The model's current rises with the voltage, so the largest voltage gives the peak current.
-            return DiodeConduction.ForwardCurrent(diode.Model, forward, chain.Options.Temperature);
+            return diode.Model.ForwardCurrent(forward, chain.Options.Temperature);
         }, d => d.Part.ForwardCurrentRating.Value.Value, Say.Amps, "current");
 }

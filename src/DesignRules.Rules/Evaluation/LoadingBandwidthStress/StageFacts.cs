@@ -23,13 +23,3 @@ internal static class StageFacts
     /// <summary>True for stages that rectify (a precision rectifier: its transfer passes one or both half-cycles).</summary>
     public static bool IsRectifier(StageProbe probe) => StageProperties.IsRectifying(probe);
 }
-
-/// <summary>The forward current and voltage of the engine's diode law (<see cref="DiodeModel"/>), for the stress rules.</summary>
-internal static class DiodeConduction
-{
-    /// <summary>Current at terminal voltage <paramref name="v"/> (anode − cathode), A; 0 for v ≤ 0 (reverse currents are not forward stress).</summary>
-    public static double ForwardCurrent(DiodeModel model, double v, double temperature) => model.ForwardCurrent(v, temperature);
-
-    /// <summary>Forward voltage at a forward current, V.</summary>
-    public static double ForwardVoltage(DiodeModel model, double current, double temperature) => model.ForwardVoltage(current, temperature);
-}
