@@ -49,8 +49,8 @@ internal sealed class ToleranceCircuit
         }
 
         for (int i = 0; i < diodeSaturation.Length; i++) diodeSaturation[i] = solver.DiodeSaturationCurrent(variables.Diodes[i].ElementId);
-        reference = solver.Sweep(chain.SourceId, plan.Levels);
-        referenceCommonMode = plan.CommonMode is { } cm && reference.Succeeded ? solver.Sweep(TransferPlan.CommonModeSourceId, [0, cm]) : null;
+        reference = solver.ReferenceSweep(chain.SourceId, plan.Levels);
+        referenceCommonMode = plan.CommonMode is { } cm && reference.Succeeded ? solver.ReferenceSweep(TransferPlan.CommonModeSourceId, [0, cm]) : null;
         Nominal = Transfer(reference, referenceCommonMode);
         solvers.Add(solver);
     }
