@@ -125,6 +125,9 @@ public sealed class VariedDcSolver
     /// <summary>Swept values where linearised steps were tried and did not converge, so a fuller path solved them (for tests).</summary>
     internal int LinearisedFallbacks { get; private set; }
 
+    /// <summary>Linearised steps taken since this solver was made, converged or not (for tests).</summary>
+    internal int LinearisedSteps { get; private set; }
+
     /// <summary>Compiles a circuit, or returns null with the first problem (as <see cref="Simulate.DcSweep"/> would report it).</summary>
     /// <param name="circuit">Circuit to compile.</param>
     /// <param name="failure">Why it cannot be compiled.</param>
@@ -369,6 +372,7 @@ public sealed class VariedDcSolver
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
         {
             // The non-linear devices at x, in a dense system that holds only them.
+            LinearisedSteps++;
             nonlinear.Limited = false;
             foreach (int d in nonlinearDevices) devices[d].Load(nonlinear);
 
