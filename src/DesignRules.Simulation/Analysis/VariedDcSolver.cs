@@ -116,8 +116,11 @@ public sealed class VariedDcSolver
     /// <summary>Number of unknowns of the compiled circuit (the order of its matrix).</summary>
     public int Size => compiled.Layout.Size;
 
-    /// <summary>Whether warm sweeps may take linearised steps (on by default; off to compare with the full path).</summary>
-    internal bool Linearised { get; set; } = true;
+    /// <summary>
+    /// Whether warm sweeps from a <see cref="ReferenceSweep"/> may take linearised steps (on by default; off gives the chord
+    /// and Newton path alone, to compare with).
+    /// </summary>
+    public bool Linearised { get; set; } = true;
 
     /// <summary>Swept values solved by linearised steps since this solver was made (for tests).</summary>
     internal int LinearisedValues { get; private set; }
