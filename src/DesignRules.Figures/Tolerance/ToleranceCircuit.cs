@@ -49,8 +49,8 @@ internal sealed class ToleranceCircuit
         }
 
         for (int i = 0; i < diodeSaturation.Length; i++) diodeSaturation[i] = solver.DiodeSaturationCurrent(variables.Diodes[i].ElementId);
-        reference = solver.Sweep(chain.SourceId, plan.Levels);
-        referenceCommonMode = plan.CommonMode is { } cm && reference.Succeeded ? solver.Sweep(TransferPlan.CommonModeSourceId, [0, cm]) : null;
+        reference = solver.ReferenceSweep(chain.SourceId, plan.Levels);
+        referenceCommonMode = plan.CommonMode is { } cm && reference.Succeeded ? solver.ReferenceSweep(TransferPlan.CommonModeSourceId, [0, cm]) : null;
         Nominal = Transfer(reference, referenceCommonMode);
         solvers.Add(solver);
     }
@@ -68,6 +68,9 @@ internal sealed class ToleranceCircuit
     /// <summary>The DC transfer with every variable nominal.</summary>
     public DcTransfer Nominal { get; }
 
+    /// <summary>Whether samples may take the engine's linearised steps (on; off only to compare with the full path in tests).</summary>
+    internal bool Linearised { get; set; } = true;
+
     /// <summary>Elaborates the chain for a stage's variables on top of <paramref name="baseline"/> and solves it nominal.</summary>
     public static ToleranceCircuit Of(Design design, ElaborationOptions baseline, ToleranceVariables variables, TransferPlan plan) =>
         new(ChainElaborator.Elaborate(design, variables.Options(baseline, variables.Nominal)), variables, plan);
@@ -84,6 +87,7 @@ internal sealed class ToleranceCircuit
 
         try
         {
+            solver.Linearised = Linearised;
             Apply(solver, v);
             var levels = solver.Sweep(Chain.SourceId, Plan.Levels, reference);
             DcSolutions? common = null;

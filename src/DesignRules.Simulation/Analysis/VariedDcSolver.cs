@@ -27,6 +27,9 @@ public sealed class DcSolutions
 
     internal double[] this[int index] => solutions[index];
 
+    /// <summary>What a later warm sweep needs for linearised steps (see <see cref="VariedDcSolver.ReferenceSweep"/>), or null.</summary>
+    internal SweepLinearisation? Linearisation { get; set; }
+
     /// <summary>The voltage of a circuit node at each solved value (0 for the reference node).</summary>
     /// <param name="node">Node name.</param>
     public double[] Voltage(string node)
@@ -50,11 +53,24 @@ public sealed class DcSolutions
 /// continuation methods, so that it never fails where the cold sweep succeeds. Every step uses the engine's convergence
 /// test (<see cref="SolverLimits.RelativeTolerance"/> and the absolute tolerances), so a warm result agrees with a cold one
 /// within those tolerances. Not thread-safe: use one instance per thread.</para>
+/// <para>Before all that, a warm sweep from a <see cref="ReferenceSweep"/> in which only resistances, amplifier offsets and
+/// bias currents changed takes linearised steps (see <see cref="SweepLinearisation"/>): the reference's Jacobian at each
+/// swept value, factored once for every sample, with the changed conductances added exactly by a low-rank update, and the
+/// full non-linear residual checked at every step with the same convergence test. A stage that stays linear (its
+/// amplifiers inside their swing, its diodes where they were) is solved in one step and confirmed by the next, with no
+/// factorisation; one that clips or whose diode changes state fails the test and takes the paths above.</para>
 /// </summary>
 public sealed class VariedDcSolver
 {
     /// <summary>Chord iterations tried per swept value before plain Newton takes over.</summary>
     private const int MaxChordIterations = 6;
+
+    /// <summary>
+    /// Linearised steps tried per swept value before the chord iterations take over: the first step is exact for a circuit
+    /// whose non-linear devices stay linear, the next confirm it; being Newton steps for every diode and amplifier, more
+    /// take a diode across its knee (a rectifier downstream at its zero crossing), each far cheaper than a factorisation.
+    /// </summary>
+    private const int MaxLinearisedSteps = 24;
 
     private readonly NewtonSolver solver;
     private readonly CompiledCircuit compiled;
@@ -62,6 +78,16 @@ public sealed class VariedDcSolver
     private readonly DenseLu<double> chord;
     private readonly double[] tolerance;
     private readonly double[] residual;
+    private readonly LoadContext nonlinear;
+    private readonly double[] step;
+    private readonly double[] solveScratch;
+    private readonly List<JacobianUpdate> updates = [];
+    private double[][] responses = [];
+    private double[] changes = [];
+    private int[] active = [];
+    private double[] update = [];
+    private int[] updatePivots = [];
+    private double[] updateRhs = [];
     private bool chordValid;
 
     private VariedDcSolver(CompiledCircuit compiled, SolverLimits limits)
@@ -72,6 +98,14 @@ public sealed class VariedDcSolver
         int n = compiled.Layout.Size;
         chord = new DenseLu<double>(n, compiled.Ordering);
         residual = new double[n];
+        step = new double[n];
+        solveScratch = new double[n];
+        nonlinear = new LoadContext(n, compiled.Layout.StateCount)
+        {
+            Mode = AnalysisMode.Dc,
+            JunctionShunt = limits.JunctionShunt,
+            Temperature = compiled.Temperature,
+        };
         tolerance = new double[n];
         for (int i = 0; i < n; i++)
         {
@@ -81,6 +115,21 @@ public sealed class VariedDcSolver
 
     /// <summary>Number of unknowns of the compiled circuit (the order of its matrix).</summary>
     public int Size => compiled.Layout.Size;
+
+    /// <summary>
+    /// Whether warm sweeps from a <see cref="ReferenceSweep"/> may take linearised steps (on by default; off gives the chord
+    /// and Newton path alone, to compare with).
+    /// </summary>
+    public bool Linearised { get; set; } = true;
+
+    /// <summary>Swept values solved by linearised steps since this solver was made (for tests).</summary>
+    internal int LinearisedValues { get; private set; }
+
+    /// <summary>Swept values where linearised steps were tried and did not converge, so a fuller path solved them (for tests).</summary>
+    internal int LinearisedFallbacks { get; private set; }
+
+    /// <summary>Linearised steps taken since this solver was made, converged or not (for tests).</summary>
+    internal int LinearisedSteps { get; private set; }
 
     /// <summary>Compiles a circuit, or returns null with the first problem (as <see cref="Simulate.DcSweep"/> would report it).</summary>
     /// <param name="circuit">Circuit to compile.</param>
@@ -178,6 +227,25 @@ public sealed class VariedDcSolver
     }
 
     /// <summary>
+    /// The sweep of <see cref="Sweep(string, IReadOnlyList{double})"/>, kept with its linearisation (the Jacobian at each
+    /// solution, factored, and the structure of the equations) so that a warm <see cref="Sweep(string, IReadOnlyList{double}, DcSolutions)"/>
+    /// from it in which only resistances, amplifier offsets and bias currents changed can take linearised steps.
+    /// </summary>
+    /// <param name="sourceId">Independent source to sweep.</param>
+    /// <param name="values">Source values, V or A.</param>
+    public DcSolutions ReferenceSweep(string sourceId, IReadOnlyList<double> values)
+    {
+        var sweep = Sweep(sourceId, values);
+        if (sweep.Succeeded)
+        {
+            sweep.Linearisation = SweepLinearisation.Of(solver, sourceId, [.. values], sweep);
+            chordValid = false;
+        }
+
+        return sweep;
+    }
+
+    /// <summary>
     /// The same sweep with the present element values, each value started from the matching solution of
     /// <paramref name="reference"/> (a sweep of this circuit over the same values); falls back to the cold <see cref="Sweep(string, IReadOnlyList{double})"/> when
     /// a warm start does not converge, so it fails only where the cold sweep fails.
@@ -197,9 +265,25 @@ public sealed class VariedDcSolver
         context.Alpha = 0;
         context.SourceScale = 1;
         var solutions = new double[values.Count][];
+        var linearisation = Linearised && reference.Linearisation is { } l && l.Serves(sourceId, values) ? l : null;
+        if (linearisation is not null) PrepareLinearised(linearisation);
         for (int i = 0; i < values.Count; i++)
         {
             context.OverrideValue = values[i];
+            if (linearisation is not null)
+            {
+                nonlinear.OverrideSource = sourceId;
+                nonlinear.OverrideValue = values[i];
+                if (LinearisedSolve(linearisation, i))
+                {
+                    LinearisedValues++;
+                    solutions[i] = (double[])context.X.Clone();
+                    continue;
+                }
+
+                LinearisedFallbacks++;
+            }
+
             if (!WarmSolve(reference[i]))
             {
                 return Sweep(sourceId, values);
@@ -209,6 +293,226 @@ public sealed class VariedDcSolver
         }
 
         return new DcSolutions(compiled.Layout.Nodes, solutions, null);
+    }
+
+    /// <summary>
+    /// The Jacobian updates of this warm sweep: every resistor whose conductance differs from the reference (a fixed
+    /// change), and for every diode its junction conductance and for every amplifier its drive row's own coefficient (the
+    /// swing clamp) and its output conductance (the current limit), each changed by what a step loads minus what J0 holds.
+    /// Offsets and bias currents need none: they are constant terms, loaded with the amplifier.
+    /// </summary>
+    private void PrepareLinearised(SweepLinearisation linearisation)
+    {
+        var devices = compiled.Devices;
+        updates.Clear();
+        for (int i = 0; i < devices.Length; i++)
+        {
+            if (devices[i] is ResistorDevice resistor && resistor.Conductance != linearisation.Conductances[i])
+            {
+                updates.Add(new JacobianUpdate(2 * i, resistor.A, resistor.B, resistor.A, resistor.B, resistor.Conductance - linearisation.Conductances[i], null, -1));
+            }
+        }
+
+        for (int j = 0; j < linearisation.Diodes.Length; j++)
+        {
+            int i = linearisation.Diodes[j];
+            var diode = (DiodeDevice)devices[i];
+            updates.Add(new JacobianUpdate(2 * i, diode.Junction, diode.Cathode, diode.Junction, diode.Cathode, 0, diode, j));
+        }
+
+        for (int j = 0; j < linearisation.Amplifiers.Length; j++)
+        {
+            int i = linearisation.Amplifiers[j];
+            var nodes = ((AmplifierDevice)devices[i]).Nodes;
+            updates.Add(new JacobianUpdate(2 * i, nodes.Drive, -1, nodes.Drive, -1, 0, devices[i], j));
+            updates.Add(new JacobianUpdate((2 * i) + 1, nodes.Output, -1, nodes.Output, nodes.Stage, 0, devices[i], j));
+        }
+
+        int k = updates.Count;
+        if (responses.Length != k)
+        {
+            responses = new double[k][];
+            changes = new double[k];
+            active = new int[k];
+            update = new double[k * k];
+            updatePivots = new int[k];
+            updateRhs = new double[k];
+        }
+    }
+
+    /// <summary>
+    /// Linearised steps at swept value <paramref name="level"/>: from the reference solution, x ← x + Js⁻¹·r(x) with r the
+    /// full residual (linear devices from the sparse matrix with the changed conductances, non-linear devices loaded at x)
+    /// and Js the reference Jacobian J0 with the conductance updates U·D·Uᵀ added (Sherman–Morrison–Woodbury:
+    /// Js⁻¹·r = y − Z·w, y = J0⁻¹·r, Z = J0⁻¹·U, (I + D·Uᵀ·Z)·w = D·Uᵀ·y). With the diodes' conductances updated at each step
+    /// this is Newton's method for every diode and resistor, and a chord method for the amplifiers (exact while they stay
+    /// inside their swing). Converged, with the engine's test, when a step moves no unknown by more than its tolerance and
+    /// no junction was limited; the solution is then in the solver's X.
+    /// </summary>
+    private bool LinearisedSolve(SweepLinearisation linearisation, int level)
+    {
+        var x = nonlinear.X;
+        int n = x.Length;
+        Array.Copy(linearisation.Solutions[level], x, n);
+        var devices = compiled.Devices;
+        var nonlinearDevices = linearisation.NonlinearDevices;
+        foreach (int d in nonlinearDevices) devices[d].Prime(x);
+        int k = updates.Count;
+        Array.Clear(responses);
+
+        var system = nonlinear.System;
+        var matrix = system.Matrix;
+        var rhs = system.Rhs;
+        var linearRhs = linearisation.LinearRhs[level];
+        var rowStart = linearisation.LinearRowStart;
+        var columns = linearisation.LinearColumns;
+        var entries = linearisation.LinearEntries;
+        var nonlinearStart = linearisation.NonlinearRowStart;
+        var nonlinearColumns = linearisation.NonlinearColumns;
+        var jacobian = linearisation.Jacobians[level];
+        double relative = solver.Limits.RelativeTolerance;
+        double shunt = nonlinear.JunctionShunt;
+        for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
+        {
+            // The non-linear devices at x, in a dense system that holds only them.
+            LinearisedSteps++;
+            nonlinear.Limited = false;
+            foreach (int d in nonlinearDevices) devices[d].Load(nonlinear);
+
+            // r = b_L − A_L·x − Σ ΔG·u·(uᵀ·x) + (b_N − A_N·x); the non-linear entries are cleared as they are read.
+            var r = step;
+            for (int row = 0; row < n; row++)
+            {
+                double sum = linearRhs[row] + rhs[row];
+                for (int e = rowStart[row]; e < rowStart[row + 1]; e++) sum -= entries[e] * x[columns[e]];
+                int at = row * n;
+                for (int e = nonlinearStart[row]; e < nonlinearStart[row + 1]; e++)
+                {
+                    int c = nonlinearColumns[e];
+                    sum -= matrix[at + c] * x[c];
+                    matrix[at + c] = 0;
+                }
+
+                r[row] = sum;
+                rhs[row] = 0;
+            }
+
+            // The changes of this step: fixed for a resistor (whose current is part of the residual), read back for the
+            // non-linear devices; only the non-zero ones enter the small system.
+            var diodes = linearisation.DiodeConductances[level];
+            var slopes = linearisation.AmplifierDriveSlopes[level];
+            var outputs = linearisation.AmplifierOutputConductances[level];
+            int m = 0;
+            for (int j = 0; j < k; j++)
+            {
+                var u = updates[j];
+                double change = u.Device switch
+                {
+                    DiodeDevice diode => diode.LoadedConductance(shunt) - diodes[u.Index],
+                    AmplifierDevice amplifier when u.Key % 2 == 0 => amplifier.LoadedDriveSlope - slopes[u.Index],
+                    AmplifierDevice amplifier => amplifier.LoadedOutputConductance - outputs[u.Index],
+                    _ => u.Change,
+                };
+                if (u.Device is null)
+                {
+                    double current = change * (At(x, u.A) - At(x, u.B));
+                    if (u.A >= 0) r[u.A] -= current;
+                    if (u.B >= 0) r[u.B] += current;
+                }
+
+                if (change == 0) continue;
+                changes[m] = change;
+                active[m++] = j;
+            }
+
+            // y = J0⁻¹·r, then the Woodbury correction for the updates.
+            jacobian.Solve(r, solveScratch);
+            if (m > 0)
+            {
+                for (int j = 0; j < m; j++)
+                {
+                    var u = updates[active[j]];
+                    for (int c = 0; c < m; c++)
+                    {
+                        var z = responses[active[c]] ??= linearisation.Response(level, updates[active[c]].Key, updates[active[c]].A, updates[active[c]].B);
+                        update[(j * m) + c] = (j == c ? 1 : 0) + (changes[j] * (At(z, u.C) - At(z, u.D)));
+                    }
+
+                    updateRhs[j] = changes[j] * (At(r, u.C) - At(r, u.D));
+                }
+
+                if (!SmallFactor(update, updatePivots, m)) return false;
+                SmallSolve(update, updatePivots, updateRhs, m);
+                for (int j = 0; j < m; j++)
+                {
+                    double w = updateRhs[j];
+                    if (w == 0) continue;
+                    var z = responses[active[j]];
+                    for (int i = 0; i < n; i++) r[i] -= w * z[i];
+                }
+            }
+
+            bool converged = !nonlinear.Limited;
+            for (int i = 0; i < n; i++)
+            {
+                double next = x[i] + r[i];
+                if (!double.IsFinite(next)) return false;
+                double allowed = (relative * Math.Max(Math.Abs(next), Math.Abs(x[i]))) + tolerance[i];
+                if (Math.Abs(r[i]) > allowed) converged = false;
+                x[i] = next;
+            }
+
+            if (converged)
+            {
+                Array.Copy(x, solver.Context.X, n);
+                return true;
+            }
+        }
+
+        return false;
+    }
+
+    private static double At(double[] x, int index) => index >= 0 ? x[index] : 0;
+
+    /// <summary>LU with partial pivoting of a small dense k×k matrix in place; false when it is singular.</summary>
+    private static bool SmallFactor(double[] a, int[] pivots, int k)
+    {
+        for (int c = 0; c < k; c++)
+        {
+            int p = c;
+            for (int r = c + 1; r < k; r++) if (Math.Abs(a[(r * k) + c]) > Math.Abs(a[(p * k) + c])) p = r;
+            pivots[c] = p;
+            if (!(Math.Abs(a[(p * k) + c]) > 1e-12)) return false;
+            if (p != c)
+            {
+                for (int j = 0; j < k; j++) (a[(c * k) + j], a[(p * k) + j]) = (a[(p * k) + j], a[(c * k) + j]);
+            }
+
+            for (int r = c + 1; r < k; r++)
+            {
+                double f = a[(r * k) + c] /= a[(c * k) + c];
+                for (int j = c + 1; j < k; j++) a[(r * k) + j] -= f * a[(c * k) + j];
+            }
+        }
+
+        return true;
+    }
+
+    private static void SmallSolve(double[] a, int[] pivots, double[] b, int k)
+    {
+        for (int c = 0; c < k; c++)
+        {
+            int p = pivots[c];
+            if (p != c) (b[c], b[p]) = (b[p], b[c]);
+            for (int r = c + 1; r < k; r++) b[r] -= a[(r * k) + c] * b[c];
+        }
+
+        for (int r = k - 1; r >= 0; r--)
+        {
+            double sum = b[r];
+            for (int j = r + 1; j < k; j++) sum -= a[(r * k) + j] * b[j];
+            b[r] = sum / a[(r * k) + r];
+        }
     }
 
     private bool WarmSolve(double[] start)
@@ -293,3 +597,12 @@ public sealed class VariedDcSolver
         where T : Device =>
         devices.TryGetValue(id, out var device) && device is T typed ? typed : throw new KeyNotFoundException($"no {typeof(T).Name} '{id}' in this circuit");
 }
+
+/// <summary>
+/// One rank-one update u·vᵀ·change of the Jacobian in a linearised step: u = e_A − e_B, v = e_C − e_D (−1: no term), its
+/// response cached under <paramref name="Key"/>; <paramref name="Device"/> null for a resistor's fixed
+/// <paramref name="Change"/>, else the diode or amplifier whose loaded coefficient gives the change at each step
+/// (<paramref name="Index"/> its place among the linearisation's diodes or amplifiers; an even key is an amplifier's
+/// drive row, an odd one its output row).
+/// </summary>
+internal readonly record struct JacobianUpdate(int Key, int A, int B, int C, int D, double Change, Device? Device, int Index);

@@ -122,6 +122,12 @@ internal sealed class AmplifierDevice(string id, AmplifierParameters parameters,
     /// <summary>Name of the output node.</summary>
     public required string OutputName { get; init; }
 
+    /// <summary>The drive row's own coefficient (∂/∂x) the last <see cref="Load"/> stamped: it grows where the swing clamp acts.</summary>
+    internal double LoadedDriveSlope { get; private set; }
+
+    /// <summary>The output stage's conductance the last <see cref="Load"/> stamped: it falls where the current limit acts.</summary>
+    internal double LoadedOutputConductance { get; private set; }
+
     public override void Load(LoadContext context)
     {
         var p = Parameters;
@@ -137,6 +143,7 @@ internal sealed class AmplifierDevice(string id, AmplifierParameters parameters,
         Span<int> columns = [n.Drive, n.Plus, n.Minus, n.Memory];
         Span<double> slopes = [jx, jp, -jp, -tau * e.DriveMemorySlope];
         StampRow(context, n.Drive, residual, columns, slopes);
+        LoadedDriveSlope = jx;
 
         if (n.SecondPole >= 0)
         {
@@ -174,6 +181,7 @@ internal sealed class AmplifierDevice(string id, AmplifierParameters parameters,
         // Output stage: current i(y − vout) into the output node (its KCL row counts −i as leaving).
         Span<int> co = [n.Output, n.Stage];
         Span<double> so = [e.OutputConductance, -e.OutputConductance];
+        LoadedOutputConductance = e.OutputConductance;
         StampRow(context, n.Output, -e.OutputCurrent, co, so);
 
         // Bias currents flow from each input node into the amplifier.

@@ -18,6 +18,8 @@ internal sealed record CapacitorDefinition(string Id, string A, string B, double
 /// <summary>Compiled capacitor: charge q = C·(va − vb), current dq/dt from the integration formula.</summary>
 internal sealed class CapacitorDevice(string id, int a, int b, double capacitance, int state) : Device(id)
 {
+    public override bool IsLinearInDc => true;
+
     public override void Load(LoadContext context)
     {
         double v = context.V(a) - context.V(b);

@@ -25,6 +25,8 @@ internal sealed record ControlledVoltageSourceDefinition(string Id, string OutPl
 /// <summary>Compiled voltage-controlled voltage source.</summary>
 internal sealed class ControlledVoltageSourceDevice(string id, int outPlus, int outMinus, int controlPlus, int controlMinus, int branch, double gain) : Device(id)
 {
+    public override bool IsLinearInDc => true;
+
     public override void Load(LoadContext context)
     {
         context.Add(outPlus, branch, 1);

@@ -15,6 +15,8 @@ internal sealed record CurrentSourceDefinition(string Id, string From, string To
 /// <summary>Compiled independent current source.</summary>
 internal sealed class CurrentSourceDevice(string id, int from, int to, Waveform waveform) : Device(id)
 {
+    public override bool IsLinearInDc => true;
+
     public Waveform Waveform { get; } = waveform;
 
     public override void Load(LoadContext context)

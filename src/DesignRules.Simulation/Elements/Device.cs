@@ -12,6 +12,13 @@ internal abstract class Device(string id)
     /// <summary>Loads the linearised equations at the present guess.</summary>
     public abstract void Load(LoadContext context);
 
+    /// <summary>
+    /// True when the device's DC equations are linear in the unknowns, with a right-hand side that does not depend on them
+    /// (resistors, sources, and capacitors and inductors, which are open and short in DC): a solve that knows this may
+    /// load it once instead of at every iterate. False (the safe answer) for anything else.
+    /// </summary>
+    public virtual bool IsLinearInDc => false;
+
     /// <summary>Loads the small-signal complex equations at the operating point.</summary>
     public abstract void LoadAc(AcLoadContext context);
 

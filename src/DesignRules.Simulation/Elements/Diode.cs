@@ -89,6 +89,16 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
     public int Cathode => cathode;
 
     /// <summary>
+    /// dI/dV of the junction (with the junction shunt <paramref name="shunt"/>) at the voltage the last <see cref="Load"/>
+    /// linearised it at (the limited voltage, where it limited): the conductance that load stamped.
+    /// </summary>
+    internal double LoadedConductance(double shunt)
+    {
+        Current(lastVoltage, shunt, out double conductance);
+        return conductance;
+    }
+
+    /// <summary>
     /// Junction current at a solution vector, without the solver's junction shunt (which is a numerical aid, not a
     /// carrier flow): the current whose shot noise 2·q·|I| the noise analysis counts.
     /// </summary>

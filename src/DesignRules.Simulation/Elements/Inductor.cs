@@ -23,6 +23,8 @@ internal sealed record InductorDefinition(string Id, string A, string B, double 
 /// <summary>Compiled inductor: flux Φ = L·i, branch equation va − vb = dΦ/dt.</summary>
 internal sealed class InductorDevice(string id, int a, int b, int branch, double inductance, int state) : Device(id)
 {
+    public override bool IsLinearInDc => true;
+
     public override void Load(LoadContext context)
     {
         context.Add(a, branch, 1);

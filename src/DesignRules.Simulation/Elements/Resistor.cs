@@ -15,6 +15,8 @@ internal sealed record ResistorDefinition(string Id, string A, string B, double 
 /// <summary>Compiled resistor: conductance G = 1/R.</summary>
 internal sealed class ResistorDevice(string id, int a, int b, double conductance) : Device(id)
 {
+    public override bool IsLinearInDc => true;
+
     /// <summary>Unknown index of node A (−1 for the reference).</summary>
     public int A => a;
 

@@ -24,6 +24,8 @@ internal sealed record VoltageSourceDefinition(string Id, string Plus, string Mi
 /// <summary>Compiled independent voltage source.</summary>
 internal sealed class VoltageSourceDevice(string id, int plus, int minus, int branch, Waveform waveform) : Device(id)
 {
+    public override bool IsLinearInDc => true;
+
     public Waveform Waveform { get; } = waveform;
 
     public override void Load(LoadContext context)

@@ -68,7 +68,7 @@ internal sealed class DenseLu<T>
     /// <summary>The storage (row-major dense, or the band); overwritten by the factors. Copy it only between systems of one ordering.</summary>
     public T[] Matrix { get; private set; }
 
-    /// <summary>Right-hand side; overwritten by the solution in <see cref="Solve"/>.</summary>
+    /// <summary>Right-hand side; overwritten by the solution in <see cref="Solve()"/>.</summary>
     public T[] Rhs { get; }
 
     /// <summary>A system that only records where entries are added (to compute an ordering), storing nothing.</summary>
@@ -148,15 +148,22 @@ internal sealed class DenseLu<T>
     public int Factor() => ordering is null ? FactorDense() : FactorBand();
 
     /// <summary>Solves with the factors; the solution replaces <see cref="Rhs"/>.</summary>
-    public void Solve()
+    public void Solve() => Solve(Rhs, work);
+
+    /// <summary>
+    /// Solves with the factors for the right-hand side <paramref name="b"/>, which the solution replaces; reads the factors
+    /// only, so several threads may solve with one factored system at once, each with its own <paramref name="b"/> and
+    /// <paramref name="scratch"/> (of the system's order).
+    /// </summary>
+    public void Solve(T[] b, T[] scratch)
     {
         if (ordering is null)
         {
-            SolveDense();
+            SolveDense(b);
         }
         else
         {
-            SolveBand();
+            SolveBand(b, scratch);
         }
     }
 
@@ -214,11 +221,10 @@ internal sealed class DenseLu<T>
         return -1;
     }
 
-    private void SolveDense()
+    private void SolveDense(T[] b)
     {
         int n = Size;
         var a = Matrix;
-        var b = Rhs;
         for (int k = 0; k < n; k++)
         {
             int p = rowOfStep[k];
@@ -306,13 +312,12 @@ internal sealed class DenseLu<T>
         return -1;
     }
 
-    private void SolveBand()
+    private void SolveBand(T[] rhs, T[] b)
     {
         int n = Size, kl = lower, ku = upper, w = width;
         var a = Matrix;
-        var b = work;
         var order = ordering!;
-        for (int i = 0; i < n; i++) b[i] = Rhs[order.OldOf[i]];
+        for (int i = 0; i < n; i++) b[i] = rhs[order.OldOf[i]];
         for (int k = 0; k < n; k++)
         {
             int p = rowOfStep[k];
@@ -332,7 +337,7 @@ internal sealed class DenseLu<T>
             b[r] = sum / a[rowBase + r];
         }
 
-        for (int i = 0; i < n; i++) Rhs[order.OldOf[i]] = b[i];
+        for (int i = 0; i < n; i++) rhs[order.OldOf[i]] = b[i];
     }
 
     /// <summary>Re-lays the band for wider bandwidths, keeping the entries loaded so far.</summary>

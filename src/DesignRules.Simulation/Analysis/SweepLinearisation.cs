@@ -1,0 +1,230 @@
+namespace DesignRules.Simulation.Analysis;
+
+/// <summary>
+/// What a warm re-solve of a reference DC sweep needs when only linear element values changed (resistances) or only
+/// constant terms (amplifier input offsets and bias currents): at every swept value, the reference solution x0 and the
+/// Jacobian J0 there, factored once; the DC equations of the linear devices as a sparse matrix A_L and a right-hand side
+/// b_L per swept value; the structure of the non-linear devices' equations; and the element values the reference was
+/// solved with. Built once from a successful reference sweep and then only read, so every thread's solver of the same
+/// circuit can share it (the responses J0⁻¹·u of resistors, filled on first use, are pure functions of it).
+/// <para>With it, a changed circuit is solved at each swept value by iterations x ← x + Js⁻¹·r(x) from x0, where Js is
+/// J0 with the changed conductances added exactly (a low-rank update by the Sherman–Morrison–Woodbury identity, so no
+/// matrix is factored per sample) and r(x) the full non-linear residual, evaluated cheaply: A_L·x from the sparse matrix,
+/// and only the non-linear devices loaded. For a circuit whose non-linear devices stay where they were linearised, the
+/// first step is exact and the second confirms it.</para>
+/// </summary>
+internal sealed class SweepLinearisation
+{
+    private readonly double[]?[][] responses;
+
+    private SweepLinearisation(string sourceId, double[] values, int size)
+    {
+        SourceId = sourceId;
+        Values = values;
+        Size = size;
+        responses = new double[]?[values.Length][];
+    }
+
+    /// <summary>The swept source.</summary>
+    public string SourceId { get; }
+
+    /// <summary>The swept values.</summary>
+    public double[] Values { get; }
+
+    /// <summary>Order of the system.</summary>
+    public int Size { get; }
+
+    /// <summary>The reference solution at each swept value.</summary>
+    public required double[][] Solutions { get; init; }
+
+    /// <summary>The factored Jacobian at each reference solution (reference element values).</summary>
+    public required DenseLu<double>[] Jacobians { get; init; }
+
+    /// <summary>The linear devices' right-hand side at each swept value.</summary>
+    public required double[][] LinearRhs { get; init; }
+
+    /// <summary>The linear devices' matrix with the reference values, compressed by rows: row r holds entries RowStart[r] … RowStart[r + 1] − 1.</summary>
+    public required int[] LinearRowStart { get; init; }
+
+    public required int[] LinearColumns { get; init; }
+
+    public required double[] LinearEntries { get; init; }
+
+    /// <summary>Indices (into the compiled devices) of the devices that are not linear in DC.</summary>
+    public required int[] NonlinearDevices { get; init; }
+
+    /// <summary>Every position the non-linear devices load in DC, compressed by rows like the linear matrix.</summary>
+    public required int[] NonlinearRowStart { get; init; }
+
+    public required int[] NonlinearColumns { get; init; }
+
+    /// <summary>Per device: a resistor's conductance in the reference (NaN for other devices).</summary>
+    public required double[] Conductances { get; init; }
+
+    /// <summary>Per device: a diode's saturation current in the reference (NaN for other devices).</summary>
+    public required double[] SaturationCurrents { get; init; }
+
+    /// <summary>Indices of the diodes among the compiled devices.</summary>
+    public required int[] Diodes { get; init; }
+
+    /// <summary>Per swept value, per diode of <see cref="Diodes"/>: the junction conductance J0 holds for it.</summary>
+    public required double[][] DiodeConductances { get; init; }
+
+    /// <summary>Indices of the amplifiers among the compiled devices.</summary>
+    public required int[] Amplifiers { get; init; }
+
+    /// <summary>Per swept value, per amplifier of <see cref="Amplifiers"/>: its drive row's own coefficient in J0.</summary>
+    public required double[][] AmplifierDriveSlopes { get; init; }
+
+    /// <summary>Per swept value, per amplifier of <see cref="Amplifiers"/>: its output conductance in J0.</summary>
+    public required double[][] AmplifierOutputConductances { get; init; }
+
+    /// <summary>
+    /// Linearises a successful sweep of <paramref name="solver"/>'s circuit over <paramref name="values"/>, with the
+    /// element values the solver holds now (those the sweep was solved with); null when a Jacobian is singular there.
+    /// </summary>
+    public static SweepLinearisation? Of(NewtonSolver solver, string sourceId, double[] values, DcSolutions sweep)
+    {
+        var compiled = solver.Circuit;
+        var devices = compiled.Devices;
+        int n = compiled.Layout.Size;
+        var context = solver.Context;
+        context.Mode = AnalysisMode.Dc;
+        context.Alpha = 0;
+        context.SourceScale = 1;
+        context.FirstIteration = false;
+        context.OverrideSource = sourceId;
+
+        // The linear devices alone, in a dense system of their own: their matrix once, their right-hand side per value.
+        var linear = new LoadContext(n, compiled.Layout.StateCount)
+        {
+            Mode = AnalysisMode.Dc,
+            JunctionShunt = context.JunctionShunt,
+            Temperature = context.Temperature,
+            OverrideSource = sourceId,
+        };
+        var solutions = new double[values.Length][];
+        var jacobians = new DenseLu<double>[values.Length];
+        var linearRhs = new double[values.Length][];
+        var diodes = Enumerable.Range(0, devices.Length).Where(i => devices[i] is DiodeDevice).ToArray();
+        var diodeConductances = new double[values.Length][];
+        var amplifiers = Enumerable.Range(0, devices.Length).Where(i => devices[i] is AmplifierDevice).ToArray();
+        var amplifierSlopes = new double[values.Length][];
+        var amplifierConductances = new double[values.Length][];
+        for (int l = 0; l < values.Length; l++)
+        {
+            solutions[l] = sweep[l];
+            context.OverrideValue = values[l];
+            Array.Copy(sweep[l], context.X, n);
+            foreach (var device in devices) device.Prime(context.X);
+            context.System.Clear();
+            context.Limited = false;
+            foreach (var device in devices) device.Load(context);
+            var jacobian = new DenseLu<double>(n, compiled.Ordering);
+            jacobian.CopyMatrixFrom(context.System);
+            if (context.Limited || jacobian.Factor() >= 0) return null;
+            jacobians[l] = jacobian;
+            diodeConductances[l] = [.. diodes.Select(i => ((DiodeDevice)devices[i]).LoadedConductance(context.JunctionShunt))];
+            amplifierSlopes[l] = [.. amplifiers.Select(i => ((AmplifierDevice)devices[i]).LoadedDriveSlope)];
+            amplifierConductances[l] = [.. amplifiers.Select(i => ((AmplifierDevice)devices[i]).LoadedOutputConductance)];
+
+            linear.OverrideValue = values[l];
+            linear.System.Clear();
+            foreach (var device in devices) if (device.IsLinearInDc) device.Load(linear);
+            linearRhs[l] = (double[])linear.System.Rhs.Clone();
+        }
+
+        // The linear matrix does not depend on the swept value: the last one loaded serves.
+        var rowStart = new int[n + 1];
+        var columns = new List<int>();
+        var entries = new List<double>();
+        var matrix = linear.System.Matrix;
+        for (int r = 0; r < n; r++)
+        {
+            rowStart[r] = columns.Count;
+            for (int c = 0; c < n; c++)
+            {
+                double a = matrix[(r * n) + c];
+                if (a == 0) continue;
+                columns.Add(c);
+                entries.Add(a);
+            }
+        }
+
+        rowStart[n] = columns.Count;
+
+        // Where the non-linear devices load, recorded from their calls (not their values, which may be zero somewhere).
+        var nonlinear = Enumerable.Range(0, devices.Length).Where(i => !devices[i].IsLinearInDc).ToArray();
+        var pattern = new HashSet<(int, int)>();
+        var recorder = new LoadContext(n, compiled.Layout.StateCount, null, pattern)
+        {
+            Mode = AnalysisMode.Dc,
+            JunctionShunt = context.JunctionShunt,
+            Temperature = context.Temperature,
+        };
+        Array.Copy(sweep[0], recorder.X, n);
+        foreach (int i in nonlinear) devices[i].Prime(recorder.X);
+        foreach (int i in nonlinear) devices[i].Load(recorder);
+        var positions = pattern.OrderBy(p => p.Item1).ThenBy(p => p.Item2).ToArray();
+        var nonlinearRowStart = new int[n + 1];
+        foreach (var (r, _) in positions) nonlinearRowStart[r + 1]++;
+        for (int r = 0; r < n; r++) nonlinearRowStart[r + 1] += nonlinearRowStart[r];
+
+        var conductances = new double[devices.Length];
+        var saturation = new double[devices.Length];
+        for (int i = 0; i < devices.Length; i++)
+        {
+            conductances[i] = devices[i] is ResistorDevice resistor ? resistor.Conductance : double.NaN;
+            saturation[i] = devices[i] is DiodeDevice diode ? diode.SaturationCurrent : double.NaN;
+        }
+
+        return new SweepLinearisation(sourceId, values, n)
+        {
+            Solutions = solutions,
+            Jacobians = jacobians,
+            LinearRhs = linearRhs,
+            LinearRowStart = rowStart,
+            LinearColumns = [.. columns],
+            LinearEntries = [.. entries],
+            NonlinearDevices = nonlinear,
+            NonlinearRowStart = nonlinearRowStart,
+            NonlinearColumns = [.. positions.Select(p => p.Item2)],
+            Conductances = conductances,
+            SaturationCurrents = saturation,
+            Diodes = diodes,
+            DiodeConductances = diodeConductances,
+            Amplifiers = amplifiers,
+            AmplifierDriveSlopes = amplifierSlopes,
+            AmplifierOutputConductances = amplifierConductances,
+        };
+    }
+
+    /// <summary>True when this linearises a sweep of <paramref name="sourceId"/> over exactly <paramref name="values"/>.</summary>
+    public bool Serves(string sourceId, IReadOnlyList<double> values)
+    {
+        if (!string.Equals(sourceId, SourceId, StringComparison.Ordinal) || values.Count != Values.Length) return false;
+        for (int i = 0; i < Values.Length; i++)
+        {
+            if (values[i] != Values[i]) return false;
+        }
+
+        return true;
+    }
+
+    /// <summary>
+    /// J0⁻¹·u at swept value <paramref name="level"/>, u the vector with +1 at unknown <paramref name="a"/> and −1 at
+    /// unknown <paramref name="b"/> (−1: none), cached under <paramref name="key"/> (2·device index + 0 or 1): how the
+    /// reference solution answers a unit change of a device's conductance, or of one of its rows. Computed on first use,
+    /// by whichever thread asks first (the result is the same whoever computes it).
+    /// </summary>
+    public double[] Response(int level, int key, int a, int b)
+    {
+        var row = responses[level] ?? Interlocked.CompareExchange(ref responses[level], new double[]?[2 * Conductances.Length], null) ?? responses[level];
+        if (Volatile.Read(ref row[key]) is { } known) return known;
+        var u = new double[Size];
+        if (a >= 0) u[a] += 1;
+        if (b >= 0) u[b] -= 1;
+        Jacobians[level].Solve(u, new double[Size]);
+        return Interlocked.CompareExchange(ref row[key], u, null) ?? u;
+    }
+}

@@ -1,0 +1,79 @@
+using DesignRules.Figures.Tolerance;
+using DesignRules.Loading;
+using DesignRules.Model;
+using DesignRules.Rules.Evaluation;
+using DesignRules.Rules.Evaluation.Tolerance;
+
+namespace DesignRules.Rules.Tests.Tolerance;
+
+/// <summary>
+/// Monte Carlo samples of the example's compressor chain (a linear preamp, an absolute-value rectifier behind it, an
+/// averaging filter) solved with the engine's linearised steps give the stage transfers the full warm path gives, sample by
+/// sample, within the engine's convergence tolerance, and the same clipping marks.
+/// </summary>
+public sealed class LinearisedSampleTests
+{
+    private static WorstCaseAnalysis Stage(string stageId)
+    {
+        var root = Path.Combine(RuleFixture.RepositoryRoot(), "example-design");
+        var files = RepositoryFiles.Find([root], out _).Order(StringComparer.Ordinal).ToList();
+        var design = DesignLoader.LoadFiles(files).Designs.Single(d => d.Id.Value == "compressor-vibration-envelope");
+        var evaluation = new DesignEvaluation(design, RuleSet.Default);
+        return ToleranceAnalyses.WorstCase(evaluation, ToleranceAnalyses.Stages(evaluation).Single(s => s.StageId == stageId));
+    }
+
+    [Theory]
+    [InlineData("preamp")]
+    [InlineData("rectifier")]
+    [InlineData("smoothing")]
+    public void Linearised_samples_agree_with_the_full_path_within_the_solver_tolerance(string stageId)
+    {
+        var worstCase = Stage(stageId);
+        var circuit = worstCase.Circuit;
+        var variables = worstCase.Variables;
+        var settings = new MonteCarloSettings(200, 20261203, ToleranceDistribution.Normal);
+        for (int i = 0; i < settings.Samples; i++)
+        {
+            var random = SampleDraws.For(settings.Seed, stageId, i);
+            var v = variables.Nominal;
+            for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
+            for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
+            for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
+            for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+
+            circuit.Linearised = true;
+            var fast = circuit.Measure(v);
+            circuit.Linearised = false;
+            var full = circuit.Measure(v);
+            circuit.Linearised = true;
+            Assert.True(fast.Succeeded && full.Succeeded);
+            Assert.Equal(full.Clipped, fast.Clipped);
+            for (int l = 0; l < full.Outputs.Length; l++)
+            {
+                // Both are converged solutions of the same equations: each within 1e-6 relative plus 1 nV of the exact one
+                // (SolverLimits.RelativeTolerance, VoltageTolerance), so within twice that of each other (and a margin).
+                double allowed = (2e-6 * Math.Abs(full.Outputs[l])) + 1e-8;
+                Assert.True(Math.Abs(fast.Outputs[l] - full.Outputs[l]) <= allowed, $"sample {i}, level {l}: {fast.Outputs[l]} vs {full.Outputs[l]}");
+                Assert.True(Math.Abs(fast.Inputs[l] - full.Inputs[l]) <= (2e-6 * Math.Abs(full.Inputs[l])) + 1e-8, $"sample {i}, level {l} input");
+            }
+        }
+    }
+
+    [Fact]
+    public void The_preamp_yield_is_the_same_with_and_without_linearised_steps()
+    {
+        var worstCase = Stage("preamp");
+        var settings = new MonteCarloSettings(300, 20261202, ToleranceDistribution.Normal);
+        var fast = MonteCarloYield.Run(worstCase, settings, maxDegreeOfParallelism: 1);
+        worstCase.Circuit.Linearised = false;
+        var full = MonteCarloYield.Run(worstCase, settings, maxDegreeOfParallelism: 1);
+        worstCase.Circuit.Linearised = true;
+        for (int i = 0; i < fast.Samples; i++)
+        {
+            Assert.Equal(full.Errors[i], fast.Errors[i], 1e-7);
+            Assert.Equal(full.Gains[i], fast.Gains[i], 1e-6);
+        }
+
+        Assert.Equal(full.PassingWithin(0.03), fast.PassingWithin(0.03));
+    }
+}
