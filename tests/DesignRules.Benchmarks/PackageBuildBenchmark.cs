@@ -42,6 +42,7 @@ public class PackageBuildBenchmark
     private string root = null!;
     private string packages = null!;
     private int edit;
+    private readonly List<double> cpuSeconds = [];
 
     [ParamsSource(nameof(PackageChoices))]
     public string Package { get; set; } = "current";
@@ -67,6 +68,22 @@ public class PackageBuildBenchmark
 
         // Restore, and the first (full) check, or settle what an earlier case left changed: never timed.
         Build();
+    }
+
+    /// <summary>
+    /// The processor time the timed builds used (user + system, of the build and every process it waited for), printed
+    /// once per case: on a shared machine it moves far less with the other load than the wall time does.
+    /// </summary>
+    [GlobalCleanup]
+    public void Cleanup()
+    {
+        if (cpuSeconds.Count > 1)
+        {
+            // The first build is the case's setup build; the next is the warm-up.
+            var timed = cpuSeconds.Skip(2).Order().ToList();
+            Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"// build processor time [{Package}, {Repository}]: median {timed[timed.Count / 2]:0.00} s of {timed.Count} ({string.Join(", ", timed.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})"));
+        }
     }
 
     [IterationSetup(Target = nameof(OneDesignChanged))]
@@ -98,6 +115,7 @@ public class PackageBuildBenchmark
         start.Environment["NUGET_PACKAGES"] = packages;
         start.Environment["DOTNET_CLI_TELEMETRY_OPTOUT"] = "1";
         start.Environment["DOTNET_NOLOGO"] = "1";
+        var before = ChildProcessorSeconds();
         using var process = Process.Start(start)!;
         var output = process.StandardOutput.ReadToEndAsync();
         var error = process.StandardError.ReadToEndAsync();
@@ -112,8 +130,24 @@ public class PackageBuildBenchmark
             throw new InvalidOperationException($"dotnet build in {root} failed:\n{output.Result}\n{error.Result}");
         }
 
+        cpuSeconds.Add(ChildProcessorSeconds() - before);
         return process.ExitCode;
     }
+
+    /// <summary>User plus system time of every child process this process has waited for (getrusage, RUSAGE_CHILDREN).</summary>
+    private static double ChildProcessorSeconds()
+    {
+        if (!OperatingSystem.IsLinux() && !OperatingSystem.IsMacOS())
+        {
+            return double.NaN;
+        }
+
+        var usage = new long[18];
+        return GetResourceUsage(-1, usage) == 0 ? usage[0] + (usage[1] / 1e6) + usage[2] + (usage[3] / 1e6) : double.NaN;
+    }
+
+    [System.Runtime.InteropServices.DllImport("libc", EntryPoint = "getrusage")]
+    private static extern int GetResourceUsage(int who, long[] usage);
 
     private void WriteRepository(string folder, string feed, string version)
     {
