@@ -35,7 +35,7 @@ public class PackageBuildBenchmark
     {
         public ProcessConfig() => AddJob(Job.Default
             .WithStrategy(RunStrategy.Monitoring).WithLaunchCount(1).WithWarmupCount(1).WithIterationCount(5).WithInvocationCount(1)
-            .WithToolchain(InProcessEmitToolchain.Instance));
+            .WithToolchain(new InProcessEmitToolchain(TimeSpan.FromHours(3), logOutput: true)));
     }
 
     private static readonly TimeSpan Limit = TimeSpan.FromMinutes(30);
