@@ -19,12 +19,9 @@ internal static class ResultCodec
     /// </summary>
     public const int FormatVersion = 5;
 
-    private static readonly JsonSerializerOptions Options = new()
-    {
-        NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
-        IncludeFields = false,
-        WriteIndented = false,
-    };
+    // Source-generated (de)serializers: the build's MSBuild process reads entries cold on every build, and the reflection
+    // serializer would first emit and JIT its accessors there; the JSON written is the same.
+    private static readonly ResultCodecJson Json = ResultCodecJson.Default;
 
     public static byte[] Encode(DesignResult result)
     {
@@ -36,13 +33,13 @@ internal static class ResultCodec
             s.Plots.ToList(),
             s.Yields.ToList(),
             s.Requirements.ToList());
-        return JsonSerializer.SerializeToUtf8Bytes(stored, Options);
+        return JsonSerializer.SerializeToUtf8Bytes(stored, Json.StoredResult);
     }
 
     /// <summary>The result stored in <paramref name="bytes"/>, for <paramref name="design"/> as loaded now.</summary>
     public static DesignResult Decode(ReadOnlySpan<byte> bytes, Design design)
     {
-        var stored = JsonSerializer.Deserialize<StoredResult>(bytes, Options) ?? throw new JsonException("empty entry");
+        var stored = JsonSerializer.Deserialize(bytes, Json.StoredResult) ?? throw new JsonException("empty entry");
         var summary = new DesignSummary(
             design,
             stored.DesignFigures.Select(FigureCodec.FromStored).ToList(),
@@ -57,7 +54,7 @@ internal static class ResultCodec
 
     /// <summary>The findings in the codec's form, for keys that depend on them (a design's page).</summary>
     public static byte[] EncodeFindings(IEnumerable<Finding> findings) =>
-        JsonSerializer.SerializeToUtf8Bytes(findings.Select(FindingCodec.ToStored).ToList(), Options);
+        JsonSerializer.SerializeToUtf8Bytes(findings.Select(FindingCodec.ToStored).ToList(), Json.ListStoredFinding);
 
     internal sealed record StoredResult(
         List<StoredFinding> Findings,
@@ -121,3 +118,9 @@ internal static class ResultCodec
             };
     }
 }
+
+/// <summary>The results cache's JSON, generated at compile time (no reflection, nothing emitted at run time).</summary>
+[JsonSourceGenerationOptions(NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals, IncludeFields = false, WriteIndented = false)]
+[JsonSerializable(typeof(ResultCodec.StoredResult))]
+[JsonSerializable(typeof(List<ResultCodec.StoredFinding>))]
+internal sealed partial class ResultCodecJson : JsonSerializerContext;
