@@ -202,7 +202,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         var outcome = DesignRun.Execute(request, new BuildProgress(Log, request.Root));
         // Where a build's time goes (detailed verbosity): the run, and how much of it the process spent compiling code
         // just in time, which the package's ReadyToRun images are there to avoid.
-        Log.LogMessage(MessageImportance.Low, "DesignRules: " + cost.Stop());
+        Log.LogMessage(MessageImportance.Low, "DesignRules: " + cost.Stop(outcome.Timings));
         if (outcome.Fault is not null)
         {
             LogFault(outcome.Fault, outcome.FaultDetail);
@@ -264,8 +264,8 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         public static TaskCost Start() =>
             new(System.Diagnostics.Stopwatch.GetTimestamp(), System.Runtime.JitInfo.GetCompilationTime(), System.Runtime.JitInfo.GetCompiledMethodCount());
 
-        public string Stop() => string.Create(CultureInfo.InvariantCulture,
-            $"run took {System.Diagnostics.Stopwatch.GetElapsedTime(started).TotalSeconds:0.00} s; meanwhile this process compiled {System.Runtime.JitInfo.GetCompiledMethodCount() - jitMethods} method(s) just in time in {(System.Runtime.JitInfo.GetCompilationTime() - jitTime).TotalSeconds:0.00} s.");
+        public string Stop(RunTimings phases) => string.Create(CultureInfo.InvariantCulture,
+            $"run took {System.Diagnostics.Stopwatch.GetElapsedTime(started).TotalSeconds:0.00} s ({phases}); meanwhile this process compiled {System.Runtime.JitInfo.GetCompiledMethodCount() - jitMethods} method(s) just in time in {(System.Runtime.JitInfo.GetCompilationTime() - jitTime).TotalSeconds:0.00} s.");
     }
 
     /// <summary>Progress as build messages: one per design at normal verbosity, and a long run's "still checking" at every verbosity.</summary>
