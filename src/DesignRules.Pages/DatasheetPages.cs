@@ -144,7 +144,7 @@ public static class DatasheetPages
         try
         {
             var removed = output.Commit(diagnostics);
-            options.Reuse?.Save();
+            options.Reuse?.Save(output);
             return new PageResult(output.Written.ToList(), removed, diagnostics) { Kept = output.Kept.ToList() };
         }
         catch (PagesFolderException ex)
