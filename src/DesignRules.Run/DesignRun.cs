@@ -103,6 +103,7 @@ public static class DesignRun
             {
                 HelpUriBase = request.HelpUriBase,
                 Reuse = cache?.PageReuse(report, request),
+                MaxParallelDesigns = request.MaxParallelDesigns,
             });
             if (!pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
             {
