@@ -198,7 +198,11 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
             return false;
         }
 
+        var cost = TaskCost.Start();
         var outcome = DesignRun.Execute(request, new BuildProgress(Log, request.Root));
+        // Where a build's time goes (detailed verbosity): the run, and how much of it the process spent compiling code
+        // just in time, which the package's ReadyToRun images are there to avoid.
+        Log.LogMessage(MessageImportance.Low, "DesignRules: " + cost.Stop(outcome.Timings));
         if (outcome.Fault is not null)
         {
             LogFault(outcome.Fault, outcome.FaultDetail);
@@ -246,6 +250,22 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
         // A check without errors is stamped together with what it showed, so that a skipped build replays its warnings.
         WriteStamp(outcome.Summary, outcome.Report.Findings);
         return true;
+    }
+
+    /// <summary>The wall time of a run and the just-in-time compilation the process did meanwhile (every thread).</summary>
+    private readonly struct TaskCost
+    {
+        private readonly long started;
+        private readonly TimeSpan jitTime;
+        private readonly long jitMethods;
+
+        private TaskCost(long started, TimeSpan jitTime, long jitMethods) => (this.started, this.jitTime, this.jitMethods) = (started, jitTime, jitMethods);
+
+        public static TaskCost Start() =>
+            new(System.Diagnostics.Stopwatch.GetTimestamp(), System.Runtime.JitInfo.GetCompilationTime(), System.Runtime.JitInfo.GetCompiledMethodCount());
+
+        public string Stop(RunTimings phases) => string.Create(CultureInfo.InvariantCulture,
+            $"run took {System.Diagnostics.Stopwatch.GetElapsedTime(started).TotalSeconds:0.00} s ({phases}); meanwhile this process compiled {System.Runtime.JitInfo.GetCompiledMethodCount() - jitMethods} method(s) just in time in {(System.Runtime.JitInfo.GetCompilationTime() - jitTime).TotalSeconds:0.00} s.");
     }
 
     /// <summary>Progress as build messages: one per design at normal verbosity, and a long run's "still checking" at every verbosity.</summary>

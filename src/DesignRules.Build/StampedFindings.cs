@@ -1,4 +1,5 @@
 using System.Text.Json;
+using System.Text.Json.Serialization;
 using DesignRules.Diagnostics;
 using DesignRules.Rules;
 
@@ -16,12 +17,12 @@ internal static class StampedFindings
             f.RuleId, f.Title, f.Severity.ToString(), f.Message, f.Span.File, f.Span.Line, f.Span.Column, f.Span.EndLine,
             f.Span.EndColumn, f.HelpPage, f.Waiver)).ToList();
         var temporary = file + ".partial";
-        File.WriteAllText(temporary, JsonSerializer.Serialize(records));
+        File.WriteAllText(temporary, JsonSerializer.Serialize(records, StampedFindingsJson.Default.ListStored));
         File.Move(temporary, file, overwrite: true);
     }
 
     public static IEnumerable<Finding> Read(string file) =>
-        (JsonSerializer.Deserialize<List<Stored>>(File.ReadAllText(file)) ?? []).Select(s => new Finding(
+        (JsonSerializer.Deserialize(File.ReadAllText(file), StampedFindingsJson.Default.ListStored) ?? []).Select(s => new Finding(
             s.RuleId, s.Title, Enum.Parse<Severity>(s.Severity), s.Message,
             new SourceSpan(s.File, s.Line, s.Column, s.EndLine, s.EndColumn), s.HelpPage, null, null, s.Waiver, []));
 
@@ -29,3 +30,10 @@ internal static class StampedFindings
         string RuleId, string Title, string Severity, string Message, string File, int Line, int Column, int EndLine,
         int EndColumn, string HelpPage, string? Waiver);
 }
+
+/// <summary>
+/// The stamp's JSON, generated at compile time: a no-change build that replays warnings reads it in MSBuild's process,
+/// where the reflection serializer would first emit and JIT its accessors.
+/// </summary>
+[JsonSerializable(typeof(List<StampedFindings.Stored>))]
+internal sealed partial class StampedFindingsJson : JsonSerializerContext;

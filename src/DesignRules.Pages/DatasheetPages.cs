@@ -38,11 +38,11 @@ public static class DatasheetPages
 
         var output = new OutputFolder(options.OutputFolder);
         var pages = new List<(DesignSummary Summary, string Page)>();
+        var designs = new List<(DesignSummary Summary, string Name, string Page, List<string> Files, bool Keep)>();
         foreach (var summary in report.Designs.OrderBy(d => d.Design.Id.Value, StringComparer.Ordinal))
         {
             var name = OutputFolder.SafeName(summary.Design.Id.Value);
             var page = $"{name}.md";
-            string? PlotPath(string stage, string kind) => $"plots/{name}/{OutputFolder.SafeName(stage)}-{kind}.svg";
             var files = new List<string> { page };
             foreach (var plots in summary.Plots)
             {
@@ -59,7 +59,25 @@ public static class DatasheetPages
             }
 
             // A design whose page depends on nothing that changed keeps its page and plots as they are: no rendering.
-            if (options.Reuse?.CanKeep(summary.Design.Id.Value, files, output) == true)
+            designs.Add((summary, name, page, files, options.Reuse?.CanKeep(summary.Design.Id.Value, files, output) == true));
+        }
+
+        // Each design's page and plots are rendered on their own (a full check of a large repository renders hundreds, and
+        // one at a time they would keep a second core idle); they are written below in the designs' order, so the folder,
+        // the manifest and the diagnostics come out the same whatever order the renderings finished in.
+        var rendered = new (Dictionary<string, string>? Contents, List<Diagnostic> Diagnostics)[designs.Count];
+        Parallel.For(0, designs.Count, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
+        {
+            if (!designs[i].Keep)
+            {
+                rendered[i] = RenderDesign(report, designs[i].Summary, designs[i].Name, designs[i].Page, templates, options);
+            }
+        });
+
+        for (var i = 0; i < designs.Count; i++)
+        {
+            var (summary, _, page, files, keep) = designs[i];
+            if (keep)
             {
                 foreach (var file in files)
                 {
@@ -70,46 +88,10 @@ public static class DatasheetPages
                 continue;
             }
 
-            var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath, id => HelpLink(id, options));
-            var text = Render(templates, "design", "design", model, diagnostics);
-            if (text is null)
+            diagnostics.AddRange(rendered[i].Diagnostics);
+            if (rendered[i].Contents is not { } contents)
             {
                 continue;
-            }
-
-            var contents = new Dictionary<string, string>(StringComparer.Ordinal) { [page] = text };
-            foreach (var plots in summary.Plots)
-            {
-                var stage = OutputFolder.SafeName(plots.StageId);
-                if (plots.Transient is not null)
-                {
-                    contents[$"plots/{name}/{stage}-transient.svg"] = PlotRenderer.Transient(plots.StageId, plots.Transient);
-                }
-
-                if (plots.Bode is not null)
-                {
-                    contents[$"plots/{name}/{stage}-response.svg"] = PlotRenderer.Response(plots.StageId, plots.Bode);
-                }
-
-                foreach (var loop in plots.LoopGains)
-                {
-                    contents[LoopGainFile(name, stage, loop)] = StabilityPlotRenderer.LoopGain(plots.StageId, loop);
-                }
-
-                if (plots.Step is not null)
-                {
-                    contents[StepFile(name, stage)] = StabilityPlotRenderer.Step(plots.StageId, plots.Step);
-                }
-
-                if (plots.Distribution is not null)
-                {
-                    contents[$"plots/{name}/{stage}-monte-carlo.svg"] = PlotRenderer.Histogram(plots.StageId, plots.Distribution);
-                }
-
-                if (plots.Noise is not null)
-                {
-                    contents[$"plots/{name}/{stage}-noise.svg"] = PlotRenderer.NoiseDensity(plots.StageId, plots.Noise);
-                }
             }
 
             foreach (var (file, content) in contents)
@@ -144,7 +126,7 @@ public static class DatasheetPages
         try
         {
             var removed = output.Commit(diagnostics);
-            options.Reuse?.Save();
+            options.Reuse?.Save(output);
             return new PageResult(output.Written.ToList(), removed, diagnostics) { Kept = output.Kept.ToList() };
         }
         catch (PagesFolderException ex)
@@ -159,6 +141,57 @@ public static class DatasheetPages
         }
 
         return new PageResult([], [], diagnostics);
+    }
+
+    /// <summary>One design's page and plot files, by name; null contents when its template failed (said in the diagnostics).</summary>
+    private static (Dictionary<string, string>? Contents, List<Diagnostic> Diagnostics) RenderDesign(
+        CheckReport report, DesignSummary summary, string name, string page, TemplateSet templates, PageOptions options)
+    {
+        var diagnostics = new List<Diagnostic>();
+        string? PlotPath(string stage, string kind) => $"plots/{name}/{OutputFolder.SafeName(stage)}-{kind}.svg";
+        var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath, id => HelpLink(id, options));
+        var text = Render(templates, "design", "design", model, diagnostics);
+        if (text is null)
+        {
+            return (null, diagnostics);
+        }
+
+        var contents = new Dictionary<string, string>(StringComparer.Ordinal) { [page] = text };
+        foreach (var plots in summary.Plots)
+        {
+            var stage = OutputFolder.SafeName(plots.StageId);
+            if (plots.Transient is not null)
+            {
+                contents[$"plots/{name}/{stage}-transient.svg"] = PlotRenderer.Transient(plots.StageId, plots.Transient);
+            }
+
+            if (plots.Bode is not null)
+            {
+                contents[$"plots/{name}/{stage}-response.svg"] = PlotRenderer.Response(plots.StageId, plots.Bode);
+            }
+
+            foreach (var loop in plots.LoopGains)
+            {
+                contents[LoopGainFile(name, stage, loop)] = StabilityPlotRenderer.LoopGain(plots.StageId, loop);
+            }
+
+            if (plots.Step is not null)
+            {
+                contents[StepFile(name, stage)] = StabilityPlotRenderer.Step(plots.StageId, plots.Step);
+            }
+
+            if (plots.Distribution is not null)
+            {
+                contents[$"plots/{name}/{stage}-monte-carlo.svg"] = PlotRenderer.Histogram(plots.StageId, plots.Distribution);
+            }
+
+            if (plots.Noise is not null)
+            {
+                contents[$"plots/{name}/{stage}-noise.svg"] = PlotRenderer.NoiseDensity(plots.StageId, plots.Noise);
+            }
+        }
+
+        return (contents, diagnostics);
     }
 
     /// <summary>A rule's help link as a page in the pages folder's root writes it.</summary>

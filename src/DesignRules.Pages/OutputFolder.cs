@@ -26,6 +26,11 @@ internal sealed class OutputFolder
     private readonly SortedSet<string> kept = new(StringComparer.Ordinal);
     private HashSet<string>? listedBefore;
 
+    // Folders below the root already seen to be real folders, not links: a design's plots share one folder, and checking
+    // it again for each of its files cost a directory lookup per file. Emptied when the commit starts, so that the
+    // commit checks every folder once more under the lock.
+    private readonly HashSet<string> linkFreeFolders = new(StringComparer.Ordinal);
+
     public OutputFolder(string folder, TimeSpan? lockWait = null)
     {
         root = Path.TrimEndingDirectorySeparator(Path.GetFullPath(folder));
@@ -65,6 +70,47 @@ internal sealed class OutputFolder
         {
             return null;
         }
+    }
+
+    /// <summary>
+    /// The size and last-write time of a file an earlier run wrote (listed, a plain file reached through no link), as
+    /// "size:ticks"; null when it is missing, unlisted, a link, or cannot be read. A file whose stamp is the one recorded
+    /// when it was written need not be read to be known unchanged.
+    /// </summary>
+    public string? StampOfListedFile(string relative)
+    {
+        try
+        {
+            listedBefore ??= Directory.Exists(root) ? ReadManifest() : [];
+            var full = Inside(relative);
+            return full is null || !listedBefore.Contains(relative) || LinkOnTheWay(relative) is not null ? null : StampOf(full);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            return null;
+        }
+    }
+
+    /// <summary>The stamp of a file this run has just written (for the next run's <see cref="StampOfListedFile"/>); null when it is gone.</summary>
+    public string? StampOfWrittenFile(string relative)
+    {
+        try
+        {
+            var full = Inside(relative);
+            return full is null ? null : StampOf(full);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            return null;
+        }
+    }
+
+    private static string? StampOf(string full)
+    {
+        var info = new FileInfo(full);
+        return info.Exists && info.LinkTarget is null
+            ? string.Create(CultureInfo.InvariantCulture, $"{info.Length}:{info.LastWriteTimeUtc.Ticks}")
+            : null;
     }
 
     /// <summary>Turns an id into a file-name part: lower-case letters, digits and hyphens only.</summary>
@@ -114,6 +160,7 @@ internal sealed class OutputFolder
         }
 
         using var held = Lock();
+        linkFreeFolders.Clear();
         var listed = ReadManifest();
         foreach (var relative in pending.Keys)
         {
@@ -174,9 +221,16 @@ internal sealed class OutputFolder
     private string? LinkOnTheWay(string relative)
     {
         var path = root;
-        foreach (var part in relative.Split('/', StringSplitOptions.RemoveEmptyEntries))
+        var parts = relative.Split('/', StringSplitOptions.RemoveEmptyEntries);
+        for (var i = 0; i < parts.Length; i++)
         {
-            path = Path.Combine(path, part);
+            path = Path.Combine(path, parts[i]);
+            var folder = i < parts.Length - 1;
+            if (folder && linkFreeFolders.Contains(path))
+            {
+                continue;
+            }
+
             FileSystemInfo info = Directory.Exists(path) ? new DirectoryInfo(path) : new FileInfo(path);
             if (info.LinkTarget is not null)
             {
@@ -186,6 +240,11 @@ internal sealed class OutputFolder
             if (!info.Exists)
             {
                 return null;
+            }
+
+            if (folder && info is DirectoryInfo)
+            {
+                linkFreeFolders.Add(path);
             }
         }
 

@@ -14,6 +14,9 @@ public sealed record PageOptions(string OutputFolder, string? TemplateFolder = n
 
     /// <summary>Keys that let unchanged designs keep their pages and plots instead of rendering them again; null renders every page.</summary>
     public PageReuse? Reuse { get; init; }
+
+    /// <summary>How many designs' pages are rendered at once; null for one per core (the files are written in one order either way).</summary>
+    public int? MaxParallelDesigns { get; init; }
 }
 
 /// <summary>What a page run did.</summary>

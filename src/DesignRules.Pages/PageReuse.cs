@@ -1,6 +1,7 @@
 using System.Security.Cryptography;
 using System.Text;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 
 namespace DesignRules.Pages;
 
@@ -34,15 +35,27 @@ public sealed class PageReuse
             return false;
         }
 
+        // A file whose size and last-write time are those recorded when it was written is taken as unchanged without
+        // reading it (a page of a large repository is hundreds of plot files); any other is read and compared by content,
+        // and keeps its new stamp when its content is still the one written.
+        var stamps = new Dictionary<string, string>(StringComparer.Ordinal);
         foreach (var (relative, hash) in page.Files)
         {
-            if (output.ContentHashOfListedFile(relative) != hash)
+            var stamp = output.StampOfListedFile(relative);
+            if (stamp is null)
             {
                 return false;
             }
+
+            if (page.Stamps?.GetValueOrDefault(relative) != stamp && output.ContentHashOfListedFile(relative) != hash)
+            {
+                return false;
+            }
+
+            stamps[relative] = stamp;
         }
 
-        next[designId] = page;
+        next[designId] = page with { Stamps = stamps };
         return true;
     }
 
@@ -56,13 +69,28 @@ public sealed class PageReuse
     }
 
     /// <summary>Writes what this run kept and rendered, once the folder is committed; designs no longer checked are dropped.</summary>
-    internal void Save()
+    internal void Save(OutputFolder output)
     {
         try
         {
+            foreach (var (id, page) in next.Where(p => p.Value.Stamps is null).ToList())
+            {
+                // The stamps of the files just written; a file without one is read and compared by content next time.
+                var stamps = new Dictionary<string, string>(StringComparer.Ordinal);
+                foreach (var relative in page.Files.Keys)
+                {
+                    if (output.StampOfWrittenFile(relative) is { } stamp)
+                    {
+                        stamps[relative] = stamp;
+                    }
+                }
+
+                next[id] = page with { Stamps = stamps };
+            }
+
             Directory.CreateDirectory(Path.GetDirectoryName(Path.GetFullPath(stateFile))!);
             var temporary = stateFile + "." + Guid.NewGuid().ToString("N") + ".partial";
-            File.WriteAllBytes(temporary, JsonSerializer.SerializeToUtf8Bytes(next));
+            File.WriteAllBytes(temporary, JsonSerializer.SerializeToUtf8Bytes(next, PageReuseJson.Default.DictionaryStringStoredPage));
             File.Move(temporary, stateFile, overwrite: true);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
@@ -93,7 +121,7 @@ public sealed class PageReuse
         try
         {
             return File.Exists(file)
-                ? JsonSerializer.Deserialize<Dictionary<string, StoredPage>>(File.ReadAllBytes(file)) ?? new(StringComparer.Ordinal)
+                ? JsonSerializer.Deserialize(File.ReadAllBytes(file), PageReuseJson.Default.DictionaryStringStoredPage) ?? new(StringComparer.Ordinal)
                 : new(StringComparer.Ordinal);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or JsonException or NotSupportedException)
@@ -102,5 +130,10 @@ public sealed class PageReuse
         }
     }
 
-    internal sealed record StoredPage(string Key, Dictionary<string, string> Files);
+    /// <summary>A design's page key, its files' content hashes, and their size and last-write time when written or last vouched for.</summary>
+    internal sealed record StoredPage(string Key, Dictionary<string, string> Files, Dictionary<string, string>? Stamps = null);
 }
+
+/// <summary>The page state's JSON, generated at compile time: the build's process reads it on every build, cold.</summary>
+[JsonSerializable(typeof(Dictionary<string, PageReuse.StoredPage>))]
+internal sealed partial class PageReuseJson : JsonSerializerContext;

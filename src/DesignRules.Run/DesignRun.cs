@@ -29,6 +29,7 @@ public static class DesignRun
 
     private static RunOutcome ExecuteOrThrow(RunRequest request, IRunProgress? progress)
     {
+        var clock = new RunClock();
         var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride);
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
@@ -37,14 +38,22 @@ public static class DesignRun
             MaxParallelDesigns = request.MaxParallelDesigns,
         };
 
+        clock.Lap(RunPhase.Inputs);
         CheckReport check;
         using (var watch = progress is null ? null : new LongRunWatch(progress))
         {
-            check = DesignCheck.Run(request.Files, options with { DesignsLoaded = watch is null ? null : watch.DesignsLoaded },
-                watch is null ? null : watch.DesignChecked);
+            check = DesignCheck.Run(request.Files, options with
+            {
+                DesignsLoaded = count =>
+                {
+                    clock.Lap(RunPhase.Loading);
+                    watch?.DesignsLoaded(count);
+                },
+            }, watch is null ? null : watch.DesignChecked);
         }
 
         cache?.RemoveEntriesOfMissingDesigns();
+        clock.Lap(RunPhase.Designs);
         var report = request.Levels.Apply(check);
         var shown = request.Warnings.Apply(report);
         var settings = new ReportSettings(request.ReportRoot, request.HelpUriBase, RepositoryConventions.ToolVersion) { Baseline = request.Baseline };
@@ -62,6 +71,7 @@ public static class DesignRun
                 Report = report,
                 Shown = shown,
                 FromCache = cache?.Hits ?? 0,
+                Timings = clock.Stop(RunPhase.Reports),
                 Problems = [new RequestProblem(null, $"a report file cannot be written ({Diagnostics.DiagnosticText.Escape(ex.Message.TrimEnd('.'))}).")],
             };
         }
@@ -82,6 +92,7 @@ public static class DesignRun
             baselineLine = RunText.Baseline(comparison, request.NewOnly ? passed : null);
         }
 
+        clock.Lap(RunPhase.Reports);
         PageResult? pages = null;
         string? pagesLine = null;
         if (request.PagesFolder is not null)
@@ -92,6 +103,7 @@ public static class DesignRun
             {
                 HelpUriBase = request.HelpUriBase,
                 Reuse = cache?.PageReuse(report, request),
+                MaxParallelDesigns = request.MaxParallelDesigns,
             });
             if (!pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
             {
@@ -110,6 +122,7 @@ public static class DesignRun
             PagesLine = pagesLine,
             BaselineLine = baselineLine,
             FromCache = cache?.Hits ?? 0,
+            Timings = clock.Stop(RunPhase.Pages),
         };
     }
 

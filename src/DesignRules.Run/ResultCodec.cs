@@ -15,16 +15,14 @@ internal static class ResultCodec
     /// <summary>
     /// The version of this encoding, part of every entry's key. 3: a figure keeps its temperature; 4: a finding keeps its fix
     /// hint; 5: a stage's plots keep their loop-gain and step plots (an entry of 4 would replay a page without them), and a
-    /// plot its noise densities, a stage its noise figures; 6: a fix hint keeps its alternatives.
+    /// plot its noise densities, a stage its noise figures; 6: a fix hint keeps its alternatives; 7: a plot's numbers as
+    /// bytes (<see cref="DoublesAsBytes"/>).
     /// </summary>
-    public const int FormatVersion = 6;
+    public const int FormatVersion = 7;
 
-    private static readonly JsonSerializerOptions Options = new()
-    {
-        NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
-        IncludeFields = false,
-        WriteIndented = false,
-    };
+    // Source-generated (de)serializers: the build's MSBuild process reads entries cold on every build, and the reflection
+    // serializer would first emit and JIT its accessors there; the JSON written is the same.
+    private static readonly ResultCodecJson Json = ResultCodecJson.Default;
 
     public static byte[] Encode(DesignResult result)
     {
@@ -36,13 +34,13 @@ internal static class ResultCodec
             s.Plots.ToList(),
             s.Yields.ToList(),
             s.Requirements.ToList());
-        return JsonSerializer.SerializeToUtf8Bytes(stored, Options);
+        return JsonSerializer.SerializeToUtf8Bytes(stored, Json.StoredResult);
     }
 
     /// <summary>The result stored in <paramref name="bytes"/>, for <paramref name="design"/> as loaded now.</summary>
     public static DesignResult Decode(ReadOnlySpan<byte> bytes, Design design)
     {
-        var stored = JsonSerializer.Deserialize<StoredResult>(bytes, Options) ?? throw new JsonException("empty entry");
+        var stored = JsonSerializer.Deserialize(bytes, Json.StoredResult) ?? throw new JsonException("empty entry");
         var summary = new DesignSummary(
             design,
             stored.DesignFigures.Select(FigureCodec.FromStored).ToList(),
@@ -57,7 +55,7 @@ internal static class ResultCodec
 
     /// <summary>The findings in the codec's form, for keys that depend on them (a design's page).</summary>
     public static byte[] EncodeFindings(IEnumerable<Finding> findings) =>
-        JsonSerializer.SerializeToUtf8Bytes(findings.Select(FindingCodec.ToStored).ToList(), Options);
+        JsonSerializer.SerializeToUtf8Bytes(findings.Select(FindingCodec.ToStored).ToList(), Json.ListStoredFinding);
 
     internal sealed record StoredResult(
         List<StoredFinding> Findings,
@@ -122,5 +120,57 @@ internal static class ResultCodec
                 Margin = s.Margin,
                 Temperature = s.Temperature,
             };
+    }
+}
+
+/// <summary>
+/// The results cache's JSON, generated at compile time (no reflection, nothing emitted at run time). Every type it
+/// reaches from <see cref="ResultCodec.StoredResult"/> is generated with it, a type that holds a list of itself included
+/// (a fix hint's alternatives); <c>ResultCodecTests</c> fills every member by reflection and round-trips it.
+/// </summary>
+[JsonSourceGenerationOptions(NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals, IncludeFields = false, WriteIndented = false,
+    Converters = [typeof(DoublesAsBytes)])]
+[JsonSerializable(typeof(ResultCodec.StoredResult))]
+[JsonSerializable(typeof(List<ResultCodec.StoredFinding>))]
+internal sealed partial class ResultCodecJson : JsonSerializerContext;
+
+/// <summary>
+/// A list of numbers (a plot's waveform, frequencies, samples) as the Base64 text of its IEEE 754 binary64 values,
+/// little-endian. A cached design's plots are thousands of numbers; as decimal text they were most of what reading the
+/// cache cost (parsing each number and growing a list), and the bytes give back every value bit for bit, NaN included.
+/// </summary>
+internal sealed class DoublesAsBytes : JsonConverter<IReadOnlyList<double>>
+{
+    public override IReadOnlyList<double> Read(ref Utf8JsonReader reader, Type typeToConvert, JsonSerializerOptions options)
+    {
+        if (reader.TokenType != JsonTokenType.String)
+        {
+            throw new JsonException("a list of numbers is stored as Base64 text");
+        }
+
+        var bytes = reader.GetBytesFromBase64();
+        if (bytes.Length % sizeof(double) != 0)
+        {
+            throw new JsonException("a list of numbers holds a whole number of 8-byte values");
+        }
+
+        var values = new double[bytes.Length / sizeof(double)];
+        for (var i = 0; i < values.Length; i++)
+        {
+            values[i] = System.Buffers.Binary.BinaryPrimitives.ReadDoubleLittleEndian(bytes.AsSpan(i * sizeof(double)));
+        }
+
+        return values;
+    }
+
+    public override void Write(Utf8JsonWriter writer, IReadOnlyList<double> value, JsonSerializerOptions options)
+    {
+        var bytes = new byte[value.Count * sizeof(double)];
+        for (var i = 0; i < value.Count; i++)
+        {
+            System.Buffers.Binary.BinaryPrimitives.WriteDoubleLittleEndian(bytes.AsSpan(i * sizeof(double)), value[i]);
+        }
+
+        writer.WriteBase64StringValue(bytes);
     }
 }

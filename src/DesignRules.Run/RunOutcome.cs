@@ -45,6 +45,9 @@ public sealed record RunOutcome
     /// <summary>How many designs came from the results cache rather than evaluation.</summary>
     public int FromCache { get; init; }
 
+    /// <summary>Where the run's wall time went, phase by phase (for a detailed log line; never part of a report).</summary>
+    public RunTimings Timings { get; init; } = RunTimings.None;
+
     /// <summary>The sentence of the one DR990 error when the tool itself failed; null otherwise.</summary>
     public string? Fault { get; init; }
 

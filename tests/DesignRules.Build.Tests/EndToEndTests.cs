@@ -25,11 +25,14 @@ public sealed class EndToEndTests(PackedFeed feed)
         AssertPassed(first);
         Assert.Contains(Checked, first.Output, StringComparison.Ordinal);
 
-        // Nothing changed: the evaluation is skipped, and the build says so with the last result.
+        // Nothing changed: the evaluation is skipped, and the build says so with the last result; no page is rendered again.
+        var pages = PageTimes(repo.Root);
+        Assert.NotEmpty(pages);
         var second = repo.Build();
         AssertPassed(second);
         Assert.Contains(Skipped, second.Output, StringComparison.Ordinal);
         Assert.Contains("Last check: " + Summary, second.Output, StringComparison.Ordinal);
+        Assert.Equal(pages, PageTimes(repo.Root));
 
         // Switched off, the build says nothing of designs and keeps the last check's state: the next build still skips.
         var off = repo.Build("-p:DesignRulesEnabled=false");
@@ -203,4 +206,8 @@ public sealed class EndToEndTests(PackedFeed feed)
         Assert.True(run.ExitCode != 0, run.ToString());
         Assert.Contains("error DR906", run.Output, StringComparison.Ordinal);
     }
+
+    /// <summary>Every file of the pages folder with the time it was last written.</summary>
+    private static Dictionary<string, DateTime> PageTimes(string root) =>
+        Directory.EnumerateFiles(Path.Combine(root, "design-pages"), "*", SearchOption.AllDirectories).ToDictionary(f => f, File.GetLastWriteTimeUtc);
 }

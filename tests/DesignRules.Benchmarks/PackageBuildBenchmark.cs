@@ -1,0 +1,243 @@
+using System.Diagnostics;
+using System.Globalization;
+using System.Security.Cryptography;
+using System.Text;
+using BenchmarkDotNet.Attributes;
+using BenchmarkDotNet.Configs;
+using BenchmarkDotNet.Engines;
+using BenchmarkDotNet.Jobs;
+using BenchmarkDotNet.Toolchains.InProcess.Emit;
+
+namespace DesignRules.Benchmarks;
+
+/// <summary>
+/// What the check costs a user's build, as a new user meets it: whole-process <c>dotnet build</c> runs of a hardware
+/// repository outside the source tree that consumes the PACKED package from a local folder feed (the README's project-SDK
+/// form, nothing else). Three builds of the same repository: with the check switched off (<c>-p:DesignRulesEnabled=false</c>,
+/// the baseline), with nothing changed, and after one design was edited. The ratio column is the answer; a shared machine
+/// moves the means, so only ratios from the same run are compared.
+/// <para>
+/// <c>DESIGNRULES_BUILD_REPOSITORIES</c>: <c>example</c> (the example's four designs; default) and/or <c>synthetic-N</c>
+/// (<see cref="SyntheticRepository"/> with N designs), comma-separated. <c>DESIGNRULES_BUILD_PACKAGES</c>: <c>current</c>
+/// (the package packed from this working tree; default) and/or <c>label=FEED-FOLDER|VERSION</c> entries naming a package
+/// packed earlier (e.g. from another commit), so a before/after comparison runs in one job. Repositories and packs are kept
+/// under <c>$TMPDIR/designrules-buildbench/</c> between the benchmark's processes (each case runs in its own); delete it to start afresh.
+/// </para>
+/// </summary>
+[Config(typeof(ProcessConfig))]
+public class PackageBuildBenchmark
+{
+    /// <summary>
+    /// One run per build (a build is seconds long), five of them after one warm-up, in the benchmark's own process: what is
+    /// timed is a child process, so the benchmark needs no separate build of itself.
+    /// </summary>
+    private sealed class ProcessConfig : ManualConfig
+    {
+        public ProcessConfig() => AddJob(Job.Default
+            .WithStrategy(RunStrategy.Monitoring).WithLaunchCount(1).WithWarmupCount(1).WithIterationCount(5).WithInvocationCount(1)
+            .WithToolchain(new InProcessEmitToolchain(TimeSpan.FromHours(3), logOutput: true)));
+    }
+
+    private static readonly TimeSpan Limit = TimeSpan.FromMinutes(30);
+    private string root = null!;
+    private string packages = null!;
+    private int edit;
+    private readonly List<double> cpuSeconds = [];
+
+    [ParamsSource(nameof(PackageChoices))]
+    public string Package { get; set; } = "current";
+
+    [ParamsSource(nameof(RepositoryChoices))]
+    public string Repository { get; set; } = "example";
+
+    public static IEnumerable<string> PackageChoices() => List("DESIGNRULES_BUILD_PACKAGES", "current").Select(p => p.Split('=')[0]);
+
+    public static IEnumerable<string> RepositoryChoices() => List("DESIGNRULES_BUILD_REPOSITORIES", "example");
+
+    [GlobalSetup]
+    public void Setup()
+    {
+        var (feed, version) = Feed(Package);
+        var work = Path.Combine(Path.GetTempPath(), "designrules-buildbench");
+        root = Path.Combine(work, $"{Repository}-{version}");
+        packages = Path.Combine(work, "nuget-packages");
+        if (!File.Exists(Path.Combine(root, "hardware.proj")))
+        {
+            WriteRepository(root, feed, version);
+        }
+
+        // Restore, and the first (full) check, or settle what an earlier case left changed: never timed.
+        Build();
+    }
+
+    /// <summary>
+    /// The processor time the timed builds used (user + system, of the build and every process it waited for), printed
+    /// once per case: on a shared machine it moves far less with the other load than the wall time does.
+    /// </summary>
+    [GlobalCleanup]
+    public void Cleanup()
+    {
+        if (cpuSeconds.Count > 1)
+        {
+            // The first build is the case's setup build; the next is the warm-up.
+            var timed = cpuSeconds.Skip(2).Order().ToList();
+            Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"// build processor time [{Package}, {Repository}]: median {timed[timed.Count / 2]:0.00} s of {timed.Count} ({string.Join(", ", timed.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})"));
+        }
+    }
+
+    [IterationSetup(Target = nameof(OneDesignChanged))]
+    public void ChangeOneDesign() => SyntheticRepository.TouchOne(root, ++edit + Environment.ProcessId * 1000);
+
+    [Benchmark(Baseline = true, Description = "check switched off")]
+    public int SwitchedOff() => Build("-p:DesignRulesEnabled=false");
+
+    [Benchmark(Description = "nothing changed")]
+    public int NothingChanged() => Build();
+
+    [Benchmark(Description = "one design changed")]
+    public int OneDesignChanged() => Build();
+
+    private int Build(params string[] extra)
+    {
+        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = root, UseShellExecute = false, RedirectStandardOutput = true, RedirectStandardError = true };
+        foreach (var arg in (string[])["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra])
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        // The benchmark's own build variables must not leak into the user's build.
+        foreach (var name in (string[])["DR_ARTIFACTS", "MSBuildExtensionsPath", "MSBuildSDKsPath", "MSBUILD_EXE_PATH", "DOTNET_HOST_PATH"])
+        {
+            start.Environment.Remove(name);
+        }
+
+        start.Environment["NUGET_PACKAGES"] = packages;
+        start.Environment["DOTNET_CLI_TELEMETRY_OPTOUT"] = "1";
+        start.Environment["DOTNET_NOLOGO"] = "1";
+        var before = ChildProcessorSeconds();
+        using var process = Process.Start(start)!;
+        var output = process.StandardOutput.ReadToEndAsync();
+        var error = process.StandardError.ReadToEndAsync();
+        if (!process.WaitForExit(Limit))
+        {
+            process.Kill(entireProcessTree: true);
+            throw new TimeoutException($"dotnet build in {root} ran longer than {Limit}.");
+        }
+
+        if (process.ExitCode != 0)
+        {
+            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output.Result}\n{error.Result}");
+        }
+
+        cpuSeconds.Add(ChildProcessorSeconds() - before);
+        return process.ExitCode;
+    }
+
+    /// <summary>User plus system time of every child process this process has waited for (getrusage, RUSAGE_CHILDREN).</summary>
+    private static double ChildProcessorSeconds()
+    {
+        if (!OperatingSystem.IsLinux() && !OperatingSystem.IsMacOS())
+        {
+            return double.NaN;
+        }
+
+        var usage = new long[18];
+        return GetResourceUsage(-1, usage) == 0 ? usage[0] + (usage[1] / 1e6) + usage[2] + (usage[3] / 1e6) : double.NaN;
+    }
+
+    [System.Runtime.InteropServices.DllImport("libc", EntryPoint = "getrusage")]
+    private static extern int GetResourceUsage(int who, long[] usage);
+
+    private void WriteRepository(string folder, string feed, string version)
+    {
+        var source = Repository == "example" ? Path.Combine(SyntheticRepository.RepositoryRoot, "example-design") : null;
+        if (source is not null)
+        {
+            Directory.CreateDirectory(folder);
+            foreach (var file in Directory.EnumerateFiles(source, "*.yaml", SearchOption.AllDirectories))
+            {
+                var target = Path.Combine(folder, Path.GetRelativePath(source, file));
+                Directory.CreateDirectory(Path.GetDirectoryName(target)!);
+                File.Copy(file, target, overwrite: true);
+            }
+        }
+        else if (Repository.StartsWith("synthetic-", StringComparison.Ordinal))
+        {
+            var generated = SyntheticRepository.Write(int.Parse(Repository["synthetic-".Length..], CultureInfo.InvariantCulture));
+            Directory.CreateDirectory(Path.GetDirectoryName(folder)!);
+            Directory.Move(generated, folder);
+        }
+        else
+        {
+            throw new ArgumentException($"unknown repository '{Repository}' (example or synthetic-N)");
+        }
+
+        // As the README tells a user: the feed in nuget.config, one project file in the project-SDK form.
+        File.WriteAllText(Path.Combine(folder, "nuget.config"), $"""
+            <?xml version="1.0" encoding="utf-8"?>
+            <configuration>
+              <packageSources>
+                <add key="designrules-local" value="{feed}" />
+              </packageSources>
+            </configuration>
+            """);
+        // Nothing above the temp folder may leak in.
+        File.WriteAllText(Path.Combine(folder, "Directory.Build.props"), "<Project />\n");
+        File.WriteAllText(Path.Combine(folder, "Directory.Build.targets"), "<Project />\n");
+        File.WriteAllText(Path.Combine(folder, "hardware.proj"), $"<Project Sdk=\"DesignRules.Build/{version}\">\n</Project>\n");
+    }
+
+    /// <summary>The feed folder and version of a package choice; <c>current</c> packs this working tree once per content.</summary>
+    private static (string Feed, string Version) Feed(string label)
+    {
+        var named = List("DESIGNRULES_BUILD_PACKAGES", "current").FirstOrDefault(p => p.StartsWith(label + "=", StringComparison.Ordinal));
+        if (named is not null)
+        {
+            var parts = named[(label.Length + 1)..].Split('|');
+            return (Path.GetFullPath(parts[0]), parts[1]);
+        }
+
+        var source = SyntheticRepository.RepositoryRoot;
+        var version = "0.1.0-bench." + SourceHash(source);
+        var feed = Path.Combine(Path.GetTempPath(), "designrules-buildbench", "feeds", version);
+        if (!File.Exists(Path.Combine(feed, $"DesignRules.Build.{version}.nupkg")))
+        {
+            var pack = new ProcessStartInfo("dotnet") { WorkingDirectory = source, UseShellExecute = false };
+            foreach (var arg in (string[])["pack", Path.Combine(source, "src", "DesignRules.Build"), "-c", "Release", "-o", feed, $"-p:PackageVersion={version}", "-nodeReuse:false", "-tl:off", "-v:q"])
+            {
+                pack.ArgumentList.Add(arg);
+            }
+
+            using var process = Process.Start(pack)!;
+            process.WaitForExit();
+            if (process.ExitCode != 0)
+            {
+                throw new InvalidOperationException("dotnet pack of DesignRules.Build failed");
+            }
+        }
+
+        return (feed, version);
+    }
+
+    /// <summary>A short hash of the sources the package is made of, so that an unchanged tree is packed once.</summary>
+    private static string SourceHash(string source)
+    {
+        var text = new StringBuilder();
+        foreach (var folder in new[] { "src", "templates", "rules" })
+        {
+            foreach (var file in Directory.EnumerateFiles(Path.Combine(source, folder), "*", SearchOption.AllDirectories)
+                .Where(f => !f.Contains($"{Path.DirectorySeparatorChar}bin{Path.DirectorySeparatorChar}", StringComparison.Ordinal)
+                    && !f.Contains($"{Path.DirectorySeparatorChar}obj{Path.DirectorySeparatorChar}", StringComparison.Ordinal))
+                .Order(StringComparer.Ordinal))
+            {
+                text.Append(file).Append(' ').Append(Convert.ToHexString(SHA256.HashData(File.ReadAllBytes(file)))).Append('\n');
+            }
+        }
+
+        return Convert.ToHexString(SHA256.HashData(Encoding.UTF8.GetBytes(text.ToString())))[..12].ToLowerInvariant();
+    }
+
+    private static List<string> List(string variable, string fallback) =>
+        [.. (Environment.GetEnvironmentVariable(variable) ?? fallback).Split(',', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries)];
+}
