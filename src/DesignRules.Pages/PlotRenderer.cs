@@ -29,23 +29,7 @@ internal static class PlotRenderer
         });
         foreach (var trace in plot.Traces)
         {
-            var series = new LineSeries
-            {
-                Title = trace.Role switch
-                {
-                    TraceRole.Input => $"{trace.Name} (input)",
-                    TraceRole.StageOutput => $"{trace.Name} (stage output)",
-                    _ => $"{trace.Name} (amplifier output)",
-                },
-                StrokeThickness = trace.Role == TraceRole.AmplifierOutput ? 1.5 : 2,
-                LineStyle = trace.Role == TraceRole.Input ? LineStyle.Dash : LineStyle.Solid,
-            };
-            for (var i = 0; i < plot.Time.Count; i++)
-            {
-                series.Points.Add(new DataPoint(plot.Time[i] * scale, trace.Values[i]));
-            }
-
-            model.Series.Add(series);
+            model.Series.Add(TraceSeries(trace, plot.Time, scale));
         }
 
         // One line per distinct limit, naming every amplifier that shares it.
@@ -192,6 +176,28 @@ internal static class PlotRenderer
         }
 
         return Export(model);
+    }
+
+    /// <summary>One voltage trace over time (scaled to the axis unit), styled by its role: the input dashed, amplifier outputs thinner.</summary>
+    internal static LineSeries TraceSeries(Trace trace, IReadOnlyList<double> time, double scale)
+    {
+        var series = new LineSeries
+        {
+            Title = trace.Role switch
+            {
+                TraceRole.Input => $"{trace.Name} (input)",
+                TraceRole.StageOutput => $"{trace.Name} (stage output)",
+                _ => $"{trace.Name} (amplifier output)",
+            },
+            StrokeThickness = trace.Role == TraceRole.AmplifierOutput ? 1.5 : 2,
+            LineStyle = trace.Role == TraceRole.Input ? LineStyle.Dash : LineStyle.Solid,
+        };
+        for (var i = 0; i < time.Count; i++)
+        {
+            series.Points.Add(new DataPoint(time[i] * scale, trace.Values[i]));
+        }
+
+        return series;
     }
 
     /// <summary>The house look every plot shares: title, font, white page, grey frame, legend below, invariant-culture labels.</summary>

@@ -64,23 +64,7 @@ internal static class StabilityPlotRenderer
         model.Axes.Add(new LinearAxis { Position = AxisPosition.Left, Title = "Voltage (V)", MajorGridlineStyle = LineStyle.Dot, AxisTitleDistance = 12 });
         foreach (var trace in plot.Traces)
         {
-            var series = new LineSeries
-            {
-                Title = trace.Role switch
-                {
-                    TraceRole.Input => $"{trace.Name} (input)",
-                    TraceRole.StageOutput => $"{trace.Name} (stage output)",
-                    _ => $"{trace.Name} (amplifier output)",
-                },
-                StrokeThickness = trace.Role == TraceRole.AmplifierOutput ? 1.5 : 2,
-                LineStyle = trace.Role == TraceRole.Input ? LineStyle.Dash : LineStyle.Solid,
-            };
-            for (var i = 0; i < plot.Time.Count; i++)
-            {
-                series.Points.Add(new DataPoint(plot.Time[i] * scale, trace.Values[i]));
-            }
-
-            model.Series.Add(series);
+            model.Series.Add(PlotRenderer.TraceSeries(trace, plot.Time, scale));
         }
 
         if (plot.Settling is { } settling)
