@@ -55,7 +55,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private ResistorPowers? resistorPowers;
     private LoopGainFigures? loopGains;
     private StepFigures? steps;
-    private readonly Dictionary<(string ElementId, double Limit), CapacitiveLoadFix?> capacitiveLoads = [];
+    private readonly Dictionary<(string ElementId, double Limit, double? Celsius), CapacitiveLoadFix?> capacitiveLoads = [];
     private IReadOnlyList<StageNoiseFigures>? noise;
     private IReadOnlyList<GbwAtTemperature>? gbwEnds;
     private readonly Dictionary<double, (AcResult Sweep, SmallSignal? Small)> acAt = [];
@@ -196,10 +196,12 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     /// <summary>
     /// The capacitive load on an amplifier's output and, when its margin is below <paramref name="minPhaseMargin"/> °,
     /// what restores it (searched on variants of the compiled circuit); null when the output drives no capacitance.
+    /// <paramref name="end"/> names the GBW end of the operating range the loop was found at (<see cref="LoopGainsAt"/>);
+    /// null for the 25 °C loop of <see cref="LoopGains"/>.
     /// </summary>
-    public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin) =>
-        capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin), out var c) ? c
-        : capacitiveLoads[(loop.ElementId, minPhaseMargin)] = CapacitiveLoadVariants.Compute(LoopGains.Chain, loop, minPhaseMargin);
+    public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin, GbwAtTemperature? end = null) =>
+        capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin, end?.Celsius), out var c) ? c
+        : capacitiveLoads[(loop.ElementId, minPhaseMargin, end?.Celsius)] = CapacitiveLoadVariants.Compute(end?.Chain ?? LoopGains.Chain, loop, minPhaseMargin);
 
     /// <summary>
     /// The noise at the output of every stage whose requirements ask for it (<c>snr</c>, <c>noise</c>, a rectifier's
