@@ -60,6 +60,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private IReadOnlyList<GbwAtTemperature>? gbwEnds;
     private readonly Dictionary<double, (AcResult Sweep, SmallSignal? Small)> acAt = [];
     private readonly Dictionary<double, LoopGainFigures> loopGainsAt = [];
+    private readonly Dictionary<double, StepFigures> stepsAt = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -192,6 +193,10 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     /// <summary>Every stage output's answer to a small step at the source (its record set by <see cref="LoopGains"/>).</summary>
     public StepFigures Steps => steps ??= StepAnalyses.Compute(LoopGains);
+
+    /// <summary>Every stage output's answer to a small step (as <see cref="Steps"/>) with the GBWs of <paramref name="end"/>.</summary>
+    public StepFigures StepsAt(GbwAtTemperature end) =>
+        stepsAt.TryGetValue(end.Celsius, out var s) ? s : stepsAt[end.Celsius] = StepAnalyses.Compute(LoopGainsAt(end));
 
     /// <summary>
     /// The capacitive load on an amplifier's output and, when its margin is below <paramref name="minPhaseMargin"/> °,

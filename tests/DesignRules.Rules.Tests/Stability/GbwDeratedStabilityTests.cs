@@ -54,6 +54,23 @@ public sealed class GbwDeratedStabilityTests
         Assert.NotEmpty(Findings(text.Replace("capacitance: 4 nF", $"capacitance: {more} nF", StringComparison.Ordinal), "DR512"));
     }
 
+    [Fact]
+    public void The_step_is_also_taken_at_the_cold_end_where_the_thinner_margin_rings_more()
+    {
+        var hot = StepOvershoot(RuleFixture.Verify("stability/gbw-derated-driver-at-25-only.yaml"));
+        var cold = StepOvershoot(RuleFixture.Verify("stability/gbw-derated-driver-cold-end-fails.yaml"));
+
+        // The follower's closed loop is dominated by a complex pole pair; a thinner phase margin means a smaller damping
+        // ratio and a larger overshoot (Ogata, Modern Control Engineering, §5-3 and §7-7): 42° at -40 °C rings more than
+        // 47.3° at 25 °C, so the range's figure is the cold end's, named by its temperature.
+        Assert.Null(hot.Temperature);
+        Assert.Equal(-40, cold.Temperature);
+        Assert.True(cold.Value > hot.Value, $"overshoot {cold.Value} at -40 °C is not above {hot.Value} at 25 °C");
+    }
+
+    private static Figure StepOvershoot(CheckReport report) =>
+        report.Designs.Single().StageFigures.Single(s => s.Key == "driver").Value.Single(f => f.Key == FigureKinds.StepOvershoot.Key);
+
     private static List<Finding> Findings(string designText, params string[] rules)
     {
         var folder = Directory.CreateTempSubdirectory("designrules-gbw-stability-").FullName;
