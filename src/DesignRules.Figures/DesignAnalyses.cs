@@ -61,6 +61,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private readonly Dictionary<double, (AcResult Sweep, SmallSignal? Small)> acAt = [];
     private readonly Dictionary<double, LoopGainFigures> loopGainsAt = [];
     private readonly Dictionary<double, StepFigures> stepsAt = [];
+    private readonly Dictionary<string, double?> deadZoneFractions = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -288,6 +289,14 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
         return chain;
     }
+
+    /// <summary>
+    /// The fraction of a small signal at a precision rectifier stage's input that reaches its amplifier's inputs while the
+    /// loop is open in the dead zone (<see cref="DeadZoneFraction"/>), on the nominal chain; null when it cannot be measured.
+    /// </summary>
+    public double? DeadZoneFractionOf(StageProbe stage, AmplifierProbe amplifier) =>
+        deadZoneFractions.TryGetValue(amplifier.ElementId, out var f) ? f
+        : deadZoneFractions[amplifier.ElementId] = DeadZoneFraction.Of(Chain(BandEnd.Top), stage, amplifier);
 
     public OperatingPointResult OperatingPoint()
     {
