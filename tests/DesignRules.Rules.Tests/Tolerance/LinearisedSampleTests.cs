@@ -22,6 +22,18 @@ public sealed class LinearisedSampleTests
         return ToleranceAnalyses.WorstCase(evaluation, ToleranceAnalyses.Stages(evaluation).Single(s => s.StageId == stageId));
     }
 
+    /// <summary>The variables of Monte Carlo sample <paramref name="index"/>, drawn as the analysis draws them.</summary>
+    private static Variation Draw(ToleranceVariables variables, MonteCarloSettings settings, string stageId, int index)
+    {
+        var random = SampleDraws.For(settings.Seed, stageId, index);
+        var v = variables.Nominal;
+        for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+        return v;
+    }
+
     [Theory]
     [InlineData("preamp")]
     [InlineData("rectifier")]
@@ -34,12 +46,7 @@ public sealed class LinearisedSampleTests
         var settings = new MonteCarloSettings(200, 20261203, ToleranceDistribution.Normal);
         for (int i = 0; i < settings.Samples; i++)
         {
-            var random = SampleDraws.For(settings.Seed, stageId, i);
-            var v = variables.Nominal;
-            for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+            var v = Draw(variables, settings, stageId, i);
 
             circuit.Linearised = true;
             var fast = circuit.Measure(v);
@@ -72,12 +79,7 @@ public sealed class LinearisedSampleTests
         var settings = new MonteCarloSettings(400, 20261204, ToleranceDistribution.Normal);
         for (int i = 0; i < settings.Samples; i++)
         {
-            var random = SampleDraws.For(settings.Seed, stageId, i);
-            var v = variables.Nominal;
-            for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+            var v = Draw(variables, settings, stageId, i);
 
             var stopped = circuit.Measure(v);
             circuit.FigureFocus = false;
