@@ -75,6 +75,41 @@ public sealed class LoopGainTests
     }
 
     [Fact]
+    public void A_loop_whose_two_poles_lie_below_the_sweep_is_judged_by_its_crossover_not_called_regenerative()
+    {
+        // A0 = 1e7 with GBW 1 MHz puts the amplifier's pole at 0.1 Hz; Ro·CL = 1 kΩ · 318 µF another at 0.5 Hz (a diode's
+        // small-signal resistance into a hold capacitor does the same). At the sweep's first point, 1 Hz, T has turned by
+        // about 148°: negative in its real part, yet the loop is a negative-feedback one whose crossover and (small) phase
+        // margin follow the two-pole closed form (Ogata, §7-6).
+        const double ro = 1e3, cl = 318e-6;
+        var model = AmplifierModel.SinglePole(1e6, 1e7, 8e6) with { OutputResistance = ro };
+        var margins = Simulate.LoopGain(Follower(model, cl), Sweep).Loop("u1")!.Margins;
+        var (fc, pm) = TwoPoleClosedForm(1e7, 1e6 / 1e7, 1 / (2 * Math.PI * ro * cl));
+        Assert.Equal(LoopState.Closed, margins.State);
+        Assert.Equal(fc, margins.Crossover!.Value, fc * 1e-4);
+        Assert.Equal(pm, margins.PhaseMargin!.Value, 0.01);
+        Assert.InRange(margins.StartPhase, -150, -145); // −atan(1/0.1) − atan(1/0.5) = −147.7° at 1 Hz, continued from 0° at DC
+    }
+
+    [Fact]
+    public void A_comparator_with_hysteresis_held_at_its_threshold_regenerates()
+    {
+        // Positive feedback: the output returns to the non-inverting input through the divider r2/(r1 + r2) = 1/11, so at
+        // DC T = −A0/11 (negative real, |T| ≫ 1): the loop latches and has no phase margin to read (the Schmitt
+        // trigger: Franco, Design with Operational Amplifiers and Analog Integrated Circuits, 3rd ed., ch. 9). Held at its threshold, the DC solution is the balanced one, with the output at 0 V.
+        var circuit = new Circuit()
+            .AddVoltageSource("vin", "in", Circuit.Ground, 0)
+            .AddResistor("r1", "in", "p", 10e3)
+            .AddResistor("r2", "p", "out", 100e3)
+            .AddAmplifier("u1", "p", Circuit.Ground, "out", Stages.GeneralPurpose, Stages.Rails)
+            .AddResistor("rl", "out", Circuit.Ground, 10e3);
+        var margins = Simulate.LoopGain(circuit, Sweep).Loop("u1")!.Margins;
+        Assert.Equal(LoopState.Regenerative, margins.State);
+        Assert.Null(margins.PhaseMargin);
+        Assert.Equal(1e5 / 11, margins.LowFrequencyGain, 1e5 / 11 * 0.02); // |T| at 1 Hz, a tenth of the 10 Hz pole away from DC
+    }
+
+    [Fact]
     public void The_return_ratio_equals_Middlebrooks_two_injection_loop_gain_at_the_output_pin()
     {
         // Middlebrook, "Measurement of loop gain in feedback systems", Int. J. Electronics 38 (1975): with a voltage

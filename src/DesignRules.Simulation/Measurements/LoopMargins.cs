@@ -14,7 +14,7 @@ public enum LoopState
     /// <summary>|T| stays above 1 up to the top of the sweep: the crossover lies beyond it.</summary>
     BeyondSweep,
 
-    /// <summary>T is negative real at low frequency with |T| above 1: the loop regenerates (positive feedback) and latches.</summary>
+    /// <summary>T is negative real at DC with |T| above 1: the loop regenerates (positive feedback) and latches.</summary>
     Regenerative,
 }
 
@@ -32,11 +32,20 @@ public enum LoopState
 /// <param name="PhaseCrossover">Frequency of the gain margin, Hz, or null.</param>
 /// <param name="Peaking">Closed-loop peaking max|T/(1+T)| / |T/(1+T)| at the first frequency (1: none).</param>
 /// <param name="PeakingFrequency">Frequency of the peak, Hz.</param>
+/// <param name="StartPhase">∠T at the first frequency in degrees, continued from DC (it may lie outside (−180°, 180°] when
+/// poles below the sweep have already turned it); the phase of the sweep is unwrapped from it.</param>
 public sealed record LoopMargins(
-    LoopState State, double LowFrequencyGain, double? Crossover, double? PhaseMargin, double? GainMargin, double? PhaseCrossover, double Peaking, double PeakingFrequency)
+    LoopState State, double LowFrequencyGain, double? Crossover, double? PhaseMargin, double? GainMargin, double? PhaseCrossover, double Peaking, double PeakingFrequency,
+    double StartPhase)
 {
     /// <summary>Steps of the bisection that places a crossing between two sweep points (each halves a log-frequency interval).</summary>
     private const int RefineSteps = 40;
+
+    /// <summary>Decades walked below the first frequency at most, looking for the frequency where ∠T stops turning.</summary>
+    private const int MaxDecadesBelow = 12;
+
+    /// <summary>A decade over which ∠T turns by less than this (degrees) counts as below every pole and zero of T.</summary>
+    private const double SettledTurn = 0.5;
 
     /// <summary>
     /// Reads the margins from T sampled at ascending <paramref name="frequencies"/>; <paramref name="exact"/> (when given)
@@ -50,15 +59,21 @@ public sealed record LoopMargins(
         ArgumentNullException.ThrowIfNull(frequencies);
         ArgumentNullException.ThrowIfNull(gain);
         int n = Math.Min(frequencies.Count, gain.Count);
-        if (n == 0) return new LoopMargins(LoopState.Open, 0, null, null, null, null, 1, 0);
-        var phase = Unwrapped(gain, n);
+        if (n == 0) return new LoopMargins(LoopState.Open, 0, null, null, null, null, 1, 0, 0);
+
+        // Whether the feedback is negative or positive is the sign of T at DC, not at the first frequency of the sweep: a
+        // loop with poles below the sweep (a diode's small-signal resistance into a large hold capacitor, behind an
+        // amplifier's own dominant pole) reaches the first frequency already turned by more than 90°, negative in its
+        // real part and yet a negative-feedback loop with a crossover to judge.
+        var (startPhase, regenerative) = FromDc(frequencies[0], gain[0], exact);
+        var phase = Unwrapped(gain, n, startPhase);
         double[] mag = new double[n];
         for (int i = 0; i < n; i++) mag[i] = gain[i].Magnitude;
 
         var (peaking, peakingAt) = Peak(frequencies, gain, n);
-        if (gain[0].Real < 0 && mag[0] > 1)
+        if (regenerative)
         {
-            return new LoopMargins(LoopState.Regenerative, mag[0], null, null, null, null, peaking, peakingAt);
+            return new LoopMargins(LoopState.Regenerative, mag[0], null, null, null, null, peaking, peakingAt, startPhase);
         }
 
         Func<double, Complex> evaluate = exact ?? (f => Interpolate(frequencies, gain, n, f));
@@ -94,22 +109,62 @@ public sealed record LoopMargins(
         }
 
         var state = margin is not null ? LoopState.Closed : mag.Take(n).All(m => m < 1) ? LoopState.Open : LoopState.BeyondSweep;
-        return new LoopMargins(state, mag[0], crossover, margin, gainMargin, phaseCrossover, peaking, peakingAt);
+        return new LoopMargins(state, mag[0], crossover, margin, gainMargin, phaseCrossover, peaking, peakingAt, startPhase);
     }
 
-    /// <summary>Phase of each sample in degrees, unwrapped from the first (taken in (−180°, 180°]).</summary>
-    public static double[] Unwrapped(IReadOnlyList<Complex> gain, int count)
+    /// <summary>The phase of <paramref name="gain"/> (this loop's samples) in degrees, unwrapped from <see cref="StartPhase"/>.</summary>
+    public double[] PhaseOf(IReadOnlyList<Complex> gain)
     {
         ArgumentNullException.ThrowIfNull(gain);
+        return Unwrapped(gain, gain.Count, StartPhase);
+    }
+
+    // Phase of each sample in degrees, unwrapped from startPhase (the first sample's phase continued from DC).
+    private static double[] Unwrapped(IReadOnlyList<Complex> gain, int count, double startPhase)
+    {
         var phase = new double[count];
         for (int i = 0; i < count; i++)
         {
             double p = gain[i].Phase * 180 / Math.PI;
             // A point where the equations were singular (NaN) is carried over, not allowed to poison the unwrapping after it.
-            phase[i] = i == 0 || !double.IsFinite(phase[i - 1]) ? p : PhaseNear(gain[i], phase[i - 1]);
+            phase[i] = i == 0 ? (double.IsFinite(p) ? PhaseNear(gain[0], startPhase) : p)
+                : !double.IsFinite(phase[i - 1]) ? p : PhaseNear(gain[i], phase[i - 1]);
         }
 
         return phase;
+    }
+
+    // ∠T at the first frequency continued from DC, and whether T is negative real there with |T| > 1. Walks down decade by
+    // decade from the first frequency, keeping the phase continuous, until a decade turns it by less than SettledTurn
+    // (below every pole and zero: the DC limit) or T cannot be evaluated; then reads the sign there and carries the
+    // phase back up. Without an evaluator the first sample stands for DC, as before.
+    private static (double StartPhase, bool Regenerative) FromDc(double firstFrequency, Complex first, Func<double, Complex>? exact)
+    {
+        double firstPhase = first.Phase * 180 / Math.PI;
+        if (exact is null || !double.IsFinite(firstPhase) || !(firstFrequency > 0))
+        {
+            return (firstPhase, first.Real < 0 && first.Magnitude > 1);
+        }
+
+        // The phases below the first frequency, continued downward from the first sample's principal value.
+        var below = new List<(Complex T, double Phase)>(MaxDecadesBelow) { (first, firstPhase) };
+        double f = firstFrequency;
+        for (int k = 0; k < MaxDecadesBelow; k++)
+        {
+            f /= 10;
+            var t = exact(f);
+            if (!double.IsFinite(t.Real) || !double.IsFinite(t.Imaginary) || t == Complex.Zero) break;
+            double p = PhaseNear(t, below[^1].Phase);
+            double turn = Math.Abs(p - below[^1].Phase);
+            below.Add((t, p));
+            if (turn < SettledTurn) break;
+        }
+
+        // Read the bottom in its principal value: the DC limit of T is real, so its phase is 0° or 180° there; the phase
+        // of the first sample is the bottom's carried back up through the same decades.
+        var bottom = below[^1];
+        double shift = (bottom.T.Phase * 180 / Math.PI) - bottom.Phase;
+        return (firstPhase + shift, bottom.T.Real < 0 && bottom.T.Magnitude > 1);
     }
 
     // The phase of t in degrees, shifted by whole turns to lie within half a turn of the expected value.

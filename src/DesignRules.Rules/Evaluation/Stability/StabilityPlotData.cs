@@ -16,7 +16,7 @@ internal static class StabilityPlotData
                 l.Slot,
                 l.Frequencies,
                 l.Loop.Gain.Select(t => 20 * Math.Log10(Math.Max(t.Magnitude, 1e-12))).ToArray(),
-                LoopMargins.Unwrapped(l.Loop.Gain, l.Loop.Gain.Count),
+                l.Loop.Margins.PhaseOf(l.Loop.Gain),
                 l.Loop.Margins.Crossover!.Value,
                 l.Loop.Margins.PhaseMargin!.Value,
                 l.OperatingPoint()))
