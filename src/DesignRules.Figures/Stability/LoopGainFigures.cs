@@ -4,8 +4,8 @@ namespace DesignRules.Figures.Stability;
 
 /// <summary>
 /// The loop of one amplifier as the stability rules judge it: the loop gain at the operating point where its margin is
-/// smallest among those where the loop is closed (the quiescent point, else the source held at either extreme so that
-/// a rectifier's or peak detector's diode conducts), or, when the loop is closed at none of them, the quiescent loop.
+/// smallest among those where the loop is closed (the quiescent point and the source held at either extreme, where a
+/// rectifier's or peak detector's diode conducts), or, when the loop is closed at none of them, the quiescent loop.
 /// </summary>
 /// <param name="StageId">The stage.</param>
 /// <param name="Slot">The slot or netlist element id (u1).</param>
@@ -14,7 +14,10 @@ namespace DesignRules.Figures.Stability;
 /// <param name="Frequencies">Frequencies of <see cref="LoopGain.Gain"/>, Hz.</param>
 /// <param name="Loop">The loop gain and its margins.</param>
 /// <param name="BiasValue">The source's value at the operating point used, V; null for the quiescent point.</param>
-internal sealed record AmplifierLoop(string StageId, string Slot, string ElementId, string OutputNode, IReadOnlyList<double> Frequencies, LoopGain Loop, double? BiasValue);
+/// <param name="QuiescentCrossover">The crossover of the loop at the quiescent point, Hz, where it is closed there (a
+/// small step from rest is answered at that speed, whichever operating point has the least margin); else null.</param>
+internal sealed record AmplifierLoop(
+    string StageId, string Slot, string ElementId, string OutputNode, IReadOnlyList<double> Frequencies, LoopGain Loop, double? BiasValue, double? QuiescentCrossover);
 
 /// <summary>Every amplifier loop of a design, or the failure that stopped the analysis.</summary>
 internal sealed record LoopGainFigures(IReadOnlyList<AmplifierLoop> Loops, SimulationFailure? Failure, ElaboratedChain Chain)
@@ -34,6 +37,12 @@ internal static class LoopGainAnalyses
     /// unwrap the phase of any loop without a resonance sharper than a tenth of a decade), crossings placed by bisection.
     /// </summary>
     public static LoopGainRequest Sweep { get; } = LoopGainRequest.Decades(1, 1e9, 10);
+
+    /// <summary>
+    /// Degrees by which a loop read at a source extreme must have less margin than the quiescent one to replace it: a
+    /// linear stage's loop moves by a few thousandths of a degree with its output level, and keeps its quiescent figure.
+    /// </summary>
+    private const double MarginResolution = 0.05;
 
     /// <summary>The margins of one amplifier of <paramref name="circuit"/> (a variant of the chain's) at a loop's operating point.</summary>
     public static LoopMargins? MarginsOf(Circuit circuit, ElaboratedChain chain, AmplifierLoop loop)
@@ -57,25 +66,25 @@ internal static class LoopGainAnalyses
             return new LoopGainFigures([], quiescent.Failure, chain);
         }
 
+        // Every amplifier is read again with the source held at either extreme, not only one whose loop is open at rest: a
+        // conducting diode's small-signal resistance, and the pole it makes with a hold capacitor, moves with the current
+        // the signal drives through it, so a peak detector closed at rest can have its least margin at its peak. An
+        // extreme replaces the quiescent loop only when its margin is smaller by more than MarginResolution.
         var best = quiescent.Loops.ToDictionary(l => l.Amplifier, l => (Loop: l, Bias: (double?)null), StringComparer.Ordinal);
-        var open = best.Values.Where(b => b.Loop.Margins.State != LoopState.Closed).Select(b => b.Loop.Amplifier).ToArray();
-        if (open.Length > 0)
+        foreach (var bias in SourceExtremes(chain))
         {
-            foreach (var bias in SourceExtremes(chain))
+            var biased = Simulate.LoopGain(chain.Circuit, Sweep with { BiasSource = chain.SourceId, BiasValue = bias });
+            if (!biased.Succeeded)
             {
-                var biased = Simulate.LoopGain(chain.Circuit, Sweep with { Amplifiers = open, BiasSource = chain.SourceId, BiasValue = bias });
-                if (!biased.Succeeded)
-                {
-                    continue;
-                }
+                continue;
+            }
 
-                foreach (var loop in biased.Loops.Where(l => l.Margins.State == LoopState.Closed))
+            foreach (var loop in biased.Loops.Where(l => l.Margins.State == LoopState.Closed))
+            {
+                var kept = best[loop.Amplifier];
+                if (kept.Loop.Margins.State != LoopState.Closed || loop.Margins.PhaseMargin < kept.Loop.Margins.PhaseMargin - MarginResolution)
                 {
-                    var kept = best[loop.Amplifier];
-                    if (kept.Loop.Margins.State != LoopState.Closed || loop.Margins.PhaseMargin < kept.Loop.Margins.PhaseMargin)
-                    {
-                        best[loop.Amplifier] = (loop, bias);
-                    }
+                    best[loop.Amplifier] = (loop, bias);
                 }
             }
         }
@@ -87,7 +96,9 @@ internal static class LoopGainAnalyses
             {
                 if (best.TryGetValue(amp.ElementId, out var b))
                 {
-                    loops.Add(new AmplifierLoop(stage.StageId, amp.Slot, amp.ElementId, amp.OutputNode, quiescent.Frequencies, b.Loop, b.Bias));
+                    var rest = quiescent.Loops.First(l => l.Amplifier == amp.ElementId).Margins;
+                    double? restCrossover = rest.State == LoopState.Closed ? rest.Crossover : null;
+                    loops.Add(new AmplifierLoop(stage.StageId, amp.Slot, amp.ElementId, amp.OutputNode, quiescent.Frequencies, b.Loop, b.Bias, restCrossover));
                 }
             }
         }

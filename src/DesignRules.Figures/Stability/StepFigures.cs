@@ -63,7 +63,7 @@ internal static class StepAnalyses
     {
         var chain = loops.Chain;
         // The step starts from the quiescent point, so the loops closed there set its time scale.
-        var crossovers = loops.Loops.Where(l => l.BiasValue is null && l.Loop.Margins.State == LoopState.Closed).Select(l => l.Loop.Margins.Crossover!.Value).ToArray();
+        var crossovers = loops.Loops.Where(l => l.QuiescentCrossover is not null).Select(l => l.QuiescentCrossover!.Value).ToArray();
         if (!chain.Succeeded || crossovers.Length == 0)
         {
             return new StepFigures([], StepSize, null, chain);
