@@ -62,6 +62,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private readonly Dictionary<double, LoopGainFigures> loopGainsAt = [];
     private readonly Dictionary<double, StepFigures> stepsAt = [];
     private readonly Dictionary<string, double?> deadZoneFractions = [];
+    private readonly Dictionary<(string Stage, double Celsius), double?> noiseAtTemperature = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -297,6 +298,21 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public double? DeadZoneFractionOf(StageProbe stage, AmplifierProbe amplifier) =>
         deadZoneFractions.TryGetValue(amplifier.ElementId, out var f) ? f
         : deadZoneFractions[amplifier.ElementId] = DeadZoneFraction.Of(Chain(BandEnd.Top), stage, amplifier);
+
+    /// <summary>
+    /// A stage's RMS noise referred to its input with the chain at <paramref name="celsius"/> (<see cref="StageNoise.AtStageInput"/>;
+    /// at 25 °C the figure of <see cref="Noise"/>), or null when it cannot be computed there.
+    /// </summary>
+    public double? NoiseAtStageInput(StageNoiseFigures figures, double celsius)
+    {
+        if (celsius == TemperatureBehaviour.Reference)
+        {
+            return figures.NoiseAtStageInput;
+        }
+
+        var key = (figures.Stage.StageId, celsius);
+        return noiseAtTemperature.TryGetValue(key, out var n) ? n : noiseAtTemperature[key] = StageNoise.AtStageInput(Chain(BandEnd.Top), figures, celsius);
+    }
 
     public OperatingPointResult OperatingPoint()
     {

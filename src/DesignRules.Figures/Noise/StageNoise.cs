@@ -16,7 +16,9 @@ namespace DesignRules.Figures.Noise;
 /// <param name="StageGain">The stage's ideal gain magnitude (the larger slope of a rectifier).</param>
 /// <param name="RmsFactor">RMS over peak of the source waveform (1/√2 for a sine).</param>
 /// <param name="Circuit">The chain compiled for noise that every stage of the design was analysed on.</param>
-internal sealed record StageNoiseFigures(StageProbe Stage, NoiseResult Result, double Low, double High, double SignalPeak, double StageGain, double RmsFactor, NoiseCircuit Circuit)
+/// <param name="Request">The noise request the stage was analysed with (output node, band, input level).</param>
+internal sealed record StageNoiseFigures(
+    StageProbe Stage, NoiseResult Result, double Low, double High, double SignalPeak, double StageGain, double RmsFactor, NoiseCircuit Circuit, NoiseRequest Request)
 {
     /// <summary>RMS of the smallest signal at the stage output, V.</summary>
     public double SignalRms => SignalPeak * StageGain * RmsFactor;
@@ -84,7 +86,8 @@ internal static class StageNoise
             if (Wanted(stage) && Band(design, stage.Stage) is { } band)
             {
                 circuit ??= NoiseCircuit.Compile(chain.Circuit);
-                var result = circuit.Analyse(new NoiseRequest(stage.OutputNode, chain.SourceId, band.Low, band.High) { InputLevel = inputLevel });
+                var request = new NoiseRequest(stage.OutputNode, chain.SourceId, band.Low, band.High) { InputLevel = inputLevel };
+                var result = circuit.Analyse(request);
                 if (result.Failure is { } failure)
                 {
                     analyses.ReportFailure("the noise analysis", failure, chain);
@@ -92,7 +95,7 @@ internal static class StageNoise
                 else
                 {
                     double signal = stage.Stage.Requirements.MinSignal?.Value.Value ?? level;
-                    figures.Add(new StageNoiseFigures(stage, result, band.Low, band.High, signal, gain, RmsFactor(design.Source.Waveform.Kind), circuit));
+                    figures.Add(new StageNoiseFigures(stage, result, band.Low, band.High, signal, gain, RmsFactor(design.Source.Waveform.Kind), circuit, request));
                 }
             }
 
@@ -106,6 +109,20 @@ internal static class StageNoise
     /// The source level a rectifying chain is linearised at: its DC level plus the peak in the direction the rectifier
     /// passes, so the diode conducts and the loop is closed, as it is while the signal is rectified.
     /// </summary>
+    /// <summary>
+    /// The stage's RMS noise referred to its input (as <see cref="StageNoiseFigures.NoiseAtStageInput"/>) with the whole
+    /// chain at <paramref name="celsius"/>: the resistors' Johnson–Nyquist noise and the diodes' shot noise with that
+    /// temperature's kT and operating point; the amplifiers' stated voltage and current noise densities, which parts state
+    /// at 25 °C, unchanged. Null when the analysis fails there.
+    /// </summary>
+    public static double? AtStageInput(ElaboratedChain chain, StageNoiseFigures figures, double celsius)
+    {
+        var circuit = chain.Circuit.Without([]);
+        circuit.Temperature = PhysicalConstants.ZeroCelsius + celsius;
+        var result = NoiseCircuit.Compile(circuit).Analyse(figures.Request);
+        return result.Failure is null && figures.StageGain > 0 ? result.OutputRms / figures.StageGain : null;
+    }
+
     private static double PassingLevel(Model.Waveform waveform, TransferKind kind)
     {
         double offset = waveform.Offset?.Value.Value ?? 0;

@@ -3,6 +3,7 @@ using DesignRules.Loading;
 using DesignRules.Model;
 using DesignRules.Rules.Catalogue.Noise;
 using DesignRules.Rules.Evaluation;
+using DesignRules.Simulation.Noise;
 
 namespace DesignRules.Rules.Tests.Noise;
 
@@ -52,6 +53,27 @@ public sealed class NoiseRuleTests
         double expected = (120e-6 + (0.6e-6 * 65) + (vf / openLoop)) / (110e3 / 120e3);
         Assert.Equal(expected, deadZone.Value, expected * 0.01);
         Assert.Equal(-40, deadZone.Temperature);
+    }
+
+    [Fact]
+    public void The_noise_floor_at_the_cold_end_is_the_chains_noise_at_that_temperature()
+    {
+        var report = RuleFixture.Verify("noise/rectifier-min-signal-cold-end.yaml");
+        var floor = report.Designs.Single().StageFigures.Single(s => s.Key == "rect").Value.Single(f => f.Key == FigureKinds.NoiseFloorAtInput.Key);
+        Assert.Equal(-40, floor.Temperature);
+
+        // Johnson–Nyquist: a resistor's noise power 4kTR·Δf is proportional to the absolute temperature, so at -40 °C each
+        // resistor's share of the 25 °C output noise power scales by 233.15 K / 298.15 K; the amplifier's stated e_n and
+        // i_n stay (parts state them at 25 °C). In quadrature, referred to the input by the same gain. 1 %: the diodes'
+        // operating point and shot noise move a little with temperature too.
+        var design = Assert.Single(DesignLoader.LoadFiles([RuleFixture.Path("noise/rectifier-min-signal-cold-end.yaml")]).Designs);
+        var at25 = Assert.Single(new DesignEvaluation(design, RuleSet.Default).Analyses.Noise);
+        double thermal = at25.Result.Contributors.Where(c => c.Kind == NoiseKind.Thermal).Sum(c => c.Rms * c.Rms);
+        double other = at25.Result.Contributors.Where(c => c.Kind != NoiseKind.Thermal).Sum(c => c.Rms * c.Rms);
+        Assert.True(thermal > 0.2 * (thermal + other), "the resistors' share must be large enough for the check to see the temperature");
+        double expected = at25.NoiseAtStageInput * Math.Sqrt(((thermal * (233.15 / 298.15)) + other) / (thermal + other));
+        Assert.Equal(expected, floor.Value, expected * 0.01);
+        Assert.True(floor.Value < at25.NoiseAtStageInput * 0.99);
     }
 
     [Fact]

@@ -16,7 +16,8 @@ namespace DesignRules.Rules.Catalogue.Noise;
 /// form, rf/(rin + rf) or more for the inverting forms, depending on what holds the output side); the noise floor is the stage output's RMS noise over the band divided by the stage gain, taken
 /// <c>crest-factor</c> times (3: a Gaussian noise exceeds 3σ 0.27 % of the time, property of the normal distribution).
 /// Over a stated operating range the dead zone is taken at 25 °C and at both ends (offset plus drift × |T − 25 °C|, the
-/// diode drop moved by its coefficient, the GBW by its derating), and the widest counts.
+/// diode drop moved by its coefficient, the GBW by its derating) together with the noise there (the chain's noise analysed
+/// at that temperature), and the highest floor counts.
 /// </summary>
 internal sealed class SmallestSignalRule : Rule
 {
@@ -77,26 +78,30 @@ internal sealed class SmallestSignalRule : Rule
                 return (offsetAt + (vf / openLoop)) / fraction;
             }
 
+            // The floor over the operating range: the dead zone and the noise (Johnson–Nyquist noise grows with the
+            // absolute temperature) taken together at 25 °C and at each end; the highest floor counts and is named.
+            double crest = evaluation.Threshold(Id, "crest-factor", id);
             double? at = null;
             double deadZone = DeadZone(TemperatureBehaviour.Reference, out double offset);
+            double noise = figures.NoiseAtStageInput;
+            double floor = deadZone + (crest * noise);
             if (evaluation.Design.Temperature is { } range)
             {
                 foreach (double end in (double[])[range.Value.Low.Value, range.Value.High.Value])
                 {
-                    double there = DeadZone(end, out double offsetThere);
-                    if (there > deadZone)
+                    double zoneThere = DeadZone(end, out double offsetThere);
+                    double noiseThere = evaluation.Analyses.NoiseAtStageInput(figures, end) ?? noise;
+                    double floorThere = zoneThere + (crest * noiseThere);
+                    if (floorThere > floor)
                     {
-                        (deadZone, offset, at) = (there, offsetThere, end);
+                        (deadZone, offset, noise, floor, at) = (zoneThere, offsetThere, noiseThere, floorThere, end);
                     }
                 }
             }
 
-            double crest = evaluation.Threshold(Id, "crest-factor", id);
-            double noise = figures.NoiseAtStageInput;
-            double floor = deadZone + (crest * noise);
             double signal = minSignal.Value.Value;
             evaluation.Record(id, FigureKinds.RectifierDeadZone.Of(deadZone).AtTemperature(at));
-            evaluation.Record(id, FigureKinds.NoiseFloorAtInput.Of(noise));
+            evaluation.Record(id, FigureKinds.NoiseFloorAtInput.Of(noise).AtTemperature(at));
             var figure = FigureKinds.DeadZoneAndFloor.Of(floor).AtMost(signal).AtTemperature(at);
             evaluation.Record(id, figure);
             evaluation.Judged(id, "min-signal", Id);
