@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using System.Globalization;
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
@@ -56,8 +57,10 @@ internal static class ToleranceCorners
         var runs = new CornerRun?[jobs.Count];
 
         // The runs are independent: side by side on every core, each into its own slot, so the list keeps the jobs' order
-        // and each run's bits do not depend on which core ran it or when.
-        Parallel.For(0, jobs.Count, i =>
+        // and each run's bits do not depend on which core ran it or when. A core takes the next run only when its last is
+        // done (no ranges of runs per core), so one long run does not leave a core idle behind a queue of others.
+        var order = Partitioner.Create(Enumerable.Range(0, jobs.Count), EnumerablePartitionerOptions.NoBuffering);
+        Parallel.ForEach(order, i =>
         {
             var (corner, end) = jobs[i];
             var options = baseline[end] with { Values = corner.Values };
