@@ -66,6 +66,12 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
+    /// <summary>
+    /// True (the default) when the first settled transient asked for runs every band end's at once, side by side on the
+    /// cores (a check asks for them all); false runs each only when asked (a re-run that judges one rule).
+    /// </summary>
+    public bool BandEndsTogether { get; set; } = true;
+
     /// <summary>The design the analyses are of.</summary>
     public Design Design { get; } = design;
 
@@ -273,11 +279,41 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     {
         if (!transients.TryGetValue(end, out var result))
         {
-            result = PeriodicSteadyState.Run(RawChain(end), SteadyStateLimits.Default);
-            transients[end] = result;
+            RunSteady(end);
+            result = transients[end];
         }
 
         return result;
+    }
+
+    /// <summary>
+    /// Runs the settled transient at <paramref name="end"/> and, for a periodic source, at every other band end not yet
+    /// run: they are independent (each its own chain and circuit), so they run side by side on the cores, each result
+    /// the same bits as run alone. Every rule that asks for one asks for the others too.
+    /// </summary>
+    private void RunSteady(BandEnd end)
+    {
+        var chain = RawChain(end);
+        var ends = BandEndsTogether && chain.Period is not null && chain.Succeeded
+            ? BandEnds.Where(e => e == end || !transients.ContainsKey(e)).ToList()
+            : [end];
+
+        // Elaboration touches this object's caches: it stays on this thread; only the transients run in parallel.
+        var raws = ends.Select(RawChain).ToList();
+        var results = new SettledTransient[ends.Count];
+        if (ends.Count == 1)
+        {
+            results[0] = PeriodicSteadyState.Run(raws[0], SteadyStateLimits.Default);
+        }
+        else
+        {
+            Parallel.For(0, ends.Count, i => results[i] = PeriodicSteadyState.Run(raws[i], SteadyStateLimits.Default));
+        }
+
+        for (int i = 0; i < ends.Count; i++)
+        {
+            transients[ends[i]] = results[i];
+        }
     }
 
     private ElaboratedChain RawChain(BandEnd end)

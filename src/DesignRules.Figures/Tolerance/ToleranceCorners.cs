@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using System.Globalization;
 using DesignRules.Elaboration;
 using DesignRules.Simulation;
@@ -52,8 +53,14 @@ internal static class ToleranceCorners
         var corners = Corners(analyses, nominal);
         var jobs = corners.SelectMany(c => analyses.BandEnds.Select(e => (Corner: c, End: e))).ToList();
         var baseline = analyses.BandEnds.ToDictionary(e => e, e => analyses.Chain(e).Options);
+        var nominalRuns = analyses.BandEnds.ToDictionary(e => e, analyses.Steady);
         var runs = new CornerRun?[jobs.Count];
-        Parallel.For(0, jobs.Count, i =>
+
+        // The runs are independent: side by side on every core, each into its own slot, so the list keeps the jobs' order
+        // and each run's bits do not depend on which core ran it or when. A core takes the next run only when its last is
+        // done (no ranges of runs per core), so one long run does not leave a core idle behind a queue of others.
+        var order = Partitioner.Create(Enumerable.Range(0, jobs.Count), EnumerablePartitionerOptions.NoBuffering);
+        Parallel.ForEach(order, i =>
         {
             var (corner, end) = jobs[i];
             var options = baseline[end] with { Values = corner.Values };
@@ -63,7 +70,9 @@ internal static class ToleranceCorners
                 return;
             }
 
-            var steady = PeriodicSteadyState.Run(chain, SteadyStateLimits.Default);
+            // A corner moves resistors by their tolerance only: its steady state is near the nominal one at the same band
+            // end, so the run starts from there instead of from the operating point (see PeriodicSteadyState.RunFrom).
+            var steady = PeriodicSteadyState.RunFrom(chain, SteadyStateLimits.Default, nominalRuns[end]);
             if (steady.Settled && steady.Result.Succeeded && steady.Result.Time.Count >= 2)
             {
                 runs[i] = new CornerRun(corner, end, chain with { Window = steady.Window }, steady.Result);

@@ -36,7 +36,13 @@ internal sealed class DesignEvaluation : IAnalysisFailures
     public bool ConfirmsHint { get; private init; }
 
     /// <summary>A fresh evaluation of <paramref name="design"/> (a changed copy of this one's) under the same rule set, to confirm a fix hint.</summary>
-    public DesignEvaluation Refit(Design design) => new(design, ruleSet) { ConfirmsHint = true };
+    public DesignEvaluation Refit(Design design)
+    {
+        // A re-run judges one rule, which may need one band end's transient only: run each as asked, not all together.
+        var refit = new DesignEvaluation(design, ruleSet) { ConfirmsHint = true };
+        refit.Analyses.BandEndsTogether = false;
+        return refit;
+    }
 
     public DesignAnalyses Analyses { get; }
 
