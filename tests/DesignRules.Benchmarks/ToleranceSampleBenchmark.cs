@@ -102,14 +102,5 @@ public class ToleranceSampleBenchmark
     public double OldSample() => DcTransfer.Measure(design, worstCase.Variables.Options(baseline, Draw(sample++)), worstCase.Plan).Outputs[0];
 
     /// <summary>The variables of Monte Carlo sample <paramref name="index"/>, drawn as the analysis draws them.</summary>
-    private Variation Draw(int index)
-    {
-        var random = SampleDraws.For(settings.Seed, worstCase.Stage.StageId, index % settings.Samples);
-        var v = worstCase.Variables.Nominal;
-        for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
-        return v;
-    }
+    private Variation Draw(int index) => SampleDraws.Draw(worstCase, settings, index % settings.Samples);
 }

@@ -329,7 +329,10 @@ public sealed class VariedDcSolver
                 LinearisedFallbacks++;
             }
 
-            if (!WarmSolve(reference[i]))
+            // After linearised steps failed (Newton's method already, in low-rank form), the chord iterations, a weaker form of
+            // the same steps, are skipped: in the example's Monte Carlo they never solved a value the linearised steps had
+            // not (every fallback there is a rectifier taken across its dead zone, which only plain Newton settles).
+            if (!WarmSolve(reference[i], chord: linearisation is null))
             {
                 return Sweep(sourceId, values);
             }
@@ -614,13 +617,16 @@ public sealed class VariedDcSolver
         }
     }
 
-    private bool WarmSolve(double[] start)
+    private bool WarmSolve(double[] start, bool chord = true)
     {
         var context = solver.Context;
         var x = context.X;
-        Array.Copy(start, x, x.Length);
-        foreach (var device in compiled.Devices) device.Prime(x);
-        if (Chord()) return true;
+        if (chord)
+        {
+            Array.Copy(start, x, x.Length);
+            foreach (var device in compiled.Devices) device.Prime(x);
+            if (Chord()) return true;
+        }
 
         // Plain Newton from the reference solution (a diode that changed state, a stage driven into a limit).
         Array.Copy(start, x, x.Length);
