@@ -64,6 +64,10 @@ public sealed class DcSolutions
 /// whose diodes take several steps to settle but move the stage's output only through the stage's tiny output impedance.
 /// The stop is bounded (see <see cref="FigureConverged"/>): the figure unknowns are then within their tolerance of where
 /// the remaining steps would take them; the other unknowns of such a solution are not converged and must not be read.</para>
+/// <para>Where the nodes are named before the <see cref="ReferenceSweep"/>, its linearised steps solve only the equations
+/// those nodes reach (see <see cref="SweepLinearisation.Unknowns"/>): a stage behind whose input draws a current no voltage
+/// changes (an amplifier input's bias current, a capacitor at DC) is left out exactly, with its reference values, while a
+/// stage that loads the named nodes through a resistor or a diode is solved with them.</para>
 /// </summary>
 public sealed class VariedDcSolver
 {
