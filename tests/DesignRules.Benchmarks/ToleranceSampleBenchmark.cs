@@ -17,7 +17,8 @@ namespace DesignRules.Benchmarks;
 /// warm-started (elaborate the whole design, compile, solve every level from zero); "sample" is one Monte Carlo sample
 /// as the analysis runs it now (set the values in the compiled chain, solve warm from the nominal solution by linearised
 /// steps: the nominal Jacobian of each level factored once, the sample's changes as low-rank updates, the residual
-/// checked at every step, a level accepted once the stage's own nodes have converged); "without linearised steps" is the chord-and-Newton warm path alone, for comparison.
+/// checked at every step, a level accepted once the stage's own nodes have converged, only the equations those nodes reach
+/// solved: for both stages the averaging filter behind the rectifier is left out); "without linearised steps" is the chord-and-Newton warm path alone, for comparison.
 /// BenchmarkDotNet needs benchmark classes to be public and unsealed.
 /// </summary>
 [MemoryDiagnoser]
@@ -102,14 +103,5 @@ public class ToleranceSampleBenchmark
     public double OldSample() => DcTransfer.Measure(design, worstCase.Variables.Options(baseline, Draw(sample++)), worstCase.Plan).Outputs[0];
 
     /// <summary>The variables of Monte Carlo sample <paramref name="index"/>, drawn as the analysis draws them.</summary>
-    private Variation Draw(int index)
-    {
-        var random = SampleDraws.For(settings.Seed, worstCase.Stage.StageId, index % settings.Samples);
-        var v = worstCase.Variables.Nominal;
-        for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
-        return v;
-    }
+    private Variation Draw(int index) => SampleDraws.Draw(worstCase, settings, index % settings.Samples);
 }

@@ -17,6 +17,29 @@ internal static class SampleDraws
         return new Random((int)(h >> 33));
     }
 
+    /// <summary>
+    /// The variables of Monte Carlo sample <paramref name="sample"/> of a stage, as every run draws them (the one place the
+    /// draw order is written): each resistor, each amplifier's offset, each bias, each diode, then the offset currents of
+    /// parts that state one, then, with a declared operating range, the temperature uniformly over it. The later draws come
+    /// last so that designs without offset currents or a range keep the samples they had.
+    /// </summary>
+    public static Variation Draw(WorstCaseAnalysis worstCase, MonteCarloSettings settings, int sample)
+    {
+        var variables = worstCase.Variables;
+        var random = For(settings.Seed, worstCase.Stage.StageId, sample);
+        var v = variables.Nominal;
+        for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = Unit(random, settings.Distribution);
+        for (int k = 0; k < v.OffsetCurrents.Length; k++)
+        {
+            if (variables.Amplifiers[k].MaximumOffsetCurrent > 0) v.OffsetCurrents[k] = Unit(random, settings.Distribution);
+        }
+
+        return worstCase.TemperatureRange is { } range ? v with { Temperature = range.Low + ((range.High - range.Low) * random.NextDouble()) } : v;
+    }
+
     /// <summary>A draw in −1 … +1: a normal with the extremes at ±3σ, truncated there, or a uniform.</summary>
     public static double Unit(Random random, ToleranceDistribution distribution)
     {
@@ -98,31 +121,11 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
     public static MonteCarloYield Run(WorstCaseAnalysis worstCase, MonteCarloSettings settings, int first, int count, int maxDegreeOfParallelism = -1)
     {
         int samples = Math.Max(0, count);
-        var variables = worstCase.Variables;
         var errors = new double[samples];
         var gains = new double[samples];
         Parallel.For(0, samples, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, i =>
         {
-            var random = SampleDraws.For(settings.Seed, worstCase.Stage.StageId, first + i);
-            var v = variables.Nominal;
-            for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
-
-            // Drawn last and only for parts that state one, so that samples of designs without offset currents stay as they were.
-            for (int k = 0; k < v.OffsetCurrents.Length; k++)
-            {
-                if (variables.Amplifiers[k].MaximumOffsetCurrent > 0) v.OffsetCurrents[k] = SampleDraws.Unit(random, settings.Distribution);
-            }
-
-            // With a declared operating range the temperature is drawn uniformly over it, last, so that designs without
-            // one keep their samples.
-            if (worstCase.TemperatureRange is { } range)
-            {
-                v = v with { Temperature = range.Low + ((range.High - range.Low) * random.NextDouble()) };
-            }
-
+            var v = SampleDraws.Draw(worstCase, settings, first + i);
             var transfer = worstCase.Circuit.Measure(v);
             if (!transfer.Succeeded)
             {

@@ -34,10 +34,20 @@ internal sealed class SweepLinearisation
     /// <summary>Order of the system.</summary>
     public int Size { get; }
 
+    /// <summary>
+    /// The unknowns a linearised step solves, ascending: every unknown, or, where the caller named the unknowns its figures
+    /// read, those and every unknown their equations reach (the closed system they belong to); the others keep their
+    /// reference values and must not be read.
+    /// </summary>
+    public required int[] Unknowns { get; init; }
+
+    /// <summary>Per unknown: its place in <see cref="Unknowns"/>, or −1 where it is not solved.</summary>
+    public required int[] Compressed { get; init; }
+
     /// <summary>The reference solution at each swept value.</summary>
     public required double[][] Solutions { get; init; }
 
-    /// <summary>The factored Jacobian at each reference solution (reference element values).</summary>
+    /// <summary>The factored Jacobian at each reference solution (reference element values), over <see cref="Unknowns"/> alone.</summary>
     public required DenseLu<double>[] Jacobians { get; init; }
 
     /// <summary>The linear devices' right-hand side at each swept value.</summary>
@@ -83,7 +93,15 @@ internal sealed class SweepLinearisation
     /// Linearises a successful sweep of <paramref name="solver"/>'s circuit over <paramref name="values"/>, with the
     /// element values the solver holds now (those the sweep was solved with); null when a Jacobian is singular there.
     /// </summary>
-    public static SweepLinearisation? Of(NewtonSolver solver, string sourceId, double[] values, DcSolutions sweep)
+    /// <param name="solver">The solver holding the circuit, at the reference element values.</param>
+    /// <param name="sourceId">The swept source.</param>
+    /// <param name="values">The swept values.</param>
+    /// <param name="sweep">The solved reference sweep.</param>
+    /// <param name="figureUnknowns">
+    /// Per unknown, whether the caller's figures read it (null or none set: every unknown is solved). With some set, only
+    /// the unknowns their equations reach are solved (see <see cref="Unknowns"/>).
+    /// </param>
+    public static SweepLinearisation? Of(NewtonSolver solver, string sourceId, double[] values, DcSolutions sweep, bool[]? figureUnknowns = null)
     {
         var compiled = solver.Circuit;
         var devices = compiled.Devices;
@@ -103,8 +121,15 @@ internal sealed class SweepLinearisation
             Temperature = context.Temperature,
             OverrideSource = sourceId,
         };
+        var dense = new LoadContext(n, compiled.Layout.StateCount)
+        {
+            Mode = AnalysisMode.Dc,
+            JunctionShunt = context.JunctionShunt,
+            Temperature = context.Temperature,
+            OverrideSource = sourceId,
+        };
         var solutions = new double[values.Length][];
-        var jacobians = new DenseLu<double>[values.Length];
+        var fullJacobians = new double[values.Length][];
         var linearRhs = new double[values.Length][];
         var diodes = Enumerable.Range(0, devices.Length).Where(i => devices[i] is DiodeDevice).ToArray();
         var diodeConductances = new double[values.Length][];
@@ -120,10 +145,15 @@ internal sealed class SweepLinearisation
             context.System.Clear();
             context.Limited = false;
             foreach (var device in devices) device.Load(context);
-            var jacobian = new DenseLu<double>(n, compiled.Ordering);
-            jacobian.CopyMatrixFrom(context.System);
-            if (context.Limited || jacobian.Factor() >= 0) return null;
-            jacobians[l] = jacobian;
+            if (context.Limited) return null;
+
+            // The same Jacobian in a dense system of its own (the solver's may be banded), to read its entries by position.
+            dense.OverrideValue = values[l];
+            Array.Copy(sweep[l], dense.X, n);
+            dense.System.Clear();
+            dense.Limited = false;
+            foreach (var device in devices) device.Load(dense);
+            fullJacobians[l] = (double[])dense.System.Matrix.Clone();
             diodeConductances[l] = [.. diodes.Select(i => ((DiodeDevice)devices[i]).LoadedConductance(context.JunctionShunt))];
             amplifierSlopes[l] = [.. amplifiers.Select(i => ((AmplifierDevice)devices[i]).LoadedDriveSlope)];
             amplifierConductances[l] = [.. amplifiers.Select(i => ((AmplifierDevice)devices[i]).LoadedOutputConductance)];
@@ -170,6 +200,60 @@ internal sealed class SweepLinearisation
         foreach (var (r, _) in positions) nonlinearRowStart[r + 1]++;
         for (int r = 0; r < n; r++) nonlinearRowStart[r + 1] += nonlinearRowStart[r];
 
+        // The unknowns the figures' equations reach: the figure unknowns, then every unknown a row of the set has an entry
+        // in, until none is added (at most n rounds of the work list). Rows of the set then hold entries only in its
+        // columns, so the set's equations are a closed system whose solution is the whole circuit's at those unknowns,
+        // exactly: what lies beyond (a stage whose input draws a current no voltage changes, such as the bias current of
+        // an amplifier input behind a capacitor) cannot move them. The Jacobian is block triangular, so the set's block is
+        // invertible wherever the whole one is.
+        var inSet = new bool[n];
+        bool named = figureUnknowns is not null && figureUnknowns.Any(f => f);
+        var work = new Stack<int>();
+        for (int i = 0; i < n; i++)
+        {
+            if (named && !figureUnknowns![i]) continue;
+            inSet[i] = true;
+            work.Push(i);
+        }
+
+        while (work.Count > 0)
+        {
+            int row = work.Pop();
+            for (int e = rowStart[row]; e < rowStart[row + 1]; e++) Reach(columns[e]);
+            for (int e = nonlinearRowStart[row]; e < nonlinearRowStart[row + 1]; e++) Reach(positions[e].Item2);
+        }
+
+        void Reach(int column)
+        {
+            if (inSet[column]) return;
+            inSet[column] = true;
+            work.Push(column);
+        }
+
+        var unknowns = Enumerable.Range(0, n).Where(i => inSet[i]).ToArray();
+        var compressed = new int[n];
+        Array.Fill(compressed, -1);
+        for (int i = 0; i < unknowns.Length; i++) compressed[unknowns[i]] = i;
+        int m = unknowns.Length;
+        var jacobians = new DenseLu<double>[values.Length];
+        for (int l = 0; l < values.Length; l++)
+        {
+            var full = fullJacobians[l];
+            var jacobian = new DenseLu<double>(m, m == n ? compiled.Ordering : null);
+            for (int r = 0; r < m; r++)
+            {
+                int at = unknowns[r] * n;
+                for (int c = 0; c < m; c++)
+                {
+                    double a = full[at + unknowns[c]];
+                    if (a != 0) jacobian.Add(r, c, a);
+                }
+            }
+
+            if (jacobian.Factor() >= 0) return null;
+            jacobians[l] = jacobian;
+        }
+
         var conductances = new double[devices.Length];
         var saturation = new double[devices.Length];
         for (int i = 0; i < devices.Length; i++)
@@ -180,6 +264,8 @@ internal sealed class SweepLinearisation
 
         return new SweepLinearisation(sourceId, values, n)
         {
+            Unknowns = unknowns,
+            Compressed = compressed,
             Solutions = solutions,
             Jacobians = jacobians,
             LinearRhs = linearRhs,
@@ -213,7 +299,8 @@ internal sealed class SweepLinearisation
 
     /// <summary>
     /// J0⁻¹·u at swept value <paramref name="level"/>, u the vector with +1 at unknown <paramref name="a"/> and −1 at
-    /// unknown <paramref name="b"/> (−1: none), cached under <paramref name="key"/> (2·device index + 0 or 1): how the
+    /// unknown <paramref name="b"/> (−1: none; both unknowns of <see cref="Unknowns"/>), over <see cref="Unknowns"/> (indexed
+    /// as there), cached under <paramref name="key"/> (2·device index + 0 or 1): how the
     /// reference solution answers a unit change of a device's conductance, or of one of its rows. Computed on first use,
     /// by whichever thread asks first (the result is the same whoever computes it).
     /// </summary>
@@ -221,10 +308,11 @@ internal sealed class SweepLinearisation
     {
         var row = responses[level] ?? Interlocked.CompareExchange(ref responses[level], new double[]?[2 * Conductances.Length], null) ?? responses[level];
         if (Volatile.Read(ref row[key]) is { } known) return known;
-        var u = new double[Size];
-        if (a >= 0) u[a] += 1;
-        if (b >= 0) u[b] -= 1;
-        Jacobians[level].Solve(u, new double[Size]);
+        int m = Unknowns.Length;
+        var u = new double[m];
+        if (a >= 0) u[Compressed[a]] += 1;
+        if (b >= 0) u[Compressed[b]] -= 1;
+        Jacobians[level].Solve(u, new double[m]);
         return Interlocked.CompareExchange(ref row[key], u, null) ?? u;
     }
 }

@@ -64,6 +64,10 @@ public sealed class DcSolutions
 /// whose diodes take several steps to settle but move the stage's output only through the stage's tiny output impedance.
 /// The stop is bounded (see <see cref="FigureConverged"/>): the figure unknowns are then within their tolerance of where
 /// the remaining steps would take them; the other unknowns of such a solution are not converged and must not be read.</para>
+/// <para>Where the nodes are named before the <see cref="ReferenceSweep"/>, its linearised steps solve only the equations
+/// those nodes reach (see <see cref="SweepLinearisation.Unknowns"/>): a stage behind whose input draws a current no voltage
+/// changes (an amplifier input's bias current, a capacitor at DC) is left out exactly, with its reference values, while a
+/// stage that loads the named nodes through a resistor or a diode is solved with them.</para>
 /// </summary>
 public sealed class VariedDcSolver
 {
@@ -86,6 +90,9 @@ public sealed class VariedDcSolver
     private readonly LoadContext nonlinear;
     private readonly double[] step;
     private readonly double[] solveScratch;
+
+    /// <summary>A linearised step over the unknowns its linearisation solves (<see cref="SweepLinearisation.Unknowns"/>).</summary>
+    private readonly double[] compressedStep;
     private readonly List<JacobianUpdate> updates = [];
     private double[][] responses = [];
     private double[] changes = [];
@@ -94,6 +101,9 @@ public sealed class VariedDcSolver
     private int[] updatePivots = [];
     private double[] updateRhs = [];
     private bool chordValid;
+
+    /// <summary>False when the present values change a resistor outside the unknowns the linearisation solves.</summary>
+    private bool linearisedUsable = true;
 
     /// <summary>Per unknown: whether it is a voltage the caller's figures read (all false: none named).</summary>
     private bool[] figureUnknowns;
@@ -112,6 +122,7 @@ public sealed class VariedDcSolver
         residual = new double[n];
         step = new double[n];
         solveScratch = new double[n];
+        compressedStep = new double[n];
         nonlinear = new LoadContext(n, compiled.Layout.StateCount)
         {
             Mode = AnalysisMode.Dc,
@@ -283,7 +294,7 @@ public sealed class VariedDcSolver
         var sweep = Sweep(sourceId, values);
         if (sweep.Succeeded)
         {
-            sweep.Linearisation = SweepLinearisation.Of(solver, sourceId, [.. values], sweep);
+            sweep.Linearisation = SweepLinearisation.Of(solver, sourceId, [.. values], sweep, hasFigureUnknowns ? figureUnknowns : null);
             chordValid = false;
         }
 
@@ -319,7 +330,7 @@ public sealed class VariedDcSolver
             {
                 nonlinear.OverrideSource = sourceId;
                 nonlinear.OverrideValue = values[i];
-                if (LinearisedSolve(linearisation, i))
+                if (linearisedUsable && LinearisedSolve(linearisation, i))
                 {
                     LinearisedValues++;
                     solutions[i] = (double[])context.X.Clone();
@@ -329,7 +340,10 @@ public sealed class VariedDcSolver
                 LinearisedFallbacks++;
             }
 
-            if (!WarmSolve(reference[i]))
+            // After linearised steps failed (Newton's method already, in low-rank form), the chord iterations, a weaker form of
+            // the same steps, are skipped: in the example's Monte Carlo they never solved a value the linearised steps had
+            // not (every fallback there is a rectifier taken across its dead zone, which only plain Newton settles).
+            if (!WarmSolve(reference[i], chord: linearisation is null))
             {
                 return Sweep(sourceId, values);
             }
@@ -349,11 +363,16 @@ public sealed class VariedDcSolver
     private void PrepareLinearised(SweepLinearisation linearisation)
     {
         var devices = compiled.Devices;
+        var solved = linearisation.Compressed;
+        bool Solved(int unknown) => unknown < 0 || solved[unknown] >= 0;
         updates.Clear();
+        linearisedUsable = true;
         for (int i = 0; i < devices.Length; i++)
         {
             if (devices[i] is ResistorDevice resistor && resistor.Conductance != linearisation.Conductances[i])
             {
+                // A changed resistor the solved equations do not reach would need the unknowns left out: no linearised steps.
+                if (!Solved(resistor.A) || !Solved(resistor.B)) linearisedUsable = false;
                 updates.Add(new JacobianUpdate(2 * i, resistor.A, resistor.B, resistor.A, resistor.B, resistor.Conductance - linearisation.Conductances[i], null, -1));
             }
         }
@@ -362,6 +381,7 @@ public sealed class VariedDcSolver
         {
             int i = linearisation.Diodes[j];
             var diode = (DiodeDevice)devices[i];
+            if (!Solved(diode.Junction) || !Solved(diode.Cathode)) continue;
             updates.Add(new JacobianUpdate(2 * i, diode.Junction, diode.Cathode, diode.Junction, diode.Cathode, 0, diode, j));
         }
 
@@ -369,8 +389,10 @@ public sealed class VariedDcSolver
         {
             int i = linearisation.Amplifiers[j];
             var nodes = ((AmplifierDevice)devices[i]).Nodes;
-            updates.Add(new JacobianUpdate(2 * i, nodes.Drive, -1, nodes.Drive, -1, 0, devices[i], j));
-            updates.Add(new JacobianUpdate((2 * i) + 1, nodes.Output, -1, nodes.Output, nodes.Stage, 0, devices[i], j));
+
+            // An amplifier of a stage beyond the solved equations (its drive and output rows not among them) is left as it was.
+            if (Solved(nodes.Drive)) updates.Add(new JacobianUpdate(2 * i, nodes.Drive, -1, nodes.Drive, -1, 0, devices[i], j));
+            if (Solved(nodes.Output) && Solved(nodes.Stage)) updates.Add(new JacobianUpdate((2 * i) + 1, nodes.Output, -1, nodes.Output, nodes.Stage, 0, devices[i], j));
         }
 
         int k = updates.Count;
@@ -415,6 +437,10 @@ public sealed class VariedDcSolver
         var nonlinearStart = linearisation.NonlinearRowStart;
         var nonlinearColumns = linearisation.NonlinearColumns;
         var jacobian = linearisation.Jacobians[level];
+        var unknowns = linearisation.Unknowns;
+        var solved = linearisation.Compressed;
+        int count = unknowns.Length;
+        var y = compressedStep;
         double relative = solver.Limits.RelativeTolerance;
         double shunt = nonlinear.JunctionShunt;
         double previousSize = double.PositiveInfinity;
@@ -426,11 +452,16 @@ public sealed class VariedDcSolver
             foreach (int d in nonlinearDevices) devices[d].Load(nonlinear);
 
             // r = b_L − A_L·x − Σ ΔG·u·(uᵀ·x) + (b_N − A_N·x); the non-linear entries are cleared as they are read.
+            // Rows outside the solved unknowns are only cleared (their equations are not solved; see SweepLinearisation.Unknowns).
             var r = step;
             for (int row = 0; row < n; row++)
             {
                 double sum = linearRhs[row] + rhs[row];
-                for (int e = rowStart[row]; e < rowStart[row + 1]; e++) sum -= entries[e] * x[columns[e]];
+                if (solved[row] >= 0)
+                {
+                    for (int e = rowStart[row]; e < rowStart[row + 1]; e++) sum -= entries[e] * x[columns[e]];
+                }
+
                 int at = row * n;
                 for (int e = nonlinearStart[row]; e < nonlinearStart[row + 1]; e++)
                 {
@@ -482,8 +513,9 @@ public sealed class VariedDcSolver
                 active[m++] = j;
             }
 
-            // y = J0⁻¹·r, then the Woodbury correction for the updates.
-            jacobian.Solve(r, solveScratch);
+            // y = J0⁻¹·r over the solved unknowns, then the Woodbury correction for the updates.
+            for (int i = 0; i < count; i++) y[i] = r[unknowns[i]];
+            jacobian.Solve(y, solveScratch);
             if (m > 0)
             {
                 for (int j = 0; j < m; j++)
@@ -492,10 +524,10 @@ public sealed class VariedDcSolver
                     for (int c = 0; c < m; c++)
                     {
                         var z = responses[active[c]] ??= linearisation.Response(level, updates[active[c]].Key, updates[active[c]].A, updates[active[c]].B);
-                        update[(j * m) + c] = (j == c ? 1 : 0) + (changes[j] * (At(z, u.C) - At(z, u.D)));
+                        update[(j * m) + c] = (j == c ? 1 : 0) + (changes[j] * (At(z, solved, u.C) - At(z, solved, u.D)));
                     }
 
-                    updateRhs[j] = changes[j] * (At(r, u.C) - At(r, u.D));
+                    updateRhs[j] = changes[j] * (At(y, solved, u.C) - At(y, solved, u.D));
                 }
 
                 if (!SmallFactor(update, updatePivots, m)) return false;
@@ -505,7 +537,7 @@ public sealed class VariedDcSolver
                     double w = updateRhs[j];
                     if (w == 0) continue;
                     var z = responses[active[j]];
-                    for (int i = 0; i < n; i++) r[i] -= w * z[i];
+                    for (int i = 0; i < count; i++) y[i] -= w * z[i];
                 }
             }
 
@@ -513,12 +545,13 @@ public sealed class VariedDcSolver
             // unknown and over the figure unknowns alone.
             bool converged = !nonlinear.Limited;
             double size = 0, figureSize = 0;
-            for (int i = 0; i < n; i++)
+            for (int s = 0; s < count; s++)
             {
-                double next = x[i] + r[i];
+                int i = unknowns[s];
+                double next = x[i] + y[s];
                 if (!double.IsFinite(next)) return false;
                 double allowed = (relative * Math.Max(Math.Abs(next), Math.Abs(x[i]))) + tolerance[i];
-                double moved = Math.Abs(r[i]) / allowed;
+                double moved = Math.Abs(y[s]) / allowed;
                 if (moved > 1) converged = false;
                 size = Math.Max(size, moved);
                 if (figureUnknowns[i]) figureSize = Math.Max(figureSize, moved);
@@ -573,6 +606,9 @@ public sealed class VariedDcSolver
 
     private static double At(double[] x, int index) => index >= 0 ? x[index] : 0;
 
+    /// <summary>Entry <paramref name="index"/> (an unknown, −1: none) of a vector over the solved unknowns only.</summary>
+    private static double At(double[] compressed, int[] solved, int index) => index >= 0 ? compressed[solved[index]] : 0;
+
     /// <summary>LU with partial pivoting of a small dense k×k matrix in place; false when it is singular.</summary>
     private static bool SmallFactor(double[] a, int[] pivots, int k)
     {
@@ -614,13 +650,16 @@ public sealed class VariedDcSolver
         }
     }
 
-    private bool WarmSolve(double[] start)
+    private bool WarmSolve(double[] start, bool chord = true)
     {
         var context = solver.Context;
         var x = context.X;
-        Array.Copy(start, x, x.Length);
-        foreach (var device in compiled.Devices) device.Prime(x);
-        if (Chord()) return true;
+        if (chord)
+        {
+            Array.Copy(start, x, x.Length);
+            foreach (var device in compiled.Devices) device.Prime(x);
+            if (Chord()) return true;
+        }
 
         // Plain Newton from the reference solution (a diode that changed state, a stage driven into a limit).
         Array.Copy(start, x, x.Length);

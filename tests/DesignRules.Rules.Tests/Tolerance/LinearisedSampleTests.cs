@@ -22,18 +22,6 @@ public sealed class LinearisedSampleTests
         return ToleranceAnalyses.WorstCase(evaluation, ToleranceAnalyses.Stages(evaluation).Single(s => s.StageId == stageId));
     }
 
-    /// <summary>The variables of Monte Carlo sample <paramref name="index"/>, drawn as the analysis draws them.</summary>
-    private static Variation Draw(ToleranceVariables variables, MonteCarloSettings settings, string stageId, int index)
-    {
-        var random = SampleDraws.For(settings.Seed, stageId, index);
-        var v = variables.Nominal;
-        for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-        for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
-        return v;
-    }
-
     [Theory]
     [InlineData("preamp")]
     [InlineData("rectifier")]
@@ -42,11 +30,10 @@ public sealed class LinearisedSampleTests
     {
         var worstCase = Stage(stageId);
         var circuit = worstCase.Circuit;
-        var variables = worstCase.Variables;
         var settings = new MonteCarloSettings(200, 20261203, ToleranceDistribution.Normal);
         for (int i = 0; i < settings.Samples; i++)
         {
-            var v = Draw(variables, settings, stageId, i);
+            var v = SampleDraws.Draw(worstCase, settings, i);
 
             circuit.Linearised = true;
             var fast = circuit.Measure(v);
@@ -75,11 +62,10 @@ public sealed class LinearisedSampleTests
         // nodes have converged; the rectifier stage drives the linear smoothing filter.
         var worstCase = Stage(stageId);
         var circuit = worstCase.Circuit;
-        var variables = worstCase.Variables;
         var settings = new MonteCarloSettings(400, 20261204, ToleranceDistribution.Normal);
         for (int i = 0; i < settings.Samples; i++)
         {
-            var v = Draw(variables, settings, stageId, i);
+            var v = SampleDraws.Draw(worstCase, settings, i);
 
             var stopped = circuit.Measure(v);
             circuit.FigureFocus = false;
