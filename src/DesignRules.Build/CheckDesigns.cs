@@ -137,6 +137,9 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
     /// <summary>Tells servers of one task folder apart (tests of "another tool identity"); empty normally.</summary>
     public string? ServerSalt { get; set; }
 
+    /// <summary>The servers' socket folder (tests); null for the per-user default.</summary>
+    internal string? ServerSocketFolder { get; set; }
+
     /// <inheritdoc />
     public override bool Execute()
     {
@@ -211,7 +214,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
         var hostAsError = BuildEngine is IBuildEngine8 engine ? engine.ShouldTreatWarningAsError : (Func<string, bool>?)null;
         if (Server && Served(call, hostAsError) is { } served)
         {
-            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), null), cancellation,
+            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), cancellation,
                 out var whyNot);
             if (result is not null)
             {
@@ -291,7 +294,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
     private static string? Blank(string? text) => string.IsNullOrWhiteSpace(text) ? null : text;
 
     /// <summary>The folder of the task assembly, where the server's assembly lies beside it.</summary>
-    private static string TaskFolder => Path.GetDirectoryName(typeof(CheckDesigns).Assembly.Location) ?? AppContext.BaseDirectory;
+    internal static string TaskFolder => Path.GetDirectoryName(typeof(CheckDesigns).Assembly.Location) ?? AppContext.BaseDirectory;
 
     /// <summary>Hands each entry the run layer logs to MSBuild's logger (entries may come from worker threads).</summary>
     private sealed class TaskLog(TaskLoggingHelper log) : IBuildLog
