@@ -61,10 +61,11 @@ internal static class ServerClient
             return (null, folderProblem);
         }
 
-        using var socket = await ConnectOrStart(address, options, cancellation).ConfigureAwait(false);
+        var (connected, startProblem) = await ConnectOrStart(address, options, cancellation).ConfigureAwait(false);
+        using var socket = connected;
         if (socket is null)
         {
-            return (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not start listening within {ServerSettings.StartLimit.TotalSeconds:0} s"));
+            return (null, startProblem);
         }
 
         // Cancelling the build closes the connection: the server stops sending and abandons the run's result.
@@ -125,12 +126,12 @@ internal static class ServerClient
         }
     }
 
-    /// <summary>Connects to the server of <paramref name="address"/>, starting it when none listens; null when none came up in time.</summary>
-    private static async Task<Socket?> ConnectOrStart(ServerAddress address, ServerOptions options, CancellationToken cancellation)
+    /// <summary>Connects to the server of <paramref name="address"/>, starting it when none listens; no socket (and why) when none came up in time.</summary>
+    private static async Task<(Socket? Socket, string? Problem)> ConnectOrStart(ServerAddress address, ServerOptions options, CancellationToken cancellation)
     {
         if (await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false) is { } running)
         {
-            return running;
+            return (running, null);
         }
 
         using var started = Start(address, options);
@@ -140,18 +141,20 @@ internal static class ServerClient
             await Task.Delay(TimeSpan.FromMilliseconds(40), cancellation).ConfigureAwait(false);
             if (await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false) is { } socket)
             {
-                return socket;
+                return (socket, null);
             }
 
             // A server that exited at once (another one won a race and took the lock: try once more to reach that one;
             // or it could not listen) is not waited for.
             if (started.HasExited)
             {
-                return await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false);
+                return await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false) is { } winner
+                    ? (winner, null)
+                    : (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server exited at once (exit code {started.ExitCode})"));
             }
         }
 
-        return null;
+        return (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not start listening within {ServerSettings.StartLimit.TotalSeconds:0} s"));
     }
 
     private static async Task<Socket?> TryConnect(string socketPath, CancellationToken cancellation)

@@ -179,6 +179,15 @@ public sealed class EvaluationServerTests : IDisposable
     }
 
     [Fact]
+    public void The_task_and_the_server_find_the_same_address_however_the_folder_is_spelt()
+    {
+        var folder = CheckDesigns.TaskFolder;
+
+        Assert.Equal(ServerAddress.For(folder, null).SocketPath, ServerAddress.For(folder + Path.DirectorySeparatorChar, null).SocketPath);
+        Assert.Equal(ServerAddress.For(folder, null).SocketPath, ServerAddress.For(AppContext.BaseDirectory, null).SocketPath);
+    }
+
+    [Fact]
     public void A_server_refuses_a_run_in_another_protocol_version()
     {
         Serve("served");

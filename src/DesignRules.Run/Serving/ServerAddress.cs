@@ -27,7 +27,9 @@ internal sealed record ServerAddress(string Folder, string Identity)
     /// <summary>The address of the server for the task folder <paramref name="folder"/>; <paramref name="salt"/> tells test servers apart.</summary>
     public static ServerAddress For(string folder, string? salt)
     {
-        var full = Path.GetFullPath(folder);
+        // The server finds its folder as AppContext.BaseDirectory (with a trailing separator), the task as its assembly's
+        // folder (without): one spelling, or the two would hash to two addresses and never meet.
+        var full = Path.TrimEndingDirectorySeparator(Path.GetFullPath(folder));
         return new ServerAddress(full, ComputeIdentity(full, salt));
     }
 
