@@ -55,11 +55,13 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     private ResistorPowers? resistorPowers;
     private LoopGainFigures? loopGains;
     private StepFigures? steps;
-    private readonly Dictionary<(string ElementId, double Limit), CapacitiveLoadFix?> capacitiveLoads = [];
+    private readonly Dictionary<(string ElementId, double Limit, double? Celsius), CapacitiveLoadFix?> capacitiveLoads = [];
     private IReadOnlyList<StageNoiseFigures>? noise;
     private IReadOnlyList<GbwAtTemperature>? gbwEnds;
     private readonly Dictionary<double, (AcResult Sweep, SmallSignal? Small)> acAt = [];
     private readonly Dictionary<double, LoopGainFigures> loopGainsAt = [];
+    private readonly Dictionary<double, StepFigures> stepsAt = [];
+    private readonly Dictionary<string, double?> deadZoneFractions = [];
 
     public MonteCarloSettings MonteCarlo { get; } = monteCarlo;
 
@@ -193,13 +195,19 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     /// <summary>Every stage output's answer to a small step at the source (its record set by <see cref="LoopGains"/>).</summary>
     public StepFigures Steps => steps ??= StepAnalyses.Compute(LoopGains);
 
+    /// <summary>Every stage output's answer to a small step (as <see cref="Steps"/>) with the GBWs of <paramref name="end"/>.</summary>
+    public StepFigures StepsAt(GbwAtTemperature end) =>
+        stepsAt.TryGetValue(end.Celsius, out var s) ? s : stepsAt[end.Celsius] = StepAnalyses.Compute(LoopGainsAt(end));
+
     /// <summary>
     /// The capacitive load on an amplifier's output and, when its margin is below <paramref name="minPhaseMargin"/> °,
     /// what restores it (searched on variants of the compiled circuit); null when the output drives no capacitance.
+    /// <paramref name="end"/> names the GBW end of the operating range the loop was found at (<see cref="LoopGainsAt"/>);
+    /// null for the 25 °C loop of <see cref="LoopGains"/>.
     /// </summary>
-    public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin) =>
-        capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin), out var c) ? c
-        : capacitiveLoads[(loop.ElementId, minPhaseMargin)] = CapacitiveLoadVariants.Compute(LoopGains.Chain, loop, minPhaseMargin);
+    public CapacitiveLoadFix? CapacitiveLoad(AmplifierLoop loop, double minPhaseMargin, GbwAtTemperature? end = null) =>
+        capacitiveLoads.TryGetValue((loop.ElementId, minPhaseMargin, end?.Celsius), out var c) ? c
+        : capacitiveLoads[(loop.ElementId, minPhaseMargin, end?.Celsius)] = CapacitiveLoadVariants.Compute(end?.Chain ?? LoopGains.Chain, loop, minPhaseMargin);
 
     /// <summary>
     /// The noise at the output of every stage whose requirements ask for it (<c>snr</c>, <c>noise</c>, a rectifier's
@@ -281,6 +289,14 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
 
         return chain;
     }
+
+    /// <summary>
+    /// The fraction of a small signal at a precision rectifier stage's input that reaches its amplifier's inputs while the
+    /// loop is open in the dead zone (<see cref="DeadZoneFraction"/>), on the nominal chain; null when it cannot be measured.
+    /// </summary>
+    public double? DeadZoneFractionOf(StageProbe stage, AmplifierProbe amplifier) =>
+        deadZoneFractions.TryGetValue(amplifier.ElementId, out var f) ? f
+        : deadZoneFractions[amplifier.ElementId] = DeadZoneFraction.Of(Chain(BandEnd.Top), stage, amplifier);
 
     public OperatingPointResult OperatingPoint()
     {

@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using DesignRules.Diagnostics;
 using DesignRules.Rules;
 using Scriban;
@@ -66,7 +67,9 @@ public static class DatasheetPages
         // one at a time they would keep a second core idle); they are written below in the designs' order, so the folder,
         // the manifest and the diagnostics come out the same whatever order the renderings finished in.
         var rendered = new (Dictionary<string, string>? Contents, List<Diagnostic> Diagnostics)[designs.Count];
-        Parallel.For(0, designs.Count, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
+        // One design per core at a time, as the check does (DesignCheck.Run), so no core ends holding a range of several.
+        var indices = Partitioner.Create(Enumerable.Range(0, designs.Count), EnumerablePartitionerOptions.NoBuffering);
+        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
         {
             if (!designs[i].Keep)
             {

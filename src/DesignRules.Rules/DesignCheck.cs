@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using DesignRules.Diagnostics;
 using DesignRules.Loading;
 using DesignRules.Model;
@@ -50,7 +51,11 @@ public static class DesignCheck
         var perDesign = new (List<Finding> Findings, DesignSummary Summary)[loaded.Designs.Count];
         var gate = new object();
         var completed = 0;
-        Parallel.For(0, loaded.Designs.Count, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
+        // One design at a time per core (no chunks): Parallel.For hands each core a growing range of indices, so near the
+        // end one core could still hold several designs while the other idles; taking the next design only when the last
+        // is done leaves at most one design's time at the end with a core idle.
+        var indices = Partitioner.Create(Enumerable.Range(0, loaded.Designs.Count), EnumerablePartitionerOptions.NoBuffering);
+        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
         {
             var started = System.Diagnostics.Stopwatch.GetTimestamp();
             var design = loaded.Designs[i];

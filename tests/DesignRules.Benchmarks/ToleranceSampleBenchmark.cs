@@ -17,7 +17,7 @@ namespace DesignRules.Benchmarks;
 /// warm-started (elaborate the whole design, compile, solve every level from zero); "sample" is one Monte Carlo sample
 /// as the analysis runs it now (set the values in the compiled chain, solve warm from the nominal solution by linearised
 /// steps: the nominal Jacobian of each level factored once, the sample's changes as low-rank updates, the residual
-/// checked at every step); "without linearised steps" is the chord-and-Newton warm path alone, for comparison.
+/// checked at every step, a level accepted once the stage's own nodes have converged); "without linearised steps" is the chord-and-Newton warm path alone, for comparison.
 /// BenchmarkDotNet needs benchmark classes to be public and unsealed.
 /// </summary>
 [MemoryDiagnoser]

@@ -15,6 +15,26 @@ public sealed class ExampleRepositoryTests
     }
 
     [Fact]
+    public void Designs_checked_side_by_side_come_out_in_file_order_with_the_findings_of_a_check_one_at_a_time()
+    {
+        var root = Path.Combine(RuleFixture.RepositoryRoot(), "example-design");
+        var files = RepositoryFiles.Find([root], out _);
+        var options = new CheckOptions(Path.Combine(root, RuleSetLoader.DefaultFileName), new DateOnly(2026, 12, 1));
+        var alone = DesignCheck.Run(files, options with { MaxParallelDesigns = 1 });
+        var side = DesignCheck.Run(files, options with { MaxParallelDesigns = 2 });
+        Assert.True(alone.Designs.Count > 2);
+
+        // File order (by path), whichever design finished first.
+        Assert.Equal(alone.Designs.Select(d => d.Design.File).Order(StringComparer.Ordinal), alone.Designs.Select(d => d.Design.File));
+        Assert.Equal(alone.Designs.Select(d => d.Design.File), side.Designs.Select(d => d.Design.File));
+        static string Describe(Finding f) => $"{f.Span.File}({f.Span.Line},{f.Span.Column}) {f.RuleId} {f.Message}";
+        Assert.Equal(alone.Findings.Select(Describe), side.Findings.Select(Describe));
+        Assert.Equal(
+            alone.Designs.SelectMany(d => d.StageFigures.SelectMany(s => s.Value.Select(f => $"{s.Key} {f.Key} {f.Value:R}"))),
+            side.Designs.SelectMany(d => d.StageFigures.SelectMany(s => s.Value.Select(f => $"{s.Key} {f.Key} {f.Value:R}"))));
+    }
+
+    [Fact]
     public void The_example_designs_are_evaluated_with_no_errors()
     {
         var report = Check();

@@ -78,6 +78,93 @@ public sealed class LinearisedWarmSweepTests
     }
 
     [Fact]
+    public void Samples_stopped_at_the_stage_nodes_agree_with_the_cold_sweep_there_while_the_rectifier_behind_still_settles()
+    {
+        const double rf = 30.1e3, rg = 10e3;
+        var solver = VariedDcSolver.Compile(Chain(rf, rg, 0, Stages.Rails), out _)!;
+        var full = VariedDcSolver.Compile(Chain(rf, rg, 0, Stages.Rails), out _)!;
+        var reference = solver.ReferenceSweep("vin", Levels);
+        var fullReference = full.ReferenceSweep("vin", Levels);
+        solver.SetFigureNodes(["in", "fb", "pre", Circuit.Ground]);
+        var random = new Random(20261204);
+        const int samples = 300;
+        for (int s = 0; s < samples; s++)
+        {
+            // 1 % resistors and a 2 mV offset, drawn uniformly (the kind of spread a Monte Carlo sample draws).
+            double f = rf * (1 + (0.01 * ((2 * random.NextDouble()) - 1)));
+            double g = rg * (1 + (0.01 * ((2 * random.NextDouble()) - 1)));
+            double offset = 2e-3 * ((2 * random.NextDouble()) - 1);
+            foreach (var v in new[] { solver, full })
+            {
+                v.SetResistance("rf", f);
+                v.SetResistance("rg", g);
+                v.SetAmplifierInputs("u1", offset, 0, 0);
+            }
+
+            var warm = solver.Sweep("vin", Levels, reference);
+            var everywhere = full.Sweep("vin", Levels, fullReference);
+            var cold = Simulate.DcSweep(Chain(f, g, offset, Stages.Rails), "vin", Levels);
+            Assert.True(warm.Succeeded && everywhere.Succeeded && cold.Succeeded);
+
+            // The stage's nodes agree with the cold sweep and with the engine's test on every unknown, within the solver's
+            // tolerance; the rectifier's own node is not a figure node and is not compared.
+            foreach (string node in new[] { "in", "fb", "pre" })
+            {
+                AssertSameSolution(cold, warm, node, $"sample {s}");
+                var w = warm.Voltage(node);
+                var e = everywhere.Voltage(node);
+                for (int i = 0; i < w.Length; i++)
+                {
+                    Assert.True(Math.Abs(w[i] - e[i]) <= (2e-6 * Math.Abs(e[i])) + 2e-9, $"sample {s}: {node} at {Levels[i]} V: {w[i]} vs {e[i]}");
+                }
+            }
+        }
+
+        // The stop is taken (at the rectifier's zero crossing, and where its diode's operating point still moves), and it
+        // saves steps against the engine's test on every unknown.
+        Assert.True(solver.FigureConvergedValues > 0, "no level stopped at the stage's nodes");
+        Assert.True(solver.LinearisedSteps < full.LinearisedSteps, $"{solver.LinearisedSteps} steps stopping at the stage, {full.LinearisedSteps} on every unknown");
+        Assert.Equal(0, full.FigureConvergedValues);
+    }
+
+    [Fact]
+    public void A_figure_node_loaded_by_a_diode_is_not_stopped_before_the_diode_has_settled()
+    {
+        // A divider whose tap a diode clamps: the figure node is the diode's own, so it converges only with the diode.
+        static Circuit Clamp(double top, double bottom) => new Circuit()
+            .AddVoltageSource("vin", "src", Circuit.Ground, new DcWaveform(0))
+            .AddResistor("top", "src", "tap", top)
+            .AddResistor("bottom", "tap", Circuit.Ground, bottom)
+            .AddDiode("d1", "tap", Circuit.Ground);
+        double[] levels = [-3, -1, 0, 1, 3];
+        var solver = VariedDcSolver.Compile(Clamp(10e3, 10e3), out _)!;
+        var reference = solver.ReferenceSweep("vin", levels);
+        solver.SetFigureNodes(["tap"]);
+        var random = new Random(20261205);
+        for (int s = 0; s < 100; s++)
+        {
+            // 5 % resistors: the diode's current moves by several per cent, well past what one linearised step settles.
+            double top = 10e3 * (1 + (0.05 * ((2 * random.NextDouble()) - 1)));
+            double bottom = 10e3 * (1 + (0.05 * ((2 * random.NextDouble()) - 1)));
+            solver.SetResistance("top", top);
+            solver.SetResistance("bottom", bottom);
+            var warm = solver.Sweep("vin", levels, reference).Voltage("tap");
+            var cold = Simulate.DcSweep(Clamp(top, bottom), "vin", levels).Voltage("tap");
+            for (int i = 0; i < levels.Length; i++)
+            {
+                Assert.True(Math.Abs(warm[i] - cold[i]) <= (2e-6 * Math.Abs(cold[i])) + 1e-8, $"sample {s} at {levels[i]} V: warm {warm[i]}, cold {cold[i]}");
+            }
+        }
+    }
+
+    [Fact]
+    public void Figure_nodes_must_be_nodes_of_the_circuit()
+    {
+        var solver = VariedDcSolver.Compile(Chain(30.1e3, 10e3, 0, Stages.Rails), out _)!;
+        Assert.Throws<KeyNotFoundException>(() => solver.SetFigureNodes(["nowhere"]));
+    }
+
+    [Fact]
     public void A_linear_sample_is_solved_in_one_step_confirmed_by_a_second_or_third()
     {
         var solver = VariedDcSolver.Compile(Chain(30.1e3, 10e3, 0, Stages.Rails, rectifier: false), out _)!;

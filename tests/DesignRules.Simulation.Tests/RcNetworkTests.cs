@@ -73,4 +73,33 @@ public sealed class RcNetworkTests
             Assert.True((vout[i] - exact).Magnitude < 1e-9, $"f = {ac.Frequencies[i]}");
         }
     }
+
+    [Fact]
+    public void Sweeps_that_share_one_operating_point_give_the_bits_of_separate_sweeps_and_the_transfer_function()
+    {
+        var circuit = RcLowPass(new DcWaveform(0.5));
+        var sweeps = Simulate.AcSweeps(circuit);
+        var plans = new[] { AcSweep.Decades("vin", 1, 1e5, 10), AcSweep.List("vin", 150, 1 / (2 * Math.PI * Tau), 170) };
+        foreach (var plan in plans)
+        {
+            var shared = sweeps.Run(plan);
+            var alone = Simulate.AcSweep(circuit, plan);
+            Assert.True(shared.Succeeded, shared.Failure?.ToString());
+            Assert.Equal(alone.Frequencies, shared.Frequencies);
+            Assert.Equal(alone.OperatingPoint.Voltage("out"), shared.OperatingPoint.Voltage("out"));
+            var vout = shared.Voltage("out");
+            Assert.Equal(alone.Voltage("out"), vout);
+            for (int i = 0; i < vout.Length; i++)
+            {
+                // textbook: H(jω) = 1/(1 + jωRC), whatever the DC level the sweep is linearised at.
+                var exact = 1 / new System.Numerics.Complex(1, 2 * Math.PI * shared.Frequencies[i] * Tau);
+                Assert.True((vout[i] - exact).Magnitude < 1e-9, $"f = {shared.Frequencies[i]}");
+            }
+        }
+
+        // A request the circuit cannot serve fails in the session as it fails alone, and the session still sweeps after it.
+        var bad = sweeps.Run(AcSweep.List("no-such-source", 100));
+        Assert.Equal(Simulate.AcSweep(circuit, AcSweep.List("no-such-source", 100)).Failure, bad.Failure);
+        Assert.True(sweeps.Run(plans[1]).Succeeded);
+    }
 }

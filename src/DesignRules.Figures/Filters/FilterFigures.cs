@@ -36,7 +36,9 @@ internal static class FilterFigures
         // Q = 1), where the amplifier still has loop gain to spare.
         var f = Decades(ideal.F0 / 10, ideal.F0 * 10);
         double kAt = ideal.Shape == FilterShape.HighPass ? ideal.F0 * 30 : ideal.F0 / 1000;
-        var all = Response(chain, stage, [.. f, kAt]);
+        // One operating point serves the coarse sweep and every refinement: the sweeps share it (same figures, one solve).
+        var sweeps = Simulate.AcSweeps(chain.Circuit);
+        var all = Response(sweeps, chain, stage, [.. f, kAt]);
         if (all is null)
         {
             return null;
@@ -45,7 +47,7 @@ internal static class FilterFigures
         var h = all[..^1];
         double sign = ideal.PassbandGain < 0 ? -1 : 1;
         Func<Complex, double> quadrature = ideal.Shape == FilterShape.BandPass ? x => (x * sign).Imaginary : x => (x * sign).Real;
-        var (f0, atF0) = Refine(chain, stage, f, h.Select(quadrature).ToArray(), 0, up: true, quadrature);
+        var (f0, atF0) = Refine(sweeps, chain, stage, f, h.Select(quadrature).ToArray(), 0, up: true, quadrature);
         double k = ideal.Shape == FilterShape.BandPass ? atF0 : all[^1].Magnitude;
         double lower = double.NaN, upper = double.NaN;
         if (edges || ideal.Shape == FilterShape.BandPass)
@@ -53,8 +55,8 @@ internal static class FilterFigures
             Func<Complex, double> level = x => x.Magnitude - (k / Math.Sqrt(2));
             var levels = h.Select(level).ToArray();
             int peak = Array.IndexOf(levels, levels.Max());
-            if (ideal.Shape != FilterShape.LowPass) lower = Refine(chain, stage, f, levels, ideal.Shape == FilterShape.HighPass ? levels.Length - 1 : peak, up: false, level).At;
-            if (ideal.Shape != FilterShape.HighPass) upper = Refine(chain, stage, f, levels, ideal.Shape == FilterShape.LowPass ? 0 : peak, up: true, level).At;
+            if (ideal.Shape != FilterShape.LowPass) lower = Refine(sweeps, chain, stage, f, levels, ideal.Shape == FilterShape.HighPass ? levels.Length - 1 : peak, up: false, level).At;
+            if (ideal.Shape != FilterShape.HighPass) upper = Refine(sweeps, chain, stage, f, levels, ideal.Shape == FilterShape.LowPass ? 0 : peak, up: true, level).At;
         }
 
         double q = ideal.Shape == FilterShape.BandPass ? f0 / (upper - lower) : atF0 / k;
@@ -62,9 +64,9 @@ internal static class FilterFigures
     }
 
     /// <summary>The stage's response v(out)/v(in) at the given frequencies; null when the AC analysis failed.</summary>
-    private static Complex[]? Response(ElaboratedChain chain, StageProbe stage, double[] frequencies)
+    private static Complex[]? Response(Simulate.AcSweepSession sweeps, ElaboratedChain chain, StageProbe stage, double[] frequencies)
     {
-        var ac = Simulate.AcSweep(chain.Circuit, AcSweep.List(chain.SourceId, frequencies));
+        var ac = sweeps.Run(AcSweep.List(chain.SourceId, frequencies));
         if (!ac.Succeeded)
         {
             return null;
@@ -79,7 +81,7 @@ internal static class FilterFigures
     /// The sign change of <paramref name="y"/> nearest <paramref name="start"/> in one direction, refined on a fine sweep of
     /// its interval (steps of 0.2 % at 20 points per decade), with |H| there; NaN if none.
     /// </summary>
-    private static (double At, double Magnitude) Refine(ElaboratedChain chain, StageProbe stage, double[] f, double[] y, int start, bool up, Func<Complex, double> of)
+    private static (double At, double Magnitude) Refine(Simulate.AcSweepSession sweeps, ElaboratedChain chain, StageProbe stage, double[] f, double[] y, int start, bool up, Func<Complex, double> of)
     {
         int i = up ? Next(y, start) : Previous(y, start);
         if (i < 0)
@@ -88,7 +90,7 @@ internal static class FilterFigures
         }
 
         var fine = Geometric(f[i - 1], f[i], RefinePoints);
-        var h = Response(chain, stage, fine);
+        var h = Response(sweeps, chain, stage, fine);
         if (h is null)
         {
             return (Between(f[i - 1], f[i], y[i - 1], y[i]), double.NaN);

@@ -48,7 +48,13 @@ internal sealed class ToleranceCircuit
             return;
         }
 
+        FigureNodes = [stage.InputNode, stage.OutputNode, stage.ReferenceInputNode, .. stage.Amplifiers.Select(a => a.OutputNode)];
         for (int i = 0; i < diodeSaturation.Length; i++) diodeSaturation[i] = solver.DiodeSaturationCurrent(variables.Diodes[i].ElementId);
+
+        // Only the stage's own nodes are read (Transfer below), so a sample's level is accepted once they have converged
+        // even while a non-linear stage behind still settles (VariedDcSolver.SetFigureNodes, with its error bound); the
+        // nominal sweeps below are cold and full, unaffected.
+        solver.SetFigureNodes(FigureNodes);
         reference = solver.ReferenceSweep(chain.SourceId, plan.Levels);
         referenceCommonMode = plan.CommonMode is { } cm && reference.Succeeded ? solver.ReferenceSweep(TransferPlan.CommonModeSourceId, [0, cm]) : null;
         Nominal = Transfer(reference, referenceCommonMode);
@@ -68,6 +74,15 @@ internal sealed class ToleranceCircuit
     /// <summary>The DC transfer with every variable nominal.</summary>
     public DcTransfer Nominal { get; }
 
+    /// <summary>The nodes <see cref="Transfer"/> reads: the stage's input, output, reference input and amplifier outputs.</summary>
+    private string[] FigureNodes { get; set; } = [];
+
+    /// <summary>
+    /// Whether a sample's level is accepted once the stage's own nodes have converged (on; off only to compare with the
+    /// engine's test on every unknown of the chain in tests).
+    /// </summary>
+    internal bool FigureFocus { get; set; } = true;
+
     /// <summary>Whether samples may take the engine's linearised steps (on; off only to compare with the full path in tests).</summary>
     internal bool Linearised { get; set; } = true;
 
@@ -83,11 +98,14 @@ internal sealed class ToleranceCircuit
         {
             solver = VariedDcSolver.Compile(Chain.Circuit, out var failure);
             if (solver is null) return DcTransfer.Failed(Chain, failure!);
+            solver.SetFigureNodes(FigureNodes);
         }
 
         try
         {
             solver.Linearised = Linearised;
+
+            solver.StopAtFigureNodes = FigureFocus;
             Apply(solver, v);
             var levels = solver.Sweep(Chain.SourceId, Plan.Levels, reference);
             DcSolutions? common = null;

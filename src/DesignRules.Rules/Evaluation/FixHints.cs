@@ -1,3 +1,4 @@
+using DesignRules.Diagnostics;
 using DesignRules.Model;
 
 namespace DesignRules.Rules.Evaluation;
@@ -17,19 +18,43 @@ internal static class FixHints
     public static double RoundDown(double value) => Round(value, up: false);
 
     /// <summary>A replacement amplifier for <paramref name="amplifier"/> needs at least <paramref name="needed"/> V/s in both directions.</summary>
-    public static FixHint MinimumSlewRate(Design design, string amplifier, double needed)
+    public static FixHint MinimumSlewRate(DesignEvaluation evaluation, string amplifier, double needed)
     {
         double value = RoundUp(needed);
-        var parts = design.Libraries.SelectMany(l => l.Amplifiers).Select(a => (a.Id.Value, Figure: Math.Min(a.SlewRising.Value.Value, a.SlewFalling.Value.Value)));
-        return PartFigure(FixKind.MinimumSlewRate, amplifier, value, "V/s", $"a replacement for `{amplifier}` needs a slew rate of at least {Say.Slew(value)}", parts, "amplifier");
+        var parts = Replacements(evaluation, amplifier).Select(a => (a.Id.Value, Figure: Math.Min(a.SlewRising.Value.Value, a.SlewFalling.Value.Value)));
+        return PartFigure(FixKind.MinimumSlewRate, amplifier, value, "V/s", $"a replacement for `{amplifier}` needs a slew rate of at least {Say.Slew(value)}", parts, ReplacementClass);
     }
 
     /// <summary>A replacement amplifier for <paramref name="amplifier"/> needs at least <paramref name="needed"/> A rated output current.</summary>
-    public static FixHint MinimumOutputCurrent(Design design, string amplifier, double needed)
+    public static FixHint MinimumOutputCurrent(DesignEvaluation evaluation, string amplifier, double needed)
     {
         double value = RoundUp(needed);
-        var parts = design.Libraries.SelectMany(l => l.Amplifiers).Select(a => (a.Id.Value, Figure: a.OutputCurrent.Value.Value));
-        return PartFigure(FixKind.MinimumOutputCurrent, amplifier, value, "A", $"a replacement for `{amplifier}` needs an output current rating of at least {Say.Amps(value)}", parts, "amplifier");
+        var parts = Replacements(evaluation, amplifier).Select(a => (a.Id.Value, Figure: a.OutputCurrent.Value.Value));
+        return PartFigure(FixKind.MinimumOutputCurrent, amplifier, value, "A", $"a replacement for `{amplifier}` needs an output current rating of at least {Say.Amps(value)}", parts, ReplacementClass);
+    }
+
+    /// <summary>How the hint names the classes it chose from: only those that could take the amplifier's place.</summary>
+    private const string ReplacementClass = "amplifier class that runs on this supply at this noise gain";
+
+    /// <summary>
+    /// The amplifier classes of the visible parts libraries that could take the place of <paramref name="amplifier"/>
+    /// (<c>stage.slot</c>) without tripping another rule by being there: the design's supply span within the class's
+    /// allowed span, its maximum derated as DR604 derates it, and the amplifier's noise gain at least the class's
+    /// minimum stable gain (DR503). Naming a 5 V class for a ±15 V stage, or a decompensated class for a follower, would
+    /// trade one finding for another. Where the noise gain is not known from the block's formula (a netlist), only
+    /// unity-gain-stable classes are offered.
+    /// </summary>
+    private static IEnumerable<AmplifierPart> Replacements(DesignEvaluation evaluation, string amplifier)
+    {
+        var design = evaluation.Design;
+        var place = StageParts.Amplifiers(design).FirstOrDefault(a => $"{a.Stage.Id.Value}.{a.Slot}" == amplifier);
+        double span = design.Supplies.Positive.Value.Value - design.Supplies.Negative.Value.Value;
+        double derating = evaluation.Threshold(RuleIds.SupplySpan, "derating", place?.Stage.Id.Value);
+        double noiseGain = place is null ? 1 : NoiseGain.Of(place.Stage, place.Slot) ?? 1;
+        return design.Libraries.SelectMany(l => l.Amplifiers).Where(a =>
+            span >= a.SupplySpanMinimum.Value.Value
+            && span <= a.SupplySpanMaximum.Value.Value * derating
+            && noiseGain >= a.MinStableGain.Value.Value * (1 - 1e-9));
     }
 
     /// <summary>A resistor family for <paramref name="component"/> needs at least <paramref name="needed"/> W rated power.</summary>
@@ -37,7 +62,7 @@ internal static class FixHints
     {
         double value = RoundUp(needed);
         var parts = design.Libraries.SelectMany(l => l.Resistors).Select(r => (r.Id.Value, Figure: r.PowerRating.Value.Value));
-        return PartFigure(FixKind.MinimumPowerRating, component, value, "W", $"`{component}` needs a resistor family rated at least {Say.Watts(value)}", parts, "resistor family");
+        return PartFigure(FixKind.MinimumPowerRating, component, value, "W", $"`{component}` needs a resistor family rated at least {Say.Watts(value)}", parts, "resistor family class");
     }
 
     /// <summary>The most re-runs a hint's confirmation takes; each raises the candidate, so the search is bounded.</summary>
@@ -73,16 +98,16 @@ internal static class FixHints
             }
 
             double next = RoundUp(Math.Max(again.Value, candidate.Value * 1.01));
-            candidate = Rebuild(candidate, next, evaluation.Design);
+            candidate = Rebuild(candidate, next, evaluation);
         }
 
         return hint with { Text = hint.Text.TrimEnd('.') + "; a re-run with it did not confirm the fix, so the figure is a lower bound." };
     }
 
-    private static FixHint Rebuild(FixHint hint, double value, Design design) => hint.Kind switch
+    private static FixHint Rebuild(FixHint hint, double value, DesignEvaluation evaluation) => hint.Kind switch
     {
-        FixKind.MinimumSlewRate => MinimumSlewRate(design, hint.Subject, value),
-        FixKind.MinimumOutputCurrent => MinimumOutputCurrent(design, hint.Subject, value),
+        FixKind.MinimumSlewRate => MinimumSlewRate(evaluation, hint.Subject, value),
+        FixKind.MinimumOutputCurrent => MinimumOutputCurrent(evaluation, hint.Subject, value),
         _ => hint,
     };
 
@@ -130,8 +155,8 @@ internal static class FixHints
 
         var best = known.OrderByDescending(p => p.Figure).ThenBy(p => p.Id, StringComparer.Ordinal).FirstOrDefault();
         var beyond = best.Id is null
-            ? $"; no {what} class is in the visible parts libraries"
-            : $"; no {what} class in the visible parts libraries reaches it (the highest is `{best.Id}`)";
+            ? $"; no {what} is in the visible parts libraries"
+            : $"; no {what} in the visible parts libraries reaches it (the highest is `{best.Id}`)";
         return new FixHint(kind, subject, value, unit, text + beyond + ".") { BeyondPartClasses = true };
     }
 

@@ -18,7 +18,7 @@ internal static class AcAnalysis
         var frequencies = sweep.Frequencies;
         Array.Copy(operatingPoint, context.X, operatingPoint.Length);
         var map = new SignalMap(compiled);
-        var table = new SampleTable<Complex>(map.Width);
+        var table = new SampleTable<Complex>(map.Width, frequencies.Count);
         var conductances = compiled.Amplifiers.Select(a => a.Evaluate(operatingPoint, dc: true).OutputConductance).ToArray();
         var solved = new List<double>(frequencies.Count);
         foreach (double f in frequencies)

@@ -84,30 +84,72 @@ public static partial class Simulate
     {
         ArgumentNullException.ThrowIfNull(circuit);
         ArgumentNullException.ThrowIfNull(sweep);
-        limits ??= SolverLimits.Default;
-        if (Prepare(circuit, limits, out var compiled, out var failure) is not { } solver) return new AcResult(null, null, [], Failed(failure!), failure);
-        if (!compiled!.Devices.Any(d => d.Id == sweep.Source && d is VoltageSourceDevice or CurrentSourceDevice))
+        return AcSweeps(circuit, limits).Run(sweep);
+    }
+
+    /// <summary>
+    /// AC sweeps of one circuit at any number of frequency lists (as <see cref="AcSweep(Circuit, Analysis.AcSweep, SolverLimits?)"/>
+    /// each), the circuit compiled and its DC operating point solved once, on the first sweep: for a search that sweeps
+    /// again where the first sweep showed something, so that each further sweep costs its small-signal solves only.
+    /// </summary>
+    /// <param name="circuit">Circuit to solve.</param>
+    /// <param name="limits">Solver bounds.</param>
+    public static AcSweepSession AcSweeps(Circuit circuit, SolverLimits? limits = null)
+    {
+        ArgumentNullException.ThrowIfNull(circuit);
+        return new AcSweepSession(circuit, limits ?? SolverLimits.Default);
+    }
+
+    /// <summary>The sweeps of one circuit at its one operating point (<see cref="AcSweeps"/>). Not thread-safe.</summary>
+    public sealed class AcSweepSession
+    {
+        private readonly SolverLimits limits;
+        private readonly NewtonSolver? solver;
+        private readonly CompiledCircuit? compiled;
+        private readonly SimulationFailure? compileFailure;
+        private OperatingPointResult? op;
+        private SimulationFailure? opFailure;
+
+        internal AcSweepSession(Circuit circuit, SolverLimits limits)
         {
-            var bad = new SimulationFailure(FailureKind.UnusableRequest, $"the AC stimulus '{sweep.Source}' is not an independent voltage or current source of this circuit") { ElementId = sweep.Source };
-            return new AcResult(null, null, [], Failed(bad), bad);
+            this.limits = limits;
+            solver = Prepare(circuit, limits, out compiled, out compileFailure);
         }
 
-        if (!double.IsFinite(sweep.Amplitude))
+        /// <summary>One sweep at the operating point (solved on the first sweep that needs it, then kept).</summary>
+        public AcResult Run(AcSweep sweep)
         {
-            var bad = new SimulationFailure(FailureKind.UnusableRequest, "the AC stimulus amplitude must be finite") { ElementId = sweep.Source };
-            return new AcResult(null, null, [], Failed(bad), bad);
-        }
+            ArgumentNullException.ThrowIfNull(sweep);
+            if (solver is null) return new AcResult(null, null, [], Failed(compileFailure!), compileFailure);
+            if (!compiled!.Devices.Any(d => d.Id == sweep.Source && d is VoltageSourceDevice or CurrentSourceDevice))
+            {
+                var bad = new SimulationFailure(FailureKind.UnusableRequest, $"the AC stimulus '{sweep.Source}' is not an independent voltage or current source of this circuit") { ElementId = sweep.Source };
+                return new AcResult(null, null, [], Failed(bad), bad);
+            }
 
-        failure = OperatingPointSolver.Solve(solver, "the DC operating point");
-        var op = Result(compiled!, solver, failure);
-        if (failure is not null) return new AcResult(null, null, [], op, failure);
-        var frequencies = sweep.Frequencies;
-        if (frequencies is null || frequencies.Count == 0 || frequencies.Count > limits.MaxSweepPoints || frequencies.Any(f => !(f > 0) || !double.IsFinite(f)))
-        {
-            return new AcResult(null, null, [], op, new SimulationFailure(FailureKind.UnusableRequest, "AC frequencies must be positive, finite, at least one and no more than the sweep-point limit"));
-        }
+            if (!double.IsFinite(sweep.Amplitude))
+            {
+                var bad = new SimulationFailure(FailureKind.UnusableRequest, "the AC stimulus amplitude must be finite") { ElementId = sweep.Source };
+                return new AcResult(null, null, [], Failed(bad), bad);
+            }
 
-        return AcAnalysis.Run(compiled, solver.Context.X, sweep, limits, op);
+            // The operating point does not depend on the stimulus or the frequencies: solved once, every sweep reads it
+            // (the small-signal analysis copies it and changes nothing of the solver's).
+            if (op is null)
+            {
+                opFailure = OperatingPointSolver.Solve(solver, "the DC operating point");
+                op = Result(compiled, solver, opFailure);
+            }
+
+            if (opFailure is not null) return new AcResult(null, null, [], op, opFailure);
+            var frequencies = sweep.Frequencies;
+            if (frequencies is null || frequencies.Count == 0 || frequencies.Count > limits.MaxSweepPoints || frequencies.Any(f => !(f > 0) || !double.IsFinite(f)))
+            {
+                return new AcResult(null, null, [], op, new SimulationFailure(FailureKind.UnusableRequest, "AC frequencies must be positive, finite, at least one and no more than the sweep-point limit"));
+            }
+
+            return AcAnalysis.Run(compiled, solver.Context.X, sweep, limits, op);
+        }
     }
 
     /// <summary>

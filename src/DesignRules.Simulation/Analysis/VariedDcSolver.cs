@@ -59,6 +59,11 @@ public sealed class DcSolutions
 /// full non-linear residual checked at every step with the same convergence test. A stage that stays linear (its
 /// amplifiers inside their swing, its diodes where they were) is solved in one step and confirmed by the next, with no
 /// factorisation; one that clips or whose diode changes state fails the test and takes the paths above.</para>
+/// <para>Where the caller names the nodes its figures read (<see cref="SetFigureNodes"/>), a linearised solve may also stop
+/// once those have converged while unknowns elsewhere still move — a rectifier behind a linear stage, at its zero crossing,
+/// whose diodes take several steps to settle but move the stage's output only through the stage's tiny output impedance.
+/// The stop is bounded (see <see cref="FigureConverged"/>): the figure unknowns are then within their tolerance of where
+/// the remaining steps would take them; the other unknowns of such a solution are not converged and must not be read.</para>
 /// </summary>
 public sealed class VariedDcSolver
 {
@@ -90,6 +95,12 @@ public sealed class VariedDcSolver
     private double[] updateRhs = [];
     private bool chordValid;
 
+    /// <summary>Per unknown: whether it is a voltage the caller's figures read (all false: none named).</summary>
+    private bool[] figureUnknowns;
+
+    /// <summary>Whether any unknown is named in <see cref="figureUnknowns"/>.</summary>
+    private bool hasFigureUnknowns;
+
     private VariedDcSolver(CompiledCircuit compiled, SolverLimits limits)
     {
         this.compiled = compiled;
@@ -97,6 +108,7 @@ public sealed class VariedDcSolver
         devices = compiled.Devices.ToDictionary(d => d.Id, StringComparer.Ordinal);
         int n = compiled.Layout.Size;
         chord = new DenseLu<double>(n, compiled.Ordering);
+        figureUnknowns = new bool[n];
         residual = new double[n];
         step = new double[n];
         solveScratch = new double[n];
@@ -121,6 +133,39 @@ public sealed class VariedDcSolver
     /// and Newton path alone, to compare with).
     /// </summary>
     public bool Linearised { get; set; } = true;
+
+    /// <summary>
+    /// Whether the nodes named by <see cref="SetFigureNodes"/> may decide when a linearised solve stops (on by default; off
+    /// gives the engine's test on every unknown, to compare with).
+    /// </summary>
+    public bool StopAtFigureNodes { get; set; } = true;
+
+    /// <summary>Swept values a linearised solve accepted once the figure nodes had converged, the rest still moving (for tests).</summary>
+    internal int FigureConvergedValues { get; private set; }
+
+    /// <summary>
+    /// Names the nodes whose voltages the caller's figures read from warm sweeps (a stage's input, output and amplifier
+    /// outputs), so that a linearised solve may accept a swept value once they have converged (see
+    /// <see cref="FigureConverged"/>), even while unknowns elsewhere still move; those others must then not be read. An empty
+    /// list restores the engine's test on every unknown. The reference node is ignored (its voltage is 0 by definition).
+    /// </summary>
+    /// <param name="nodes">Node names of this circuit.</param>
+    public void SetFigureNodes(IEnumerable<string> nodes)
+    {
+        ArgumentNullException.ThrowIfNull(nodes);
+        var named = new bool[Size];
+        bool any = false;
+        foreach (var node in nodes)
+        {
+            if (CircuitLayout.IsReference(node)) continue;
+            if (!compiled.Layout.Nodes.TryGetValue(node, out int index)) throw new KeyNotFoundException($"no node '{node}' in this circuit");
+            named[index] = true;
+            any = true;
+        }
+
+        figureUnknowns = named;
+        hasFigureUnknowns = any;
+    }
 
     /// <summary>Swept values solved by linearised steps since this solver was made (for tests).</summary>
     internal int LinearisedValues { get; private set; }
@@ -372,6 +417,7 @@ public sealed class VariedDcSolver
         var jacobian = linearisation.Jacobians[level];
         double relative = solver.Limits.RelativeTolerance;
         double shunt = nonlinear.JunctionShunt;
+        double previousSize = double.PositiveInfinity;
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
         {
             // The non-linear devices at x, in a dense system that holds only them.
@@ -406,11 +452,18 @@ public sealed class VariedDcSolver
             for (int j = 0; j < k; j++)
             {
                 var u = updates[j];
+                double held = u.Device switch
+                {
+                    DiodeDevice => diodes[u.Index],
+                    AmplifierDevice when u.Key % 2 == 0 => slopes[u.Index],
+                    AmplifierDevice => outputs[u.Index],
+                    _ => 0,
+                };
                 double change = u.Device switch
                 {
-                    DiodeDevice diode => diode.LoadedConductance(shunt) - diodes[u.Index],
-                    AmplifierDevice amplifier when u.Key % 2 == 0 => amplifier.LoadedDriveSlope - slopes[u.Index],
-                    AmplifierDevice amplifier => amplifier.LoadedOutputConductance - outputs[u.Index],
+                    DiodeDevice diode => diode.LoadedConductance(shunt) - held,
+                    AmplifierDevice amplifier when u.Key % 2 == 0 => amplifier.LoadedDriveSlope - held,
+                    AmplifierDevice amplifier => amplifier.LoadedOutputConductance - held,
                     _ => u.Change,
                 };
                 if (u.Device is null)
@@ -420,7 +473,11 @@ public sealed class VariedDcSolver
                     if (u.B >= 0) r[u.B] += current;
                 }
 
-                if (change == 0) continue;
+                // A non-linear device whose coefficient moved by a negligible share of what J0 holds (an amplifier well
+                // inside its swing, whose smooth clamp still changes its slope in the twelfth digit) is left out of the
+                // step's Jacobian: the residual above is still the exact one, so this changes only how fast the steps
+                // contract (by about that share), never where they converge, and the convergence test is unchanged.
+                if (change == 0 || (u.Device is not null && Math.Abs(change) <= NegligibleUpdate * Math.Abs(held))) continue;
                 changes[m] = change;
                 active[m++] = j;
             }
@@ -452,16 +509,29 @@ public sealed class VariedDcSolver
                 }
             }
 
+            // The step measured in tolerances (1: an unknown moved by exactly what the convergence test allows), over every
+            // unknown and over the figure unknowns alone.
             bool converged = !nonlinear.Limited;
+            double size = 0, figureSize = 0;
             for (int i = 0; i < n; i++)
             {
                 double next = x[i] + r[i];
                 if (!double.IsFinite(next)) return false;
                 double allowed = (relative * Math.Max(Math.Abs(next), Math.Abs(x[i]))) + tolerance[i];
-                if (Math.Abs(r[i]) > allowed) converged = false;
+                double moved = Math.Abs(r[i]) / allowed;
+                if (moved > 1) converged = false;
+                size = Math.Max(size, moved);
+                if (figureUnknowns[i]) figureSize = Math.Max(figureSize, moved);
                 x[i] = next;
             }
 
+            if (!converged && hasFigureUnknowns && StopAtFigureNodes && FigureConverged(iteration, nonlinear.Limited, figureSize, size, previousSize))
+            {
+                FigureConvergedValues++;
+                converged = true;
+            }
+
+            previousSize = size;
             if (converged)
             {
                 Array.Copy(x, solver.Context.X, n);
@@ -471,6 +541,35 @@ public sealed class VariedDcSolver
 
         return false;
     }
+
+    /// <summary>
+    /// The share of its reference coefficient below which a non-linear device's change is left out of a linearised step's
+    /// Jacobian (the steps' contraction changes by about this share; the residual, and so the solution, is exact).
+    /// </summary>
+    private const double NegligibleUpdate = 1e-9;
+
+    /// <summary>
+    /// Whether a linearised step that left some unknowns unconverged may still be accepted because the figure unknowns have
+    /// converged. Newton's steps shrink at least geometrically once they contract: if every step from here on is at most
+    /// ρ times the one before (ρ the ratio this step's size bears to the last one's, both measured in tolerances over every
+    /// unknown), and a figure unknown moves by at most a fixed share of each step (the coupling through which the rest of
+    /// the circuit reaches it, fixed to first order), the figure unknowns still move in all by at most
+    /// <c>figureSize·(ρ + ρ² + …) = figureSize·ρ/(1 − ρ)</c> tolerances. So the step is accepted when
+    /// <list type="bullet">
+    /// <item>it is not the first (the first is the linear prediction; only the second shows how the rest answers it),</item>
+    /// <item>no junction was limited (a limited step is not a Newton step, so its size says nothing of convergence),</item>
+    /// <item>it is at most half the last one (ρ ≤ ½, so ρ/(1 − ρ) ≤ 1: what remains is at most this step's figure move), and</item>
+    /// <item>it moved every figure unknown by at most its tolerance (<c>figureSize</c> ≤ 1),</item>
+    /// </list>
+    /// which bounds the figure unknowns' remaining error by the engine's own tolerance
+    /// (<see cref="SolverLimits.RelativeTolerance"/> and the absolute tolerances): the convergence test of a full solve,
+    /// applied to the unknowns the figures read, with the geometric tail of the remaining steps bounded explicitly.
+    /// </summary>
+    private static bool FigureConverged(int iteration, bool limited, double figureSize, double size, double previousSize) =>
+        iteration > 0 && !limited && figureSize <= 1 && size <= FigureContraction * previousSize;
+
+    /// <summary>The contraction a step must show against the one before for <see cref="FigureConverged"/>: ρ ≤ ½ bounds the remaining geometric tail by this step.</summary>
+    private const double FigureContraction = 0.5;
 
     private static double At(double[] x, int index) => index >= 0 ? x[index] : 0;
 

@@ -79,6 +79,19 @@ public sealed partial class Circuit
             : e);
     }
 
+    /// <summary>
+    /// A copy without the named elements: an amplifier and the diodes around it taken out, to see how the rest of the
+    /// circuit divides a signal while that amplifier's loop is open (a precision rectifier in its dead zone).
+    /// </summary>
+    /// <param name="elementIds">Ids of the elements to leave out.</param>
+    public Circuit Without(IReadOnlyCollection<string> elementIds)
+    {
+        ArgumentNullException.ThrowIfNull(elementIds);
+        var copy = new Circuit { Temperature = Temperature };
+        foreach (var element in elements.Where(e => !elementIds.Contains(e.Id))) copy.Add(element);
+        return copy;
+    }
+
     private Circuit Copy(Func<ElementDefinition, ElementDefinition> change)
     {
         var copy = new Circuit { Temperature = Temperature };

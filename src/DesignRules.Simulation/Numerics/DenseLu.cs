@@ -23,6 +23,15 @@ internal sealed class DenseLu<T>
     private readonly BandOrdering? ordering;
     private readonly T[] work;
     private readonly HashSet<(int, int)>? recorded;
+
+    // Dense storage only: per row, the first and last column that may hold a non-zero since the last Clear (loaded by Add
+    // or filled in by Factor); every entry outside is exactly zero. A circuit's rows are short (a node meets a few
+    // elements), so Clear, Factor and Solve skip the long runs of zeros: skipping them changes no bit of a finite
+    // result (x − 0·y is x), only the time.
+    private readonly int[] rowFirst;
+    private readonly int[] rowLast;
+    private bool tracked;
+    private T[] matrix;
     private int lower;
     private int upper;
     private int width;
@@ -35,16 +44,20 @@ internal sealed class DenseLu<T>
         Rhs = new T[size];
         this.ordering = ordering;
         work = ordering is null ? [] : new T[size];
+        rowFirst = new int[ordering is null ? size : 0];
+        rowLast = new int[ordering is null ? size : 0];
         if (ordering is null)
         {
-            Matrix = new T[size * size];
+            matrix = new T[size * size];
+            tracked = true;
+            ResetExtents();
         }
         else
         {
             lower = ordering.Lower;
             upper = ordering.Upper;
             width = (2 * lower) + upper + 1;
-            Matrix = new T[size * width];
+            matrix = new T[size * width];
         }
     }
 
@@ -54,8 +67,10 @@ internal sealed class DenseLu<T>
         rowOfStep = [];
         columnScale = [];
         work = [];
+        rowFirst = [];
+        rowLast = [];
         Rhs = new T[size];
-        Matrix = [];
+        matrix = [];
         this.recorded = recorded;
     }
 
@@ -66,7 +81,16 @@ internal sealed class DenseLu<T>
     public bool IsBanded => ordering is not null;
 
     /// <summary>The storage (row-major dense, or the band); overwritten by the factors. Copy it only between systems of one ordering.</summary>
-    public T[] Matrix { get; private set; }
+    public T[] Matrix
+    {
+        get
+        {
+            // A caller that reads or writes the storage itself bypasses the row extents: from then on this system clears,
+            // factors and solves over every entry.
+            tracked = false;
+            return matrix;
+        }
+    }
 
     /// <summary>Right-hand side; overwritten by the solution in <see cref="Solve()"/>.</summary>
     public T[] Rhs { get; }
@@ -77,8 +101,35 @@ internal sealed class DenseLu<T>
     /// <summary>Zeroes matrix and right-hand side.</summary>
     public void Clear()
     {
-        Array.Clear(Matrix);
+        if (tracked)
+        {
+            int n = Size;
+            for (int r = 0; r < n; r++)
+            {
+                if (rowLast[r] >= rowFirst[r]) Array.Clear(matrix, (r * n) + rowFirst[r], rowLast[r] - rowFirst[r] + 1);
+            }
+
+            ResetExtents();
+        }
+        else
+        {
+            Array.Clear(matrix);
+        }
+
         Array.Clear(Rhs);
+    }
+
+    private void ResetExtents()
+    {
+        Array.Fill(rowFirst, Size);
+        Array.Fill(rowLast, -1);
+    }
+
+    /// <summary>Every row may hold a non-zero anywhere (after a copy of another system's entries).</summary>
+    private void FullExtents()
+    {
+        Array.Fill(rowFirst, 0);
+        Array.Fill(rowLast, Size - 1);
     }
 
     /// <summary>Adds <paramref name="value"/> at (row, column), both unknowns (not the reference).</summary>
@@ -92,14 +143,16 @@ internal sealed class DenseLu<T>
 
         if (ordering is null)
         {
-            Matrix[(row * Size) + column] += value;
+            matrix[(row * Size) + column] += value;
+            if (column < rowFirst[row]) rowFirst[row] = column;
+            if (column > rowLast[row]) rowLast[row] = column;
             return;
         }
 
         int r = ordering.NewOf[row], c = ordering.NewOf[column];
         int d = c - r;
         if (d < -lower || d > upper) Widen(Math.Max(lower, -d), Math.Max(upper, d));
-        Matrix[(r * width) + d + lower] += value;
+        matrix[(r * width) + d + lower] += value;
     }
 
     /// <summary>rhs − A·x, with the matrix as loaded (before <see cref="Factor"/>), into <paramref name="result"/>.</summary>
@@ -112,7 +165,7 @@ internal sealed class DenseLu<T>
             {
                 T sum = Rhs[r];
                 int row = r * n;
-                for (int c = 0; c < n; c++) sum -= Matrix[row + c] * x[c];
+                for (int c = 0; c < n; c++) sum -= matrix[row + c] * x[c];
                 result[r] = sum;
             }
 
@@ -125,7 +178,7 @@ internal sealed class DenseLu<T>
             T sum = Rhs[old];
             int row = r * width;
             int from = Math.Max(0, r - lower), to = Math.Min(n - 1, r + upper);
-            for (int c = from; c <= to; c++) sum -= Matrix[row + c - r + lower] * x[ordering.OldOf[c]];
+            for (int c = from; c <= to; c++) sum -= matrix[row + c - r + lower] * x[ordering.OldOf[c]];
             result[old] = sum;
         }
     }
@@ -133,15 +186,16 @@ internal sealed class DenseLu<T>
     /// <summary>Copies the loaded matrix of <paramref name="other"/> (a system of the same order and ordering).</summary>
     public void CopyMatrixFrom(DenseLu<T> other)
     {
-        if (other.Matrix.Length != Matrix.Length)
+        if (other.matrix.Length != matrix.Length)
         {
             lower = other.lower;
             upper = other.upper;
             width = other.width;
-            Matrix = new T[other.Matrix.Length];
+            matrix = new T[other.matrix.Length];
         }
 
-        Array.Copy(other.Matrix, Matrix, Matrix.Length);
+        Array.Copy(other.matrix, matrix, matrix.Length);
+        if (rowFirst.Length > 0) FullExtents();
     }
 
     /// <summary>Factors the matrix in place. Returns −1 on success or the index of the unknown (column) found singular.</summary>
@@ -170,12 +224,15 @@ internal sealed class DenseLu<T>
     private int FactorDense()
     {
         int n = Size;
-        var a = Matrix;
+        var a = matrix;
         for (int c = 0; c < n; c++) columnScale[c] = 0;
+        if (!tracked) FullExtents();
+        var first = rowFirst;
+        var last = rowLast;
         for (int r = 0; r < n; r++)
         {
             int row = r * n;
-            for (int c = 0; c < n; c++)
+            for (int c = first[r]; c <= last[r]; c++)
             {
                 double m = Magnitude(a[row + c]);
                 if (m > columnScale[c]) columnScale[c] = m;
@@ -203,10 +260,13 @@ internal sealed class DenseLu<T>
                 var s1 = a.AsSpan(k * n, n);
                 var s2 = a.AsSpan(pivotRow * n, n);
                 for (int c = 0; c < n; c++) (s1[c], s2[c]) = (s2[c], s1[c]);
+                (first[k], first[pivotRow]) = (first[pivotRow], first[k]);
+                (last[k], last[pivotRow]) = (last[pivotRow], last[k]);
             }
 
             T pivot = a[(k * n) + k];
             int pivotBase = k * n;
+            int pivotLast = last[k];
             for (int r = k + 1; r < n; r++)
             {
                 int rowBase = r * n;
@@ -214,7 +274,8 @@ internal sealed class DenseLu<T>
                 if (T.IsZero(factor)) continue;
                 factor /= pivot;
                 a[rowBase + k] = factor;
-                for (int c = k + 1; c < n; c++) a[rowBase + c] -= factor * a[pivotBase + c];
+                for (int c = k + 1; c <= pivotLast; c++) a[rowBase + c] -= factor * a[pivotBase + c];
+                if (pivotLast > last[r]) last[r] = pivotLast;
             }
         }
 
@@ -224,18 +285,21 @@ internal sealed class DenseLu<T>
     private void SolveDense(T[] b)
     {
         int n = Size;
-        var a = Matrix;
+        var a = matrix;
         for (int k = 0; k < n; k++)
         {
             int p = rowOfStep[k];
             if (p != k) (b[k], b[p]) = (b[p], b[k]);
         }
 
+        // The factors' rows span rowFirst..rowLast (Factor keeps them; an untracked system spans every column).
+        var first = rowFirst;
+        var last = rowLast;
         for (int r = 1; r < n; r++)
         {
             T sum = b[r];
             int rowBase = r * n;
-            for (int c = 0; c < r; c++) sum -= a[rowBase + c] * b[c];
+            for (int c = first[r]; c < r; c++) sum -= a[rowBase + c] * b[c];
             b[r] = sum;
         }
 
@@ -243,7 +307,7 @@ internal sealed class DenseLu<T>
         {
             T sum = b[r];
             int rowBase = r * n;
-            for (int c = r + 1; c < n; c++) sum -= a[rowBase + c] * b[c];
+            for (int c = r + 1; c <= last[r]; c++) sum -= a[rowBase + c] * b[c];
             b[r] = sum / a[rowBase + r];
         }
     }
@@ -256,7 +320,7 @@ internal sealed class DenseLu<T>
     private int FactorBand()
     {
         int n = Size, kl = lower, ku = upper, w = width;
-        var a = Matrix;
+        var a = matrix;
         for (int c = 0; c < n; c++) columnScale[c] = 0;
         for (int r = 0; r < n; r++)
         {
@@ -315,7 +379,7 @@ internal sealed class DenseLu<T>
     private void SolveBand(T[] rhs, T[] b)
     {
         int n = Size, kl = lower, ku = upper, w = width;
-        var a = Matrix;
+        var a = matrix;
         var order = ordering!;
         for (int i = 0; i < n; i++) b[i] = rhs[order.OldOf[i]];
         for (int k = 0; k < n; k++)
@@ -349,14 +413,14 @@ internal sealed class DenseLu<T>
         {
             for (int d = -lower; d <= upper + lower; d++)
             {
-                band[(r * newWidth) + d + newLower] = Matrix[(r * width) + d + lower];
+                band[(r * newWidth) + d + newLower] = matrix[(r * width) + d + lower];
             }
         }
 
         lower = newLower;
         upper = newUpper;
         width = newWidth;
-        Matrix = band;
+        matrix = band;
     }
 
     private static double Magnitude(T value) => typeof(T) == typeof(double)

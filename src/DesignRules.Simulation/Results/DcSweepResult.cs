@@ -34,6 +34,10 @@ public sealed class DcSweepResult
     /// <param name="node">Node name.</param>
     public double[] Voltage(string node) => table is null || map is null ? [] : table.Column(map.NodeColumn(node));
 
+    /// <summary>True when the swept circuit has this node (the reference counts).</summary>
+    /// <param name="node">Node name.</param>
+    public bool HasNode(string node) => map is not null && map.HasNode(node);
+
     /// <summary>Reported current of an element at every solved value, A.</summary>
     /// <param name="id">Element id.</param>
     public double[] Current(string id) => table is null || map is null ? [] : table.Column(map.CurrentColumn(id));

@@ -2,9 +2,12 @@ namespace DesignRules.Simulation.Results;
 
 /// <summary>Growable row-major table of recorded samples (one row per time point, sweep value or frequency).</summary>
 /// <typeparam name="T">Sample value type.</typeparam>
-internal sealed class SampleTable<T>(int width)
+/// <param name="width">Values per row.</param>
+/// <param name="rows">Rows to make room for at once: the count where it is known (an AC sweep's frequencies), so that
+/// the table is allocated once at its size rather than grown by doubling.</param>
+internal sealed class SampleTable<T>(int width, int rows = 64)
 {
-    private T[] data = new T[Math.Max(width, 1) * 64];
+    private T[] data = new T[Math.Max(width, 1) * Math.Max(rows, 1)];
 
     public int Width { get; } = width;
 

@@ -98,6 +98,37 @@ public sealed class FixHintTests : IDisposable
         Assert.Matches("e\\.g\\. `[a-z0-9-]+` in the visible parts libraries", fix.Text);
     }
 
+    [Fact]
+    public void A_hinted_amplifier_class_runs_on_the_design_supply_and_is_stable_at_its_noise_gain()
+    {
+        // The follower rectifier on ±15 V demands about 1.4 V/µs. By slew rate alone the least class reaching it is the
+        // built-in 5 V CMOS class (7 V/µs), which DR604 would refuse on a 30 V span; the decompensated class (15 V/µs)
+        // is not stable at the follower's noise gain of 1 (DR503). The least class that can take the amplifier's place is
+        // the JFET-input 15 V class (12 V/µs), and swapping it in leaves neither finding.
+        var fix = HintOf("slew/slow-follower-rectifier-20khz.yaml", "DR102", FixKind.MinimumSlewRate);
+
+        Assert.Contains("`jfet-input-15v`", fix.Text, StringComparison.Ordinal);
+        Assert.DoesNotContain("cmos-rail-to-rail-5v", fix.Text, StringComparison.Ordinal);
+        var swapped = File.ReadAllText(RuleFixture.Path("slew/slow-follower-rectifier-20khz.yaml"))
+            .Replace("amplifier: bipolar-general-15v", "amplifier: jfet-input-15v", StringComparison.Ordinal);
+        var report = DesignCheck.Run([Write(swapped)], new CheckOptions(null, new DateOnly(2026, 12, 1)));
+        Assert.DoesNotContain(report.Findings, f => f.RuleId is "DR102" or "DR503" or "DR604");
+    }
+
+    [Fact]
+    public void A_hint_on_a_supply_no_class_fits_says_none_fits_rather_than_naming_one()
+    {
+        // On ±20 V (a 40 V span) every built-in class is beyond its allowed span (36 V at most), so no class can take the
+        // amplifier's place and the hint must say so instead of naming one that DR604 would refuse.
+        var text = File.ReadAllText(RuleFixture.Path("slew/slow-follower-rectifier-20khz.yaml"))
+            .Replace("positive: 15 V", "positive: 20 V", StringComparison.Ordinal).Replace("negative: -15 V", "negative: -20 V", StringComparison.Ordinal);
+        var report = DesignCheck.Run([Write(text)], new CheckOptions(null, new DateOnly(2026, 12, 1)));
+        var fix = report.Findings.First(f => f.RuleId == "DR102").Fix!;
+
+        Assert.True(fix.BeyondPartClasses);
+        Assert.Contains("no amplifier class that runs on this supply at this noise gain is in the visible parts libraries", fix.Text, StringComparison.Ordinal);
+    }
+
     private static FixHint HintOf(string fixture, string rule, FixKind kind)
     {
         var report = RuleFixture.Verify(fixture);

@@ -32,6 +32,29 @@ public sealed class NoiseRuleTests
     public void The_same_rectifier_with_smaller_resistors_clears_its_noise_floor() => RuleFixture.Verify("noise/rectifier-min-signal-above-noise-floor.yaml");
 
     [Fact]
+    public void A_rectifier_clear_at_25_C_fails_its_smallest_signal_at_the_cold_end_where_its_dead_zone_is_widest()
+    {
+        var report = RuleFixture.Verify("noise/rectifier-min-signal-cold-end.yaml");
+        var finding = Assert.Single(report.Findings, f => f.RuleId == Diagnostics.RuleIds.SmallestSignal.Value);
+        Assert.Contains("at -40 °C", finding.Message, StringComparison.Ordinal);
+        var deadZone = report.Designs.Single().StageFigures.Single(s => s.Key == "rect").Value.Single(f => f.Key == FigureKinds.RectifierDeadZone.Key);
+
+        // By hand at -40 °C: the diode drop at 1 mA by Shockley's law, n·Vt·ln(1 + I/Is) + I·Rs with the built-in
+        // small-signal class (n 1.9, Is 4 nA, Rs 0.8 Ω) at 25 °C, moved by its -2 mV/°C over -65 °C; the open-loop gain of
+        // a single-pole amplifier at the band top, A0/√(1 + (f·A0/GBW)²) with A0 126 dB, GBW 0.8 MHz, f 200 Hz; the offset
+        // 120 µV plus its 0.6 µV/°C drift over 65 °C (drift × ΔT). Referred to the stage input through the fraction of
+        // the input that reaches the amplifier with both diodes off: rin against rf in series with the 100 kΩ load
+        // (Kirchhoff's voltage divider), (rf + RL)/(rin + rf + RL) = 110k/120k.
+        double vt = K * T / 1.602176634e-19; // thermal voltage kT/q, SI 2019 exact constants
+        double vf = (1.9 * vt * Math.Log(1 + (1e-3 / 4e-9))) + (1e-3 * 0.8) + (-2e-3 * -65);
+        double a0 = Math.Pow(10, 126.0 / 20);
+        double openLoop = a0 / Math.Sqrt(1 + Math.Pow(200 * a0 / 0.8e6, 2));
+        double expected = (120e-6 + (0.6e-6 * 65) + (vf / openLoop)) / (110e3 / 120e3);
+        Assert.Equal(expected, deadZone.Value, expected * 0.01);
+        Assert.Equal(-40, deadZone.Temperature);
+    }
+
+    [Fact]
     public void The_inverting_stage_noise_figure_matches_the_textbook_noise_model()
     {
         var report = RuleFixture.Verify("noise/inverting-snr-met.yaml");

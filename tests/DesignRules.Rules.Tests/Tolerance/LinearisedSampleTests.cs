@@ -22,6 +22,18 @@ public sealed class LinearisedSampleTests
         return ToleranceAnalyses.WorstCase(evaluation, ToleranceAnalyses.Stages(evaluation).Single(s => s.StageId == stageId));
     }
 
+    /// <summary>The variables of Monte Carlo sample <paramref name="index"/>, drawn as the analysis draws them.</summary>
+    private static Variation Draw(ToleranceVariables variables, MonteCarloSettings settings, string stageId, int index)
+    {
+        var random = SampleDraws.For(settings.Seed, stageId, index);
+        var v = variables.Nominal;
+        for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
+        for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+        return v;
+    }
+
     [Theory]
     [InlineData("preamp")]
     [InlineData("rectifier")]
@@ -34,12 +46,7 @@ public sealed class LinearisedSampleTests
         var settings = new MonteCarloSettings(200, 20261203, ToleranceDistribution.Normal);
         for (int i = 0; i < settings.Samples; i++)
         {
-            var random = SampleDraws.For(settings.Seed, stageId, i);
-            var v = variables.Nominal;
-            for (int k = 0; k < v.Resistors.Length; k++) v.Resistors[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Offsets.Length; k++) v.Offsets[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Biases.Length; k++) v.Biases[k] = SampleDraws.Unit(random, settings.Distribution);
-            for (int k = 0; k < v.Diodes.Length; k++) v.Diodes[k] = SampleDraws.Unit(random, settings.Distribution);
+            var v = Draw(variables, settings, stageId, i);
 
             circuit.Linearised = true;
             var fast = circuit.Measure(v);
@@ -56,6 +63,40 @@ public sealed class LinearisedSampleTests
                 Assert.True(Math.Abs(fast.Outputs[l] - full.Outputs[l]) <= allowed, $"sample {i}, level {l}: {fast.Outputs[l]} vs {full.Outputs[l]}");
                 Assert.True(Math.Abs(fast.Inputs[l] - full.Inputs[l]) <= (2e-6 * Math.Abs(full.Inputs[l])) + 1e-8, $"sample {i}, level {l} input");
             }
+        }
+    }
+
+    [Theory]
+    [InlineData("preamp")]
+    [InlineData("rectifier")]
+    public void Samples_stopped_at_the_stage_nodes_agree_with_the_test_on_every_unknown_of_the_chain(string stageId)
+    {
+        // The preamp drives the absolute-value rectifier, whose diodes at its zero crossing still settle when the preamp's
+        // nodes have converged; the rectifier stage drives the linear smoothing filter.
+        var worstCase = Stage(stageId);
+        var circuit = worstCase.Circuit;
+        var variables = worstCase.Variables;
+        var settings = new MonteCarloSettings(400, 20261204, ToleranceDistribution.Normal);
+        for (int i = 0; i < settings.Samples; i++)
+        {
+            var v = Draw(variables, settings, stageId, i);
+
+            var stopped = circuit.Measure(v);
+            circuit.FigureFocus = false;
+            var everywhere = circuit.Measure(v);
+            circuit.FigureFocus = true;
+            Assert.True(stopped.Succeeded && everywhere.Succeeded);
+            Assert.Equal(everywhere.Clipped, stopped.Clipped);
+            for (int l = 0; l < everywhere.Outputs.Length; l++)
+            {
+                // Both within the engine's convergence test of the exact solution at the stage's nodes: 1e-6 relative plus
+                // 1 nV each (SolverLimits.RelativeTolerance, VoltageTolerance), so within twice that of each other.
+                double allowed = (2e-6 * Math.Abs(everywhere.Outputs[l])) + 2e-9;
+                Assert.True(Math.Abs(stopped.Outputs[l] - everywhere.Outputs[l]) <= allowed, $"sample {i}, level {l}: {stopped.Outputs[l]} vs {everywhere.Outputs[l]}");
+                Assert.True(Math.Abs(stopped.Inputs[l] - everywhere.Inputs[l]) <= (2e-6 * Math.Abs(everywhere.Inputs[l])) + 2e-9, $"sample {i}, level {l} input");
+            }
+
+            Assert.Equal(everywhere.CommonModeShift, stopped.CommonModeShift, 1e-8);
         }
     }
 

@@ -70,7 +70,7 @@ internal sealed class OutputCurrentRule : Rule
                 ["limit"] = $"{Say.Amps(limit)} ({Say.Percent(derating)})",
                 ["margin"] = Say.Amps(peak - limit),
                 ["consequence"] = consequence,
-            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumOutputCurrent(evaluation.Design, id, peak / derating), FixHints.WithOutputCurrent), FigureKinds.OutputCurrent.Of(amp.Slot, peak), FigureKinds.DeratedOutputCurrent.Of(limit),
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumOutputCurrent(evaluation, id, peak / derating), FixHints.WithOutputCurrent), FigureKinds.OutputCurrent.Of(amp.Slot, peak), FigureKinds.DeratedOutputCurrent.Of(limit),
                FigureKinds.DeliveredOutputCurrent.Of(demand.Delivered));
         }
     }

@@ -59,7 +59,7 @@ internal sealed class FullPowerBandwidthRule : Rule
                 ["fpbw"] = Say.Hertz(fpbw),
                 ["limit"] = Say.Hertz(limit),
                 ["margin"] = Say.Hertz(limit - fpbw),
-            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, 2 * Math.PI * shape.Factor * peak * limit / derating), FixHints.WithSlewRate)
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation, a.Name, 2 * Math.PI * shape.Factor * peak * limit / derating), FixHints.WithSlewRate)
                 // As it stands: the full-power bandwidth falls as 1/Vp, so the amplitude (and the band top) may be fpbw/limit
                 // of today's, the closed-form guess the search confirms.
                 .Or(SearchedFixHints.MaximumAmplitude(evaluation, this, stageId, a.Named.PartSpan, fpbw / limit))

@@ -81,7 +81,7 @@ internal sealed class SlewDemandRule : Rule
                 ["window"] = Say.Seconds(time),
                 ["slew"] = Say.Slew(slew) + ToleranceAnalyses.AtTemperature(at),
                 ["margin"] = Say.Slew(d.Rate - slew),
-            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation.Design, a.Name, d.Rate / derating), FixHints.WithSlewRate)
+            }, FixHints.ConfirmAmplifier(evaluation, this, FixHints.MinimumSlewRate(evaluation, a.Name, d.Rate / derating), FixHints.WithSlewRate)
                 // As it stands: a swing that scales with the signal, or a window that scales with the period, needs 1/ratio of
                 // today's amplitude or band top (the guess); a jump fixed by the circuit (a rail, a diode drop) does not
                 // scale with the amplitude, and the search says so.

@@ -2,6 +2,7 @@ using DesignRules.Diagnostics;
 using DesignRules.Figures.Stability;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Stability;
+using DesignRules.Rules.Evaluation.Tolerance;
 
 namespace DesignRules.Rules.Catalogue.Stability;
 
@@ -24,13 +25,17 @@ internal sealed class CapacitiveLoadRule : Rule
         foreach (var amp in StageParts.Amplifiers(evaluation.Design))
         {
             var stageId = amp.Stage.Id.Value;
-            if (figures.Of(stageId, amp.Slot) is not { Loop.Margins: { State: LoopState.Closed, PhaseMargin: { } margin } } loop)
+            // Judged where the margin is least: at 25 °C, or at an end of the range where a gbw-derating raises the GBW
+            // and the crossover moves up into the load's pole (as DR510 judges it, so DR510's pointer here holds there).
+            if (LoopsOverTemperature.Worst(evaluation, stageId, amp.Slot, m => -(m.PhaseMargin ?? double.PositiveInfinity)) is not
+                { Margins.PhaseMargin: { } margin } judged)
             {
                 continue;
             }
 
+            var (loop, at) = (judged.Loop, judged.At);
             var limit = evaluation.Threshold(Id, "min-phase-margin", stageId);
-            if (evaluation.Analyses.CapacitiveLoad(loop, limit) is not { } fix)
+            if (evaluation.Analyses.CapacitiveLoad(loop, limit, judged.End) is not { } fix)
             {
                 continue;
             }
@@ -46,7 +51,7 @@ internal sealed class CapacitiveLoadRule : Rule
             }
 
             var reason = costsMargin
-                ? $"which takes its phase margin {loop.OperatingPoint()} to {StabilityWords.Degrees(margin)} ({StabilityWords.Degrees(limit)} required; {StabilityWords.Degrees(fix.UnloadedMargin!.Value)} without it)"
+                ? $"which takes its phase margin {loop.OperatingPoint()}{ToleranceAnalyses.AtTemperature(at)} to {StabilityWords.Degrees(margin)} ({StabilityWords.Degrees(limit)} required; {StabilityWords.Degrees(fix.UnloadedMargin!.Value)} without it)"
                 : $"more than the {StabilityWords.Farads(stated!.Value)} the part `{amp.Part.Id.Value}` is specified to drive";
 
             // Reported at the capacitance (its value is what changes, or where the resistor goes), else at the part.
@@ -63,7 +68,7 @@ internal sealed class CapacitiveLoadRule : Rule
             var figuresOut = new List<Figure> { stated is { } lim ? FigureKinds.CapacitiveLoad.Of(amp.Slot, load).AtMost(lim) : FigureKinds.CapacitiveLoad.Of(amp.Slot, load) };
             if (costsMargin && fix.Isolation is { } ri)
             {
-                figuresOut.Add(FigureKinds.IsolationResistor.Of(amp.Slot, ri));
+                figuresOut.Add(FigureKinds.IsolationResistor.Of(amp.Slot, ri).AtTemperature(at));
             }
 
             evaluation.Report(Id, stageId, located ? capacitorSpan : amp.PartSpan, new Dictionary<string, string>

@@ -26,7 +26,7 @@ internal sealed class LoopPeakingRule : Rule
                 continue;
             }
 
-            var (loop, m, at) = judged;
+            var (loop, m, at, _) = judged;
 
             var limit = evaluation.Threshold(Id, "max-peaking", stageId);
             // Recorded in dB, as the trade reads a peak.

@@ -13,26 +13,27 @@ internal static class LoopsOverTemperature
 {
     /// <summary>
     /// The closed loop of an amplifier that is worst by <paramref name="badness"/> (larger is worse) over 25 °C and the
-    /// GBW-raising ends, with the temperature it was found at (null: 25 °C); null when the loop is closed nowhere.
+    /// GBW-raising ends, with the temperature it was found at (null: 25 °C) and that end's variant of the chain (null: the
+    /// nominal chain); null when the loop is closed nowhere.
     /// </summary>
-    public static (AmplifierLoop Loop, LoopMargins Margins, double? At)? Worst(DesignEvaluation evaluation, string stageId, string slot, Func<LoopMargins, double> badness)
+    public static (AmplifierLoop Loop, LoopMargins Margins, double? At, GbwAtTemperature? End)? Worst(DesignEvaluation evaluation, string stageId, string slot, Func<LoopMargins, double> badness)
     {
-        var candidates = new List<(LoopGainFigures Figures, double? At)> { (evaluation.Analyses.LoopGains, null) };
+        var candidates = new List<(LoopGainFigures Figures, GbwAtTemperature? End)> { (evaluation.Analyses.LoopGains, null) };
         foreach (var end in evaluation.Analyses.GbwEnds.Where(e => e.Raises))
         {
             var figures = evaluation.Analyses.LoopGainsAt(end);
             if (figures.Failure is null)
             {
-                candidates.Add((figures, end.Celsius));
+                candidates.Add((figures, end));
             }
         }
 
-        (AmplifierLoop Loop, LoopMargins Margins, double? At)? worst = null;
-        foreach (var (figures, at) in candidates)
+        (AmplifierLoop Loop, LoopMargins Margins, double? At, GbwAtTemperature? End)? worst = null;
+        foreach (var (figures, end) in candidates)
         {
             if (figures.Of(stageId, slot) is { Loop.Margins: { State: LoopState.Closed } m } loop && (worst is null || badness(m) > badness(worst.Value.Margins)))
             {
-                worst = (loop, m, at);
+                worst = (loop, m, end?.Celsius, end);
             }
         }
 
