@@ -129,7 +129,7 @@ internal static class ServerClient
     /// <summary>Connects to the server of <paramref name="address"/>, starting it when none listens; no socket (and why) when none came up in time.</summary>
     private static async Task<(Socket? Socket, string? Problem)> ConnectOrStart(ServerAddress address, ServerOptions options, CancellationToken cancellation)
     {
-        if (await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false) is { } running)
+        if (await TryConnect(address, cancellation).ConfigureAwait(false) is { } running)
         {
             return (running, null);
         }
@@ -139,7 +139,7 @@ internal static class ServerClient
         while (deadline.Elapsed < ServerSettings.StartLimit)
         {
             await Task.Delay(TimeSpan.FromMilliseconds(40), cancellation).ConfigureAwait(false);
-            if (await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false) is { } socket)
+            if (await TryConnect(address, cancellation).ConfigureAwait(false) is { } socket)
             {
                 return (socket, null);
             }
@@ -148,7 +148,7 @@ internal static class ServerClient
             // or it could not listen) is not waited for.
             if (started.HasExited)
             {
-                return await TryConnect(address.SocketPath, cancellation).ConfigureAwait(false) is { } winner
+                return await TryConnect(address, cancellation).ConfigureAwait(false) is { } winner
                     ? (winner, null)
                     : (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server exited at once (exit code {started.ExitCode})"));
             }
@@ -157,9 +157,9 @@ internal static class ServerClient
         return (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not start listening within {ServerSettings.StartLimit.TotalSeconds:0} s"));
     }
 
-    private static async Task<Socket?> TryConnect(string socketPath, CancellationToken cancellation)
+    private static async Task<Socket?> TryConnect(ServerAddress address, CancellationToken cancellation)
     {
-        if (!File.Exists(socketPath))
+        if (!File.Exists(address.SocketPath) || address.EndPoint(out _) is not { } endPoint)
         {
             return null;
         }
@@ -169,7 +169,7 @@ internal static class ServerClient
         {
             using var bounded = CancellationTokenSource.CreateLinkedTokenSource(cancellation);
             bounded.CancelAfter(ServerSettings.AnswerLimit);
-            await socket.ConnectAsync(new UnixDomainSocketEndPoint(socketPath), bounded.Token).ConfigureAwait(false);
+            await socket.ConnectAsync(endPoint, bounded.Token).ConfigureAwait(false);
             return socket;
         }
         catch (Exception ex) when (ex is SocketException or OperationCanceledException && !cancellation.IsCancellationRequested)

@@ -36,7 +36,8 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
     /// <summary>Listens until idle for <c>idle</c>, stopped, or its socket file or task folder is gone.</summary>
     public ServerExit Run()
     {
-        if (!address.PrepareSocketFolder(out _))
+        // Also refuses a socket path too long for the platform, which the socket's constructor would throw on.
+        if (!address.PrepareSocketFolder(out _) || address.EndPoint(out _) is not { } endPoint)
         {
             return ServerExit.CannotListen;
         }
@@ -59,7 +60,7 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
             {
                 // A socket file left by a server that died is stale: under the lock no live server owns it.
                 File.Delete(address.SocketPath);
-                listener.Bind(new UnixDomainSocketEndPoint(address.SocketPath));
+                listener.Bind(endPoint);
                 if (!OperatingSystem.IsWindows())
                 {
                     File.SetUnixFileMode(address.SocketPath, UnixFileMode.UserRead | UnixFileMode.UserWrite);

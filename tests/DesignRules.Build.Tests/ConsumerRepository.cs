@@ -80,10 +80,14 @@ internal sealed class ConsumerRepository : IDisposable
     /// </summary>
     public string ServerFolder { get; } = Path.Combine(Path.GetTempPath(), "drs-" + Guid.NewGuid().ToString("N")[..10]);
 
-    public ProcessRun Build(params string[] extra) => Build(ServerFolder, extra);
+    public ProcessRun Build(params string[] extra) => BuildWithServerFolder(ServerFolder, extra);
 
-    /// <summary>A build whose servers' sockets are in <paramref name="serverFolder"/>.</summary>
-    public ProcessRun Build(string serverFolder, params string[] extra) =>
+    /// <summary>
+    /// A build whose servers' sockets are in <paramref name="serverFolder"/>. A name of its own, not an overload of
+    /// <see cref="Build"/>: <c>Build("-p:X=1", "-v:d")</c> would bind to <c>(string, params string[])</c> and take the first
+    /// switch for the folder.
+    /// </summary>
+    public ProcessRun BuildWithServerFolder(string serverFolder, params string[] extra) =>
         ProcessRun.Dotnet(Root, new Dictionary<string, string?> { ["NUGET_PACKAGES"] = Packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder }, Limit,
             ["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra]);
 

@@ -256,6 +256,27 @@ public sealed class EvaluationServerTests : IDisposable
         Assert.Equal(ServerExit.AlreadyServed, second.Run());
     }
 
+    [Fact]
+    public void A_socket_folder_too_long_for_a_socket_path_means_no_server_and_a_check_in_the_build_process_that_says_why()
+    {
+        // Linux allows a Unix domain socket's path 108 bytes, macOS 104 (the sun_path field of sockaddr_un): a folder of
+        // 150 characters is beyond both. The server must refuse to listen (not die of the end point's exception), and the
+        // task must not start one, but check in-process and say why.
+        var tooLong = Path.Combine(sockets, new string('x', 150));
+        var address = Address("long") with { SocketFolder = tooLong };
+        using var server = new EvaluationServer(address, TimeSpan.FromMinutes(5));
+
+        Assert.Equal(ServerExit.CannotListen, server.Run());
+
+        SampleRepository.Write(root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
+        var (task, engine) = CheckTask(served: true, salt: "long");
+        task.ServerSocketFolder = tooLong;
+        Assert.False(task.Execute());
+        Assert.Single(engine.Errors, e => e.Code == "DR906");
+        Assert.Contains(engine.Messages, m => m.Message!.Contains("is longer than this platform allows a socket's path", StringComparison.Ordinal));
+        Assert.DoesNotContain(engine.Messages, m => m.Message!.Contains("checked by the evaluation server", StringComparison.Ordinal));
+    }
+
     /// <summary>Sends one frame and reads the answer (bounded).</summary>
     private static ServerFrame? Ask(string socketPath, ServerFrame frame)
     {

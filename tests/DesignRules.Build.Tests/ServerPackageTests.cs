@@ -77,7 +77,7 @@ public sealed partial class ServerPackageTests(PackedFeed feed)
             var blocked = Path.Combine(repo.Root, "not-a-folder");
             File.WriteAllText(blocked, "a file where the socket folder would be\n");
             SampleRepository.Write(repo.Root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
-            var unreachable = repo.Build(Path.Combine(blocked, "sockets"), "-v:d");
+            var unreachable = repo.BuildWithServerFolder(Path.Combine(blocked, "sockets"), "-v:d");
             Assert.True(unreachable.ExitCode != 0, unreachable.ToString());
             Assert.Contains("error DR906", unreachable.Output, StringComparison.Ordinal);
             Assert.Contains("DesignRules: checking in the build process:", unreachable.Output, StringComparison.Ordinal);

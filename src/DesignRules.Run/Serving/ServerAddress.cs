@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Net.Sockets;
 using System.Security.Cryptography;
 using System.Text;
 
@@ -34,11 +35,41 @@ internal sealed record ServerAddress(string Folder, string Identity)
     }
 
     /// <summary>
+    /// The socket's end point; null (and why) when the platform cannot address <see cref="SocketPath"/> — a Unix domain
+    /// socket's path is limited to about a hundred bytes (108 on Linux, 104 on macOS), so a long socket folder
+    /// (<c>DESIGNRULES_SERVER_FOLDER</c>, <c>XDG_RUNTIME_DIR</c>, <c>TMPDIR</c>) rules the server out.
+    /// </summary>
+    public UnixDomainSocketEndPoint? EndPoint(out string? problem)
+    {
+        try
+        {
+            problem = null;
+            return new UnixDomainSocketEndPoint(SocketPath);
+        }
+        catch (ArgumentException ex)
+        {
+            problem = string.Create(CultureInfo.InvariantCulture,
+                $"the server's socket path '{SocketPath}' ({Encoding.UTF8.GetByteCount(SocketPath)} bytes) is longer than this platform allows a socket's path ({ex.GetType().Name}); set DESIGNRULES_SERVER_FOLDER to a shorter folder");
+            return null;
+        }
+        catch (PlatformNotSupportedException ex)
+        {
+            problem = "this platform has no Unix domain sockets (" + ex.Message.TrimEnd('.') + ")";
+            return null;
+        }
+    }
+
+    /// <summary>
     /// Creates the socket folder when missing and makes it owner-only; false when that cannot be done (another user's
-    /// folder, a file in the way), and then no server is used.
+    /// folder, a file in the way) or the socket's path is too long for the platform, and then no server is used.
     /// </summary>
     public bool PrepareSocketFolder(out string? problem)
     {
+        if (EndPoint(out problem) is null)
+        {
+            return false;
+        }
+
         try
         {
             if (OperatingSystem.IsWindows())
