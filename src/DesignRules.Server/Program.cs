@@ -17,6 +17,9 @@ internal static class Program
         CultureInfo.DefaultThreadCurrentUICulture = CultureInfo.InvariantCulture;
         CultureInfo.CurrentCulture = CultureInfo.InvariantCulture;
         CultureInfo.CurrentUICulture = CultureInfo.InvariantCulture;
+        // A warm process reads the same design and parts files run after run: keep each file's YAML tree while its text is
+        // exactly the same (DesignRules.Yaml.ParsedTrees in the loader; compared in full, so an edit is always read afresh).
+        AppContext.SetSwitch("DesignRules.KeepParsedFiles", true);
         var idle = TimeSpan.FromSeconds(ServerSettings.DefaultIdleSeconds);
         string? salt = null;
         string? socketFolder = null;
