@@ -54,7 +54,9 @@ public sealed class EvaluationServerTests : IDisposable
         return (server, run);
     }
 
-    private (CheckDesigns Task, RecordingEngine Engine) CheckTask(bool served, string salt = "served")
+    private (CheckDesigns Task, RecordingEngine Engine) CheckTask(bool served, string salt = "served") => CheckTask(root, served, salt);
+
+    private (CheckDesigns Task, RecordingEngine Engine) CheckTask(string root, bool served, string salt = "served")
     {
         var engine = new RecordingEngine();
         var task = new CheckDesigns
@@ -76,7 +78,9 @@ public sealed class EvaluationServerTests : IDisposable
         return (task, engine);
     }
 
-    private SortedDictionary<string, byte[]> Outputs()
+    private SortedDictionary<string, byte[]> Outputs() => Outputs(root);
+
+    private static SortedDictionary<string, byte[]> Outputs(string root)
     {
         var files = new SortedDictionary<string, byte[]>(StringComparer.Ordinal);
         foreach (var folder in new[] { "out", "design-pages" })
@@ -92,7 +96,9 @@ public sealed class EvaluationServerTests : IDisposable
         return files;
     }
 
-    private void ForgetOutputs()
+    private void ForgetOutputs() => ForgetOutputs(root);
+
+    private static void ForgetOutputs(string root)
     {
         foreach (var folder in new[] { "out", "design-pages", "obj" })
         {
@@ -163,6 +169,53 @@ public sealed class EvaluationServerTests : IDisposable
         var (fixedAgain, fixedEngine) = CheckTask(served: true);
         Assert.True(fixedAgain.Execute(), Log(fixedEngine));
         Assert.DoesNotContain(fixedEngine.Errors, e => e.Code == "DR906");
+    }
+
+    [Fact]
+    public void Two_repositories_checked_by_one_warm_server_at_the_same_time_each_get_exactly_their_in_process_outputs()
+    {
+        // One repository with an error, one with another feedback value: runs of two builds served side by side must not
+        // mix their designs, caches, reports or pages.
+        var other = TestPaths.NewTempFolder("served-other");
+        try
+        {
+            SampleRepository.Write(root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
+            SampleRepository.Write(other, SampleRepository.Design(feedback: "22k"));
+            var (one, oneEngine) = CheckTask(root, served: false);
+            var (two, twoEngine) = CheckTask(other, served: false);
+            Assert.False(one.Execute());
+            Assert.True(two.Execute(), Log(twoEngine));
+            var (expectedOne, expectedTwo) = (Outputs(root), Outputs(other));
+            ForgetOutputs(root);
+            ForgetOutputs(other);
+
+            Serve("served");
+            var (servedOne, servedOneEngine) = CheckTask(root, served: true);
+            var (servedTwo, servedTwoEngine) = CheckTask(other, served: true);
+            var results = new bool[2];
+            Parallel.Invoke(() => results[0] = servedOne.Execute(), () => results[1] = servedTwo.Execute());
+
+            Assert.Equal([false, true], results);
+            foreach (var engine in new[] { servedOneEngine, servedTwoEngine })
+            {
+                Assert.Contains(engine.Messages, m => m.Message!.Contains("checked by the evaluation server", StringComparison.Ordinal));
+            }
+
+            Assert.Equal(Log(oneEngine), Log(servedOneEngine));
+            Assert.Equal(Log(twoEngine), Log(servedTwoEngine));
+            foreach (var (expected, actual) in new[] { (expectedOne, Outputs(root)), (expectedTwo, Outputs(other)) })
+            {
+                Assert.Equal(expected.Keys, actual.Keys);
+                foreach (var (file, bytes) in expected)
+                {
+                    Assert.True(bytes.AsSpan().SequenceEqual(actual[file]), $"{file} differs between the served and the in-process check");
+                }
+            }
+        }
+        finally
+        {
+            Directory.Delete(other, recursive: true);
+        }
     }
 
     [Fact]
