@@ -1,9 +1,6 @@
 using System.Globalization;
-using DesignRules.Diagnostics;
-using DesignRules.Pages;
-using DesignRules.Reports;
-using DesignRules.Rules;
 using DesignRules.Run;
+using DesignRules.Run.Serving;
 using Microsoft.Build.Framework;
 using Microsoft.Build.Utilities;
 
@@ -16,8 +13,11 @@ namespace DesignRules.Build;
 /// applies <c>TreatWarningsAsErrors</c> (which MSBuild leaves to compilers), honouring <c>WarningsNotAsErrors</c> and
 /// <c>NoWarn</c>. Any internal failure becomes one <c>DR990</c> error, never an unhandled exception.
 /// </summary>
-public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
+public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTask
 {
+    // Cancel() arrives on another thread while Execute runs; it cancels the run's token (which closes the server connection).
+    private volatile Action? cancelRun;
+
     /// <summary>The code of the one error an internal failure of the tool becomes.</summary>
     public static string InternalErrorCode => RunText.FaultId;
 
@@ -125,6 +125,21 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
     /// <summary><c>DesignRulesNewOnly</c>: fail only on findings new against <see cref="BaselineFile"/>.</summary>
     public bool NewOnly { get; set; }
 
+    /// <summary>
+    /// <c>DesignRulesServer</c>: true hands the run to the warm evaluation server of this task folder (started on first use,
+    /// exits after <see cref="ServerIdleSeconds"/> without a run); false runs it in the build process.
+    /// </summary>
+    public bool Server { get; set; }
+
+    /// <summary><c>DesignRulesServerIdleSeconds</c>: how long a server this task starts waits for runs before it exits.</summary>
+    public double ServerIdleSeconds { get; set; } = ServerSettings.DefaultIdleSeconds;
+
+    /// <summary>Tells servers of one task folder apart (tests of "another tool identity"); empty normally.</summary>
+    public string? ServerSalt { get; set; }
+
+    /// <summary>The servers' socket folder (tests); null for the per-user default.</summary>
+    internal string? ServerSocketFolder { get; set; }
+
     /// <inheritdoc />
     public override bool Execute()
     {
@@ -147,266 +162,167 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task
 
     private bool ExecuteInvariant()
     {
+        var log = new TaskLog(Log);
+        using var cancellation = new CancellationTokenSource();
+        cancelRun = cancellation.Cancel;
         try
         {
-            if (Replay)
-            {
-                return ReplayLastCheck();
-            }
-
-            DeleteStamp();
-            return Check();
+            var call = Call();
+            var result = Replay ? BuildCheck.Replay(call, log) : RunServedOrInProcess(call, log, cancellation.Token);
+            ErrorCount = result.ErrorCount;
+            WarningCount = result.WarningCount;
+            return result.Success && !Log.HasLoggedErrors;
+        }
+        catch (OperationCanceledException) when (cancellation.IsCancellationRequested)
+        {
+            // The build was cancelled while the server ran the check: the server abandons the run, the build stops.
+            Log.LogMessage(MessageImportance.Low, "DesignRules: the build was cancelled; the evaluation server abandons the run.");
+            return false;
         }
         catch (Exception ex) when (ex is not (OutOfMemoryException or StackOverflowException or AccessViolationException))
         {
-            LogFault(RunText.Fault(ex), ex.ToString());
-            DeleteStamp();
+            // Only the task's own plumbing can get here (the run layer turns its failures into a DR990 entry itself).
+            Log.LogError(null, InternalErrorCode, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, RunText.Fault(ex));
+            Log.LogMessage(MessageImportance.Low, ex.ToString());
             return false;
         }
-    }
-
-    private bool Check()
-    {
-        var parse = RunRequest.FromBuild(new BuildInputs(Files.Select(f => f.GetMetadata("FullPath")).ToList())
+        finally
         {
-            RepositoryRoot = RepositoryRoot,
-            RuleSetFile = RuleSetFile,
-            SarifFile = SarifFile,
-            JsonFile = JsonFile,
-            PagesFolder = PagesFolder,
-            TemplateFolder = TemplateFolder,
-            HelpUriBase = HelpUriBase,
-            Searched = Searched,
-            ProjectFile = ProjectFile,
-            Today = Today,
-            Levels = Levels,
-            ReportRoot = ReportRoot,
-            Warnings = BuildWarnings(),
-            CacheFolder = CacheFolder,
-            BaselineFile = BaselineFile,
-            NewOnly = NewOnly,
-        });
-
-        // Properties that cannot be used are the user's mistake: plain errors at the project, before the check runs.
-        foreach (var problem in parse.Problems)
-        {
-            Log.LogError(null, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, problem.ForBuild);
-        }
-
-        if (parse.Request is not { } request)
-        {
-            return false;
-        }
-
-        var cost = TaskCost.Start();
-        var outcome = DesignRun.Execute(request, new BuildProgress(Log, request.Root));
-        // Where a build's time goes (detailed verbosity): the run, and how much of it the process spent compiling code
-        // just in time, which the package's ReadyToRun images are there to avoid.
-        Log.LogMessage(MessageImportance.Low, "DesignRules: " + cost.Stop(outcome.Timings));
-        if (outcome.Fault is not null)
-        {
-            LogFault(outcome.Fault, outcome.FaultDetail);
-            return false;
-        }
-
-        WriteLoadedFiles(outcome.Report.LoadedFiles);
-        foreach (var problem in outcome.Problems)
-        {
-            Log.LogError(null, null, null, BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, problem.ForBuild);
-        }
-
-        if (outcome.Pages is { } pages)
-        {
-            foreach (var template in pages.Diagnostics)
-            {
-                var span = template.Span;
-                Log.LogError(null, template.Id, null, HelpFor(template.Id), span.File, span.Line, span.Column, EndLine(span), EndColumn(span), template.Message);
-            }
-        }
-
-        if (outcome.PagesLine is { } pagesLine)
-        {
-            Log.LogMessage(MessageImportance.Normal, "DesignRules: " + pagesLine);
-        }
-
-        var noWarn = new CodeList(NoWarn);
-        var notAsErrors = new CodeList(WarningsNotAsErrors);
-        foreach (var finding in outcome.Report.Findings)
-        {
-            LogFinding(finding, noWarn, notAsErrors);
-        }
-
-        Log.LogMessage(MessageImportance.High, "DesignRules: " + outcome.Summary);
-        if (outcome.BaselineLine is { } baselineLine)
-        {
-            Log.LogMessage(MessageImportance.High, "DesignRules: " + baselineLine);
-        }
-
-        if (Log.HasLoggedErrors)
-        {
-            return false;
-        }
-
-        // A check without errors is stamped together with what it showed, so that a skipped build replays its warnings.
-        WriteStamp(outcome.Summary, outcome.Report.Findings);
-        return true;
-    }
-
-    /// <summary>The wall time of a run and the just-in-time compilation the process did meanwhile (every thread).</summary>
-    private readonly struct TaskCost
-    {
-        private readonly long started;
-        private readonly TimeSpan jitTime;
-        private readonly long jitMethods;
-
-        private TaskCost(long started, TimeSpan jitTime, long jitMethods) => (this.started, this.jitTime, this.jitMethods) = (started, jitTime, jitMethods);
-
-        public static TaskCost Start() =>
-            new(System.Diagnostics.Stopwatch.GetTimestamp(), System.Runtime.JitInfo.GetCompilationTime(), System.Runtime.JitInfo.GetCompiledMethodCount());
-
-        public string Stop(RunTimings phases) => string.Create(CultureInfo.InvariantCulture,
-            $"run took {System.Diagnostics.Stopwatch.GetElapsedTime(started).TotalSeconds:0.00} s ({phases}); meanwhile this process compiled {System.Runtime.JitInfo.GetCompiledMethodCount() - jitMethods} method(s) just in time in {(System.Runtime.JitInfo.GetCompilationTime() - jitTime).TotalSeconds:0.00} s.");
-    }
-
-    /// <summary>Progress as build messages: one per design at normal verbosity, and a long run's "still checking" at every verbosity.</summary>
-    private sealed class BuildProgress(TaskLoggingHelper log, string root) : IRunProgress
-    {
-        public void DesignChecked(DesignProgress progress) =>
-            log.LogMessage(MessageImportance.Normal, "DesignRules: " + RunText.Progress(progress, root));
-
-        public void StillRunning(int completed, int total, TimeSpan elapsed) =>
-            log.LogMessage(MessageImportance.High, "DesignRules: " + RunText.StillRunning(completed, total, elapsed));
-    }
-
-    private bool ReplayLastCheck()
-    {
-        var stamp = string.IsNullOrWhiteSpace(StampFile) ? null : Path.GetFullPath(StampFile);
-        if (stamp is null || !File.Exists(stamp) || !File.Exists(FindingsFile(stamp)))
-        {
-            return true;
-        }
-
-        var noWarn = new CodeList(NoWarn);
-        var notAsErrors = new CodeList(WarningsNotAsErrors);
-        foreach (var finding in StampedFindings.Read(FindingsFile(stamp)))
-        {
-            LogFinding(finding, noWarn, notAsErrors);
-        }
-
-        Log.LogMessage(MessageImportance.High,
-            "DesignRules: no design, parts or rule-set file changed; evaluation skipped. Last check: " + File.ReadAllText(stamp).Trim());
-        return !Log.HasLoggedErrors;
-    }
-
-    private static string FindingsFile(string stamp) => stamp + ".findings.json";
-
-    private void LogFinding(Finding f, CodeList noWarn, CodeList notAsErrors)
-    {
-        // A file name can hold a newline too; the log line shows it escaped, like the message.
-        var s = f.Span with { File = DiagnosticText.Escape(f.Span.File) };
-        var help = HelpFor(f.RuleId);
-        var (endLine, endColumn) = (EndLine(s), EndColumn(s));
-        if (f.IsWaived)
-        {
-            Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, endLine, endColumn, MessageImportance.Low,
-                $"{f.Message} (waived: {f.Waiver})");
-            return;
-        }
-
-        switch (f.Severity)
-        {
-            case Severity.Error:
-                ErrorCount++;
-                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, endLine, endColumn, f.Message);
-                break;
-            case Severity.Warning when noWarn.Contains(f.RuleId):
-                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, endLine, endColumn, MessageImportance.Low, f.Message);
-                break;
-            case Severity.Warning when TreatWarningsAsErrors && !notAsErrors.Contains(f.RuleId):
-                ErrorCount++;
-                Log.LogError(null, f.RuleId, null, help, s.File, s.Line, s.Column, endLine, endColumn, f.Message);
-                break;
-            case Severity.Warning:
-                // MSBuild turns this into an error itself under -warnaserror or WarningsAsErrors, and into a message under NoWarn.
-                WarningCount++;
-                Log.LogWarning(null, f.RuleId, null, help, s.File, s.Line, s.Column, endLine, endColumn, f.Message);
-                break;
-            default:
-                Log.LogMessage(null, f.RuleId, null, s.File, s.Line, s.Column, endLine, endColumn, MessageImportance.Normal, f.Message);
-                break;
+            cancelRun = null;
         }
     }
 
-    private void LogFault(string sentence, string? detail)
+    /// <inheritdoc />
+    public void Cancel()
     {
-        Log.LogError(null, InternalErrorCode, null, HelpFor(InternalErrorCode), BuildEngine?.ProjectFileOfTaskNode, 0, 0, 0, 0, sentence);
-        if (detail is not null)
+        try
         {
-            Log.LogMessage(MessageImportance.Low, detail);
+            cancelRun?.Invoke();
+        }
+        catch (ObjectDisposedException)
+        {
+            // The run ended meanwhile: nothing left to cancel.
         }
     }
 
     /// <summary>
-    /// Where a diagnostic's help link points: the configured base; else the copy of the page in the pages folder (pages
-    /// copy every help page they link to), a file of the repository rather than of a package cache; else the folder given.
+    /// Hands the run to the warm evaluation server of this task folder when <see cref="Server"/> is on, else (and whenever
+    /// the server cannot serve) runs it here. Both run <see cref="BuildCheck"/>, so the outputs and the log are the same.
     /// </summary>
-    private string? EffectiveHelpBase() =>
-        !string.IsNullOrWhiteSpace(HelpUriBase) ? HelpUriBase
-        : !string.IsNullOrWhiteSpace(PagesFolder) ? HelpLinks.FolderUri(Path.Combine(Path.GetFullPath(PagesFolder), DatasheetPages.HelpFolder))
-        : !string.IsNullOrWhiteSpace(HelpFolder) ? HelpLinks.FolderUri(HelpFolder)
-        : null;
-
-    private string? HelpFor(string ruleId) => HelpLinks.For(ruleId, EffectiveHelpBase());
-
-    private WarningLevels BuildWarnings() =>
-        new(TreatWarningsAsErrors, new CodeList(WarningsAsErrors), new CodeList(WarningsNotAsErrors), new CodeList(NoWarn))
-        {
-            HostTreatsAsError = BuildEngine is IBuildEngine8 engine ? engine.ShouldTreatWarningAsError : null,
-        };
-
-    private int EndLine(DesignRules.Diagnostics.SourceSpan span) => EndPositions ? span.EndLine : 0;
-
-    private int EndColumn(DesignRules.Diagnostics.SourceSpan span) => EndPositions ? span.EndColumn : 0;
-
-    private void DeleteStamp()
+    private BuildCheckResult RunServedOrInProcess(BuildCall call, TaskLog log, CancellationToken cancellation)
     {
-        if (!string.IsNullOrWhiteSpace(StampFile))
+        var hostAsError = BuildEngine is IBuildEngine8 engine ? engine.ShouldTreatWarningAsError : (Func<string, bool>?)null;
+        if (Server && Served(call, hostAsError) is { } served)
         {
-            foreach (var file in new[] { FindingsFile(Path.GetFullPath(StampFile)), Path.GetFullPath(StampFile) }.Where(File.Exists))
+            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), cancellation,
+                out var whyNot);
+            if (result is not null)
             {
-                File.Delete(file);
+                return result;
+            }
+
+            Log.LogMessage(MessageImportance.Low, $"DesignRules: checking in the build process: {whyNot}.");
+        }
+
+        return BuildCheck.Execute(call, log, hostAsError);
+    }
+
+    /// <summary>
+    /// The call as the server needs it: every path made full here (the server's working folder is not the build's), and
+    /// the engine's <c>-warnaserror</c> verdict asked for every DR code (the server cannot call back into the engine).
+    /// Null when a path cannot be made full; the run then goes in-process, where the run layer reports it.
+    /// </summary>
+    private static BuildCall? Served(BuildCall call, Func<string, bool>? hostAsError)
+    {
+        try
+        {
+            return call with
+            {
+                RepositoryRoot = Full(call.RepositoryRoot) ?? Directory.GetCurrentDirectory(),
+                RuleSetFile = Full(call.RuleSetFile),
+                SarifFile = Full(call.SarifFile),
+                JsonFile = Full(call.JsonFile),
+                PagesFolder = Full(call.PagesFolder),
+                TemplateFolder = Full(call.TemplateFolder),
+                HelpFolder = Full(call.HelpFolder),
+                StampFile = Full(call.StampFile),
+                LoadedFilesFile = Full(call.LoadedFilesFile),
+                ProjectFile = Full(call.ProjectFile),
+                ReportRoot = Full(call.ReportRoot),
+                CacheFolder = Full(call.CacheFolder),
+                BaselineFile = Full(call.BaselineFile),
+                HostAsErrors = hostAsError is null ? null : [.. BuildCall.AllCodes.Where(hostAsError)],
+            };
+        }
+        catch (Exception ex) when (ex is ArgumentException or NotSupportedException or PathTooLongException)
+        {
+            return null;
+        }
+
+        static string? Full(string? path) => Blank(path) is { } given ? Path.GetFullPath(given) : null;
+    }
+
+    private BuildCall Call() => new()
+    {
+        Files = [.. Files.Select(f => f.GetMetadata("FullPath"))],
+        RepositoryRoot = RepositoryRoot,
+        RuleSetFile = RuleSetFile,
+        SarifFile = SarifFile,
+        JsonFile = JsonFile,
+        PagesFolder = PagesFolder,
+        TemplateFolder = TemplateFolder,
+        HelpUriBase = HelpUriBase,
+        HelpFolder = HelpFolder,
+        StampFile = StampFile,
+        LoadedFilesFile = LoadedFilesFile,
+        ProjectFile = ProjectFile,
+        TaskProjectFile = BuildEngine?.ProjectFileOfTaskNode,
+        Searched = Searched,
+        Today = Today,
+        Levels = Levels,
+        TreatWarningsAsErrors = TreatWarningsAsErrors,
+        WarningsNotAsErrors = WarningsNotAsErrors,
+        NoWarn = NoWarn,
+        WarningsAsErrors = WarningsAsErrors,
+        ReportRoot = ReportRoot,
+        EndPositions = EndPositions,
+        CacheFolder = CacheFolder,
+        BaselineFile = BaselineFile,
+        NewOnly = NewOnly,
+    };
+
+    private static string? Blank(string? text) => string.IsNullOrWhiteSpace(text) ? null : text;
+
+    /// <summary>The folder of the task assembly, where the server's assembly lies beside it.</summary>
+    internal static string TaskFolder => Path.GetDirectoryName(typeof(CheckDesigns).Assembly.Location) ?? AppContext.BaseDirectory;
+
+    /// <summary>Hands each entry the run layer logs to MSBuild's logger (entries may come from worker threads).</summary>
+    private sealed class TaskLog(TaskLoggingHelper log) : IBuildLog
+    {
+        public void Write(BuildLogEntry entry)
+        {
+            switch (entry.Kind)
+            {
+                case BuildLogKind.Error:
+                    log.LogError(null, entry.Code, null, entry.HelpLink, entry.File, entry.Line, entry.Column, entry.EndLine, entry.EndColumn, entry.Message);
+                    break;
+                case BuildLogKind.Warning:
+                    log.LogWarning(null, entry.Code, null, entry.HelpLink, entry.File, entry.Line, entry.Column, entry.EndLine, entry.EndColumn, entry.Message);
+                    break;
+                case BuildLogKind.Message when entry.Code is null && entry.File is null:
+                    log.LogMessage(Importance(entry.Importance), entry.Message);
+                    break;
+                default:
+                    log.LogMessage(null, entry.Code, null, entry.File, entry.Line, entry.Column, entry.EndLine, entry.EndColumn, Importance(entry.Importance), entry.Message);
+                    break;
             }
         }
-    }
 
-    private void WriteLoadedFiles(IReadOnlyList<string> loaded)
-    {
-        if (string.IsNullOrWhiteSpace(LoadedFilesFile))
+        private static MessageImportance Importance(BuildLogImportance importance) => importance switch
         {
-            return;
-        }
-
-        var full = Path.GetFullPath(LoadedFilesFile);
-        var text = string.Concat(loaded.Select(f => f + "\n"));
-        if (File.Exists(full) && File.ReadAllText(full) == text)
-        {
-            return;
-        }
-
-        Directory.CreateDirectory(Path.GetDirectoryName(full)!);
-        File.WriteAllText(full, text);
-    }
-
-    private void WriteStamp(string summary, IEnumerable<Finding> findings)
-    {
-        if (string.IsNullOrWhiteSpace(StampFile))
-        {
-            return;
-        }
-
-        var full = Path.GetFullPath(StampFile);
-        Directory.CreateDirectory(Path.GetDirectoryName(full)!);
-        StampedFindings.Write(FindingsFile(full), findings);
-        File.WriteAllText(full, summary + Environment.NewLine);
+            BuildLogImportance.High => MessageImportance.High,
+            BuildLogImportance.Low => MessageImportance.Low,
+            _ => MessageImportance.Normal,
+        };
     }
 }

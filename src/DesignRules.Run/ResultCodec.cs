@@ -38,17 +38,27 @@ internal static class ResultCodec
     }
 
     /// <summary>The result stored in <paramref name="bytes"/>, for <paramref name="design"/> as loaded now.</summary>
-    public static DesignResult Decode(ReadOnlySpan<byte> bytes, Design design)
+    public static DesignResult Decode(ReadOnlySpan<byte> bytes, Design design) => Decode(Read(bytes), design);
+
+    /// <summary>Reads an entry's payload into its stored form (the costly part of a decode: parsing the JSON).</summary>
+    public static StoredResult Read(ReadOnlySpan<byte> bytes) =>
+        JsonSerializer.Deserialize(bytes, Json.StoredResult) ?? throw new JsonException("empty entry");
+
+    /// <summary>
+    /// A design's result from its stored form. The stored form is shared between runs (<see cref="DecodedEntries"/>), so
+    /// everything handed out here is a fresh object or a fresh list; nothing a run does to its result reaches the memo.
+    /// </summary>
+    public static DesignResult Decode(StoredResult stored, Design design)
     {
-        var stored = JsonSerializer.Deserialize(bytes, Json.StoredResult) ?? throw new JsonException("empty entry");
+        ArgumentNullException.ThrowIfNull(stored);
         var summary = new DesignSummary(
             design,
             stored.DesignFigures.Select(FigureCodec.FromStored).ToList(),
             stored.StageFigures.Select(p => new KeyValuePair<string, IReadOnlyList<Figure>>(p.Stage, p.Figures.Select(FigureCodec.FromStored).ToList())).ToList())
         {
-            Plots = stored.Plots,
-            Yields = stored.Yields,
-            Requirements = stored.Requirements,
+            Plots = [.. stored.Plots],
+            Yields = [.. stored.Yields],
+            Requirements = [.. stored.Requirements],
         };
         return new DesignResult(stored.Findings.Select(FindingCodec.FromStored).ToList(), summary);
     }

@@ -23,6 +23,12 @@ namespace DesignRules.Benchmarks;
 /// packed earlier (e.g. from another commit), so a before/after comparison runs in one job. Repositories and packs are kept
 /// under <c>$TMPDIR/designrules-buildbench/</c> between the benchmark's processes (each case runs in its own); delete it to start afresh.
 /// </para>
+/// <para>
+/// <c>DESIGNRULES_BUILD_SERVER</c>: <c>on</c> (the package's default: the untimed first build starts the warm evaluation
+/// server, the edited builds hand it their run) and/or <c>off</c> (<c>-p:DesignRulesServer=false</c>: every check in the
+/// build's own process), comma-separated; default <c>on,off</c>. Each case has its own server folder, deleted (which stops
+/// its servers) before the case's first build and after its last, so no case meets another's warm server.
+/// </para>
 /// </summary>
 [Config(typeof(ProcessConfig))]
 public class PackageBuildBenchmark
@@ -50,9 +56,16 @@ public class PackageBuildBenchmark
     [ParamsSource(nameof(RepositoryChoices))]
     public string Repository { get; set; } = "example";
 
+    [ParamsSource(nameof(ServerChoices))]
+    public string Server { get; set; } = "on";
+
+    private string serverFolder = null!;
+
     public static IEnumerable<string> PackageChoices() => List("DESIGNRULES_BUILD_PACKAGES", "current").Select(p => p.Split('=')[0]);
 
     public static IEnumerable<string> RepositoryChoices() => List("DESIGNRULES_BUILD_REPOSITORIES", "example");
+
+    public static IEnumerable<string> ServerChoices() => List("DESIGNRULES_BUILD_SERVER", "on,off");
 
     [GlobalSetup]
     public void Setup()
@@ -61,6 +74,9 @@ public class PackageBuildBenchmark
         var work = Path.Combine(Path.GetTempPath(), "designrules-buildbench");
         root = Path.Combine(work, $"{Repository}-{version}");
         packages = Path.Combine(work, "nuget-packages");
+        // Short (a socket path stays under about 100 bytes), one per case; deleting it stops the case's servers.
+        serverFolder = Path.Combine(work, "srv-" + Convert.ToHexString(SHA256.HashData(Encoding.UTF8.GetBytes($"{Package}|{Repository}|{Server}")))[..8].ToLowerInvariant());
+        StopServers();
         if (!File.Exists(Path.Combine(root, "hardware.proj")))
         {
             WriteRepository(root, feed, version);
@@ -77,12 +93,13 @@ public class PackageBuildBenchmark
     [GlobalCleanup]
     public void Cleanup()
     {
+        StopServers();
         if (cpuSeconds.Count > 1)
         {
             // The first build is the case's setup build; the next is the warm-up.
             var timed = cpuSeconds.Skip(2).Order().ToList();
             Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"// build processor time [{Package}, {Repository}]: median {timed[timed.Count / 2]:0.00} s of {timed.Count} ({string.Join(", ", timed.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})"));
+                $"// build processor time [{Package}, {Repository}, server {Server}]: median {timed[timed.Count / 2]:0.00} s of {timed.Count} ({string.Join(", ", timed.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})"));
         }
     }
 
@@ -98,8 +115,23 @@ public class PackageBuildBenchmark
     [Benchmark(Description = "one design changed")]
     public int OneDesignChanged() => Build();
 
+    /// <summary>Stops the case's servers: a server leaves within a second of losing its socket.</summary>
+    private void StopServers()
+    {
+        if (Directory.Exists(serverFolder))
+        {
+            Directory.Delete(serverFolder, recursive: true);
+            Thread.Sleep(TimeSpan.FromSeconds(1.5));
+        }
+    }
+
     private int Build(params string[] extra)
     {
+        if (Server == "off" && !extra.Contains("-p:DesignRulesEnabled=false"))
+        {
+            extra = [.. extra, "-p:DesignRulesServer=false"];
+        }
+
         var start = new ProcessStartInfo("dotnet") { WorkingDirectory = root, UseShellExecute = false, RedirectStandardOutput = true, RedirectStandardError = true };
         foreach (var arg in (string[])["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra])
         {
@@ -113,6 +145,7 @@ public class PackageBuildBenchmark
         }
 
         start.Environment["NUGET_PACKAGES"] = packages;
+        start.Environment["DESIGNRULES_SERVER_FOLDER"] = serverFolder;
         start.Environment["DOTNET_CLI_TELEMETRY_OPTOUT"] = "1";
         start.Environment["DOTNET_NOLOGO"] = "1";
         var before = ChildProcessorSeconds();

@@ -74,14 +74,34 @@ internal sealed class ConsumerRepository : IDisposable
 
     public string SarifFile => Path.Combine(Root, "out", "designrules.sarif");
 
-    public ProcessRun Build(params string[] extra) =>
-        ProcessRun.Dotnet(Root, new Dictionary<string, string?> { ["NUGET_PACKAGES"] = Packages }, Limit,
+    /// <summary>
+    /// The evaluation servers' socket folder of this repository's builds (short: a socket path stays under about 100
+    /// bytes). Deleting it, as <see cref="Dispose"/> does, stops every server the builds started.
+    /// </summary>
+    public string ServerFolder { get; } = Path.Combine(Path.GetTempPath(), "drs-" + Guid.NewGuid().ToString("N")[..10]);
+
+    public ProcessRun Build(params string[] extra) => BuildWithServerFolder(ServerFolder, extra);
+
+    /// <summary>
+    /// A build whose servers' sockets are in <paramref name="serverFolder"/>. A name of its own, not an overload of
+    /// <see cref="Build"/>: <c>Build("-p:X=1", "-v:d")</c> would bind to <c>(string, params string[])</c> and take the first
+    /// switch for the folder.
+    /// </summary>
+    public ProcessRun BuildWithServerFolder(string serverFolder, params string[] extra) =>
+        ProcessRun.Dotnet(Root, new Dictionary<string, string?> { ["NUGET_PACKAGES"] = Packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder }, Limit,
             ["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra]);
 
     public void Dispose()
     {
         try
         {
+            // First the servers' sockets (each server leaves within a second of losing its socket), then the repository
+            // and its package cache, which holds the servers' assemblies.
+            if (Directory.Exists(ServerFolder))
+            {
+                Directory.Delete(ServerFolder, recursive: true);
+            }
+
             Directory.Delete(folder, recursive: true);
         }
         catch (IOException)

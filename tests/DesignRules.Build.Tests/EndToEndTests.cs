@@ -40,9 +40,10 @@ public sealed class EndToEndTests(PackedFeed feed)
         Assert.DoesNotContain("DesignRules:", off.Output, StringComparison.Ordinal);
         Assert.Contains(Skipped, repo.Build().Output, StringComparison.Ordinal);
 
-        // A changed value reruns it.
+        // A changed value reruns it. Checked in the build's own process (the evaluation server's fallback, and
+        // DesignRulesServer=false), so that the task's own dependencies load in MSBuild, as asserted below.
         SampleRepository.Write(repo.Root, SampleRepository.Design(feedback: "22k"));
-        var changed = repo.Build("-v:d");
+        var changed = repo.Build("-v:d", "-p:DesignRulesServer=false");
         AssertPassed(changed);
         Assert.Contains(Checked, changed.Output, StringComparison.Ordinal);
         Assert.DoesNotContain(Skipped, changed.Output, StringComparison.Ordinal);

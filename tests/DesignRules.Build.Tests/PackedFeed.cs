@@ -10,9 +10,10 @@ public sealed class PackedFeed : IDisposable
     {
         Folder = TestPaths.NewTempFolder("feed");
         Version = $"0.1.0-e2e.{DateTime.UtcNow:yyyyMMddHHmmss}.{Guid.NewGuid().ToString("N")[..8]}";
-        // The build package's pack also compiles the task folder to ReadyToRun images (a publish with crossgen): longer.
+        // The build package's pack also compiles the task folder to ReadyToRun images (a publish with crossgen, which builds the
+        // runtime-specific outputs again): longer, and under a shared machine's load well past ten minutes.
         var pack = ProcessRun.Dotnet(TestPaths.RepositoryRoot, new Dictionary<string, string?> { ["DR_ARTIFACTS"] = TestPaths.ArtifactsPath },
-            TimeSpan.FromMinutes(10), "pack", TestPaths.BuildProject, "--no-build", "--no-restore", "-c", TestPaths.Configuration,
+            TimeSpan.FromMinutes(20), "pack", TestPaths.BuildProject, "--no-build", "--no-restore", "-c", TestPaths.Configuration,
             "-o", Folder, $"-p:PackageVersion={Version}", "-nodeReuse:false", "-tl:off");
         var packTool = ProcessRun.Dotnet(TestPaths.RepositoryRoot, new Dictionary<string, string?> { ["DR_ARTIFACTS"] = TestPaths.ArtifactsPath },
             TimeSpan.FromMinutes(4), "pack", TestPaths.CliProject, "--no-build", "--no-restore", "-c", TestPaths.Configuration,

@@ -148,3 +148,52 @@ public sealed class ResultCacheTests : IDisposable
             .Where(f => !Path.GetFileName(f).StartsWith(".designrules-pages.lock", StringComparison.Ordinal))
             .ToDictionary(f => Path.GetRelativePath(folder, f), File.ReadAllText), StringComparer.Ordinal);
 }
+
+/// <summary>
+/// A warm process (the evaluation server) keeps cache entries it parsed, by the hash of their bytes: an unchanged entry is
+/// not parsed again, and an entry whose bytes changed is never answered from the memo, whatever its key and path.
+/// </summary>
+public sealed class DecodedEntriesTests : IDisposable
+{
+    private readonly ExampleCopy repo = new();
+
+    public void Dispose() => repo.Dispose();
+
+    [Fact]
+    public void A_warm_process_gives_the_same_report_from_parsed_entries_and_parses_an_entry_again_when_its_bytes_change()
+    {
+        repo.Run();
+        repo.Run();
+        var json = File.ReadAllBytes(repo.Json);
+        Assert.True(DecodedEntries.Count > 0, "the second run parsed its entries into the memo");
+
+        var (third, evaluated) = repo.Run();
+        Assert.Empty(evaluated);
+        Assert.Equal(4, third.FromCache);
+        Assert.Equal(json, File.ReadAllBytes(repo.Json));
+
+        // The same key and path, other (valid) bytes: the run must show what the entry now says, not what the memo holds.
+        var edited = 0;
+        foreach (var entry in Directory.GetFiles(repo.Cache, "*.result"))
+        {
+            var text = System.Text.Encoding.UTF8.GetString(File.ReadAllBytes(entry));
+            var lines = text.Split('\n', 5);
+            var payload = lines[4];
+            var changed = payload.Replace("\"Message\":\"", "\"Message\":\"EDITED ", StringComparison.Ordinal);
+            if (changed == payload)
+            {
+                continue;
+            }
+
+            edited++;
+            var checksum = Convert.ToHexString(System.Security.Cryptography.SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(changed)));
+            File.WriteAllText(entry, $"{lines[0]}\n{lines[1]}\n{checksum}\n{lines[3]}\n{changed}");
+        }
+
+        Assert.True(edited > 0, "no entry holds a finding to edit");
+        var (fourth, again) = repo.Run();
+        Assert.Empty(again);
+        Assert.Equal(4, fourth.FromCache);
+        Assert.Contains("EDITED ", File.ReadAllText(repo.Json), StringComparison.Ordinal);
+    }
+}

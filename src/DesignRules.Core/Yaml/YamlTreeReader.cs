@@ -23,10 +23,24 @@ internal static class YamlTreeReader
             return null;
         }
 
+        // A warm process that read exactly this text of this file before (ParsedTrees, off unless the process asks) reuses
+        // that tree; only trees read without any diagnostic are kept, so the reuse is invisible in what the loader reports.
+        if (ParsedTrees.Find(file, text, limits) is { } kept)
+        {
+            return kept;
+        }
+
         var reader = new Reader(file, limits, diagnostics);
+        var before = diagnostics.Count;
         try
         {
-            return reader.ReadDocument(new Parser(new StringReader(text)));
+            var tree = reader.ReadDocument(new Parser(new StringReader(text)));
+            if (tree is not null && diagnostics.Count == before)
+            {
+                ParsedTrees.Keep(file, text, limits, tree);
+            }
+
+            return tree;
         }
         catch (YamlException ex)
         {

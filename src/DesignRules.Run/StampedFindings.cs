@@ -3,7 +3,7 @@ using System.Text.Json.Serialization;
 using DesignRules.Diagnostics;
 using DesignRules.Rules;
 
-namespace DesignRules.Build;
+namespace DesignRules.Run;
 
 /// <summary>
 /// The findings of the last stamped check, kept beside the stamp so that an up-to-date build can show them again
