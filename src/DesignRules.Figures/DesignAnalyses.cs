@@ -78,6 +78,9 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     /// <summary>Reports a failed analysis to the rules layer (DR920).</summary>
     public void ReportFailure(string analysis, SimulationFailure failure, ElaboratedChain chain) => failures.Failed(analysis, failure, chain);
 
+    /// <summary>Reports a settled run that did not reach its periodic steady state at <paramref name="end"/> (DR925), such as a tolerance corner's.</summary>
+    public void ReportUnsettled(BandEnd end, SettledTransient steady) => failures.Unsettled(end, steady);
+
     /// <summary>
     /// True when the transient at <paramref name="end"/> reached its periodic steady state; otherwise reports it (DR925)
     /// and returns false, so that no figure is measured on an unsettled signal.

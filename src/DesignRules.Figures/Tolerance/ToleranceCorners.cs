@@ -30,7 +30,7 @@ internal sealed record CornerRun(ToleranceCorner Corner, BandEnd End, Elaborated
 /// <item>every resistor low and every resistor high: a resistor across a fixed voltage dissipates most at its low value.</item>
 /// </list>
 /// Other stages' resistors stay nominal in the gain corners. Corners that change nothing are dropped; a corner whose
-/// transient fails or does not settle is left out (the nominal run reports such problems). Only periodic sources.
+/// transient fails or does not settle is left out and reported (DR920, DR925). Only periodic sources.
 /// </summary>
 internal static class ToleranceCorners
 {
@@ -55,6 +55,7 @@ internal static class ToleranceCorners
         var baseline = analyses.BandEnds.ToDictionary(e => e, e => analyses.Chain(e).Options);
         var nominalRuns = analyses.BandEnds.ToDictionary(e => e, analyses.Steady);
         var runs = new CornerRun?[jobs.Count];
+        var lost = new (SettledTransient Steady, ElaboratedChain Chain)?[jobs.Count];
 
         // The runs are independent: side by side on every core, each into its own slot, so the list keeps the jobs' order
         // and each run's bits do not depend on which core ran it or when. A core takes the next run only when its last is
@@ -77,7 +78,30 @@ internal static class ToleranceCorners
             {
                 runs[i] = new CornerRun(corner, end, chain with { Window = steady.Window }, steady.Result);
             }
+            else
+            {
+                lost[i] = (steady, chain);
+            }
         });
+
+        // A corner left out is said, never passed over in silence: the rules that take the extreme over the corners would
+        // otherwise judge the remaining ones as if they were all. Reported after the parallel loop, in the jobs' order.
+        for (int i = 0; i < lost.Length; i++)
+        {
+            if (lost[i] is not var (steady, chain))
+            {
+                continue;
+            }
+
+            if (steady.Result.Failure is { } failure)
+            {
+                analyses.ReportFailure($"the transient of the {jobs[i].Corner.Name} tolerance corner", failure, chain);
+            }
+            else
+            {
+                analyses.ReportUnsettled(jobs[i].End, steady);
+            }
+        }
 
         return runs.OfType<CornerRun>().ToList();
     }
