@@ -86,42 +86,16 @@ public class CoreScalingBenchmark
         return Run("taskset", ["-c", cores, "dotnet", tool, "check", root, "--root", root, "--json", Path.Combine(output, "report.json"), "--pages", Path.Combine(output, "pages"), "--today", "2026-12-01"], root);
     }
 
-    private static int Run(string file, IEnumerable<string> arguments, string? directory)
+    private static int Run(string file, IReadOnlyList<string> arguments, string? directory)
     {
-        var start = new ProcessStartInfo(file) { UseShellExecute = false, RedirectStandardOutput = true, RedirectStandardError = true };
-        if (directory is not null)
-        {
-            start.WorkingDirectory = directory;
-        }
-
-        foreach (var argument in arguments)
-        {
-            start.ArgumentList.Add(argument);
-        }
-
-        // The benchmark's own build variables must not leak into the tool's process or its publish.
-        foreach (var name in (string[])["DR_ARTIFACTS", "MSBuildExtensionsPath", "MSBuildSDKsPath", "MSBUILD_EXE_PATH"])
-        {
-            start.Environment.Remove(name);
-        }
-
-        start.Environment["DOTNET_CLI_TELEMETRY_OPTOUT"] = "1";
-        start.Environment["DOTNET_NOLOGO"] = "1";
-        using var process = Process.Start(start)!;
-        var standardOutput = process.StandardOutput.ReadToEndAsync();
-        var standardError = process.StandardError.ReadToEndAsync();
-        if (!process.WaitForExit(Limit))
-        {
-            process.Kill(entireProcessTree: true);
-            throw new TimeoutException($"{file} {string.Join(' ', arguments)} ran longer than {Limit}.");
-        }
+        var (exitCode, output, error) = ChildProcess.Run(file, arguments, directory, Limit);
 
         // The check's exit codes: 0 clean, 1 findings at error level; anything else is a failed run, not a timing.
-        if (process.ExitCode > 1)
+        if (exitCode > 1)
         {
-            throw new InvalidOperationException($"{file} {string.Join(' ', arguments)} failed ({process.ExitCode}):\n{standardOutput.Result}\n{standardError.Result}");
+            throw new InvalidOperationException($"{file} {string.Join(' ', arguments)} failed ({exitCode}):\n{output}\n{error}");
         }
 
-        return process.ExitCode;
+        return exitCode;
     }
 }

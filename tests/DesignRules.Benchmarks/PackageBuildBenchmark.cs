@@ -132,39 +132,16 @@ public class PackageBuildBenchmark
             extra = [.. extra, "-p:DesignRulesServer=false"];
         }
 
-        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = root, UseShellExecute = false, RedirectStandardOutput = true, RedirectStandardError = true };
-        foreach (var arg in (string[])["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra])
-        {
-            start.ArgumentList.Add(arg);
-        }
-
-        // The benchmark's own build variables must not leak into the user's build.
-        foreach (var name in (string[])["DR_ARTIFACTS", "MSBuildExtensionsPath", "MSBuildSDKsPath", "MSBUILD_EXE_PATH", "DOTNET_HOST_PATH"])
-        {
-            start.Environment.Remove(name);
-        }
-
-        start.Environment["NUGET_PACKAGES"] = packages;
-        start.Environment["DESIGNRULES_SERVER_FOLDER"] = serverFolder;
-        start.Environment["DOTNET_CLI_TELEMETRY_OPTOUT"] = "1";
-        start.Environment["DOTNET_NOLOGO"] = "1";
+        var environment = new Dictionary<string, string> { ["NUGET_PACKAGES"] = packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder };
         var before = ChildProcessorSeconds();
-        using var process = Process.Start(start)!;
-        var output = process.StandardOutput.ReadToEndAsync();
-        var error = process.StandardError.ReadToEndAsync();
-        if (!process.WaitForExit(Limit))
+        var (exitCode, output, error) = ChildProcess.Run("dotnet", ["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra], root, Limit, environment);
+        if (exitCode != 0)
         {
-            process.Kill(entireProcessTree: true);
-            throw new TimeoutException($"dotnet build in {root} ran longer than {Limit}.");
-        }
-
-        if (process.ExitCode != 0)
-        {
-            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output.Result}\n{error.Result}");
+            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output}\n{error}");
         }
 
         cpuSeconds.Add(ChildProcessorSeconds() - before);
-        return process.ExitCode;
+        return exitCode;
     }
 
     /// <summary>User plus system time of every child process this process has waited for (getrusage, RUSAGE_CHILDREN).</summary>
