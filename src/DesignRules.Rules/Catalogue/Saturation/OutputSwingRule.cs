@@ -82,7 +82,7 @@ internal sealed class OutputSwingRule : Rule
             {
                 ["node"] = a.Node,
                 ["extreme"] = notes.Count > 0 ? $"{extreme} ({string.Join("; ", notes)})" : extreme,
-                ["limit"] = $"{Say.Volts(s.WithMargin)} ({Say.Volts(s.Limit)} less {Say.Volts(s.Margin)} margin)",
+                ["limit"] = $"{Say.Volts(s.WithMargin)} (the part's {Say.Volts(s.Limit)} with a {Say.Volts(s.Margin)} margin inside it)",
                 ["rail"] = s.Rail,
                 ["margin"] = s.Clips ? "the output clips" : $"{Say.Volts(s.Over)} over",
             }, Fix(evaluation, s), FigureKinds.OutputExtreme.Of(s.Extreme), FigureKinds.SwingLimit.Of(s.Limit), FigureKinds.OffsetShift.Of(s.Offset));
