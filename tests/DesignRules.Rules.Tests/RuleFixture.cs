@@ -8,7 +8,9 @@ namespace DesignRules.Rules.Tests;
 /// <summary>
 /// Runs rule fixtures. A fixture is a design file whose first lines state what it must produce:
 /// <c># expect: DR101 error at 31:16</c> (one line per expected finding) or <c># expect: clean DR101</c>
-/// (the rule must not fire). Fixtures live under Fixtures/&lt;category&gt;/ and are copied beside the tests.
+/// (the rule must not fire). The stated findings are all of them: a finding no line states fails the fixture, so a
+/// new finding, true or not, is seen and judged. Fixtures live under Fixtures/&lt;category&gt;/ and are copied beside the
+/// tests.
 /// </summary>
 internal static partial class RuleFixture
 {
@@ -40,6 +42,14 @@ internal static partial class RuleFixture
                 report.Findings.Any(f => f.RuleId == id && f.Severity == severity && f.Span.Line == line && f.Span.Column == col),
                 $"{relative}: expected {id} {severity} at {line}:{col}; got:\n" + Describe(report));
         }
+
+        var stated = expectations.Where(e => !e.Groups["clean"].Success)
+            .Select(e => (e.Groups["id"].Value, e.Groups["severity"].Value, int.Parse(e.Groups["line"].Value), int.Parse(e.Groups["col"].Value)))
+            .ToHashSet();
+        var unstated = report.Findings
+            .Where(f => !stated.Contains((f.RuleId, f.Severity.ToString().ToLowerInvariant(), f.Span.Line, f.Span.Column)))
+            .ToList();
+        Assert.True(unstated.Count == 0, $"{relative}: findings no '# expect:' line states:\n" + string.Join('\n', unstated.Select(f => $"  {f.RuleId} {f.Severity} {f.Span.Line}:{f.Span.Column} {f.Message}")));
 
         Assert.DoesNotContain(report.Findings, f => f.RuleId.StartsWith("DR9", StringComparison.Ordinal));
         // Every argument the catalogue message declares was given: no '{name}' placeholder is left in any message.

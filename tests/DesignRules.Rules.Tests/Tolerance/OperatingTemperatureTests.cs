@@ -81,7 +81,8 @@ public sealed class OperatingTemperatureTests
             var file = Path.Combine(dir.FullName, "design.yaml");
             File.WriteAllText(file, text);
             var loaded = DesignLoader.LoadFiles([file]);
-            var diagnostic = Assert.Single(loaded.Diagnostics, d => d.Span.Line == 6);
+            int lineOfRange = Array.FindIndex(text.Split('\n'), l => l.Contains(line, StringComparison.Ordinal)) + 1;
+            var diagnostic = Assert.Single(loaded.Diagnostics, d => d.Span.Line == lineOfRange);
             Assert.StartsWith("DR9", diagnostic.Id, StringComparison.Ordinal);
             Assert.Contains(hint, diagnostic.Message, StringComparison.Ordinal);
         }

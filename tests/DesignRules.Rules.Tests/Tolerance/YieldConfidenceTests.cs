@@ -124,7 +124,7 @@ public sealed class YieldConfidenceTests
         Assert.DoesNotContain(report.Findings, f => f.RuleId == "DR402");
         var finding = Assert.Single(report.Findings, f => f.RuleId == "DR406");
         Assert.Equal(Severity.Warning, finding.Severity);
-        Assert.Equal(30, finding.Span.Line);
+        Assert.Equal(32, finding.Span.Line);
         Assert.NotNull(y.SamplesNeeded);
         Assert.Contains($"set `samples: {y.SamplesNeeded}` under `rule-set: monte-carlo:` in `yield-1000-uniform.yaml`", finding.Message, StringComparison.Ordinal);
 
