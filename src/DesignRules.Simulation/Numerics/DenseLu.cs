@@ -31,6 +31,8 @@ internal sealed class DenseLu<T>
     private readonly int[] rowFirst;
     private readonly int[] rowLast;
     private bool tracked;
+    private SparseRefactor? sparse;
+    private bool patternKnown;
     private T[] matrix;
     private int lower;
     private int upper;
@@ -95,6 +97,33 @@ internal sealed class DenseLu<T>
     /// <summary>Right-hand side; overwritten by the solution in <see cref="Solve()"/>.</summary>
     public T[] Rhs { get; }
 
+    /// <summary>
+    /// Factors with a sparse LU on an analysed pivot order (<see cref="SparseRefactor"/>) instead of dense partial
+    /// pivoting, where it can: a real system stored dense whose storage no caller reads directly. It falls back to the dense
+    /// LU for a factorisation whose pivot fails its check, so every system solved dense is solved; the solution may differ
+    /// in its last bits (another order of the arithmetic). Set it before loading: the pattern is learned from the loads
+    /// after the next <see cref="Clear"/>.
+    /// </summary>
+    public bool PreferSparse
+    {
+        get => sparse is not null;
+        set
+        {
+            if (value && sparse is null && ordering is null && recorded is null && typeof(T) == typeof(double))
+            {
+                sparse = new SparseRefactor(Size);
+                patternKnown = false;
+            }
+            else if (!value)
+            {
+                sparse = null;
+            }
+        }
+    }
+
+    /// <summary>The sparse LU in use, if any (for tests).</summary>
+    internal SparseRefactor? Sparse => sparse;
+
     /// <summary>A system that only records where entries are added (to compute an ordering), storing nothing.</summary>
     public static DenseLu<T> Recorder(int size, HashSet<(int, int)> into) => new(size, into);
 
@@ -110,12 +139,14 @@ internal sealed class DenseLu<T>
             }
 
             ResetExtents();
+            patternKnown = true;
         }
         else
         {
             Array.Clear(matrix);
         }
 
+        sparse?.Forget();
         Array.Clear(Rhs);
     }
 
@@ -143,7 +174,9 @@ internal sealed class DenseLu<T>
 
         if (ordering is null)
         {
-            matrix[(row * Size) + column] += value;
+            int at = (row * Size) + column;
+            matrix[at] += value;
+            sparse?.Loaded(at);
             if (column < rowFirst[row]) rowFirst[row] = column;
             if (column > rowLast[row]) rowLast[row] = column;
             return;
@@ -196,10 +229,22 @@ internal sealed class DenseLu<T>
 
         Array.Copy(other.matrix, matrix, matrix.Length);
         if (rowFirst.Length > 0) FullExtents();
+        patternKnown = false;
+        sparse?.Forget();
     }
 
     /// <summary>Factors the matrix in place. Returns −1 on success or the index of the unknown (column) found singular.</summary>
-    public int Factor() => ordering is null ? FactorDense() : FactorBand();
+    public int Factor()
+    {
+        if (ordering is not null) return FactorBand();
+        if (sparse is not null)
+        {
+            sparse.Forget();
+            if (tracked && patternKnown && sparse.TryFactor((double[])(object)matrix, columnScale, rowFirst, rowLast)) return -1;
+        }
+
+        return FactorDense();
+    }
 
     /// <summary>Solves with the factors; the solution replaces <see cref="Rhs"/>.</summary>
     public void Solve() => Solve(Rhs, work);
@@ -211,7 +256,11 @@ internal sealed class DenseLu<T>
     /// </summary>
     public void Solve(T[] b, T[] scratch)
     {
-        if (ordering is null)
+        if (sparse is { Factored: true })
+        {
+            sparse.Solve((double[])(object)matrix, (double[])(object)b, (double[])(object)scratch);
+        }
+        else if (ordering is null)
         {
             SolveDense(b);
         }
