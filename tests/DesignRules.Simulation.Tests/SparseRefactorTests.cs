@@ -3,10 +3,10 @@ using MathNet.Numerics.LinearAlgebra;
 namespace DesignRules.Simulation.Tests;
 
 /// <summary>
-/// The sparse LU a transient's Newton iterations factor with (an analysed pivot order, refactored on the fixed pattern),
-/// checked against MathNet.Numerics' dense LU solve and against the engine's own dense partial-pivoting LU on the same
-/// loads. The matrices are shaped like modified nodal equations: conductance blocks between nodes, and voltage-source
-/// (branch-current) rows and columns with a zero on the diagonal.
+/// The replayed LU a transient's Newton iterations factor with (the last factorisation's row interchanges replayed on its
+/// pattern), checked against MathNet.Numerics' dense LU solve and, to the bit, against the engine's own dense
+/// partial-pivoting LU on the same loads. The matrices are shaped like modified nodal equations: conductance blocks
+/// between nodes, and voltage-source (branch-current) rows and columns with a zero on the diagonal.
 /// </summary>
 public sealed class SparseRefactorTests
 {
@@ -48,23 +48,25 @@ public sealed class SparseRefactorTests
             for (int i = 0; i < n; i++)
             {
                 Assert.Equal(expected[i], sparse.Rhs[i], 1e-10 * scale);
-                Assert.Equal(dense.Rhs[i], sparse.Rhs[i], 1e-10 * scale);
+                Assert.Equal(BitConverter.DoubleToInt64Bits(dense.Rhs[i]), BitConverter.DoubleToInt64Bits(sparse.Rhs[i]));
             }
         }
 
-        // One analysis served every round (the pattern stayed the same), and every round was factored sparse.
-        Assert.Equal(1, sparse.Sparse!.Analyses);
+        // The first round was factored dense (nothing to replay yet); the values changed but not the interchanges, so every
+        // later round was replayed.
+        Assert.Equal(5, sparse.Sparse!.Replayed);
         Assert.Equal(0, sparse.Sparse.Fallbacks);
-        Assert.True(sparse.Sparse.Factored);
     }
 
     [Fact]
-    public void A_pivot_that_became_too_small_falls_back_to_the_dense_lu_and_still_solves()
+    public void A_load_on_which_partial_pivoting_chooses_another_row_is_factored_dense_and_still_solves()
     {
-        // Reference: MathNet.Numerics' dense LU solve. The first load fixes the pivot order; the second makes the entry
-        // chosen as the first pivot tiny against its column (1e-9 against 1), which the refactor check must catch: the
-        // dense partial-pivoting LU factors that load instead (same bits as the dense LU alone), and the next load is
-        // analysed afresh.
+        // Reference: MathNet.Numerics' dense LU solve, and the dense LU to the bit. The first load fixes the interchanges
+        // (none: 4 leads its column); the second makes the first pivot tiny (1e-9 against 1, near-singular), so partial
+        // pivoting takes row 1: the replay must see it and leave that load to the dense LU; the third ties the first
+        // column (1 against 1), where the dense LU keeps the row it meets first (row 0, as recorded from the second
+        // load's interchange the other way round: the replay must not keep row 1); the fourth repeats the third's
+        // interchanges and is replayed.
         const int n = 3;
         var sparse = new DenseLu<double>(n) { PreferSparse = true };
         var dense = new DenseLu<double>(n);
@@ -72,8 +74,10 @@ public sealed class SparseRefactorTests
         [
             [4, 1, 0, 1, 3, 1, 0, 1, 2],
             [1e-9, 1, 0, 1, 3, 1, 0, 1, 2],
-            [4, 1, 0, 1, 3, 1, 0, 1, 2],
+            [1, 1, 0, 1, 3, 1, 0, 1, 2],
+            [1, 2, 0, 1, 3, 1, 0, 1, 2],
         ];
+        bool[] replayed = [false, false, false, true];
         for (int round = 0; round < loads.Length; round++)
         {
             sparse.Clear();
@@ -98,25 +102,23 @@ public sealed class SparseRefactorTests
                 dense.Rhs[i] = b[i];
             }
 
+            int before = sparse.Sparse?.Replayed ?? 0;
             Assert.Equal(-1, sparse.Factor());
             Assert.Equal(-1, dense.Factor());
             sparse.Solve();
             dense.Solve();
             var expected = reference.Solve(b);
-            for (int i = 0; i < n; i++) Assert.Equal(expected[i], sparse.Rhs[i], 1e-12);
-            if (round == 1)
+            for (int i = 0; i < n; i++)
             {
-                Assert.False(sparse.Sparse!.Factored);
-                for (int i = 0; i < n; i++) Assert.Equal(BitConverter.DoubleToInt64Bits(dense.Rhs[i]), BitConverter.DoubleToInt64Bits(sparse.Rhs[i]));
+                Assert.Equal(expected[i], sparse.Rhs[i], 1e-12);
+                Assert.Equal(BitConverter.DoubleToInt64Bits(dense.Rhs[i]), BitConverter.DoubleToInt64Bits(sparse.Rhs[i]));
             }
-            else
-            {
-                Assert.True(sparse.Sparse!.Factored);
-            }
+
+            Assert.Equal(replayed[round], sparse.Sparse!.Replayed > before);
         }
 
-        Assert.Equal(1, sparse.Sparse!.Fallbacks);
-        Assert.Equal(2, sparse.Sparse.Analyses);
+        Assert.Equal(1, sparse.Sparse!.Replayed);
+        Assert.Equal(2, sparse.Sparse.Fallbacks);
     }
 
     [Fact]
@@ -171,7 +173,9 @@ public sealed class SparseRefactorTests
             for (int i = 0; i < n; i++) Assert.Equal(expected[i], sparse.Rhs[i], 1e-10 * expected.AbsoluteMaximum());
         }
 
-        Assert.Equal(2, sparse.Sparse!.Analyses);
+        // The first round had nothing to replay; the second met a new position, analysed afresh with it (not dropped) and
+        // replayed with the same interchanges.
+        Assert.Equal(1, sparse.Sparse!.Replayed);
     }
 
     /// <summary>

@@ -98,11 +98,10 @@ internal sealed class DenseLu<T>
     public T[] Rhs { get; }
 
     /// <summary>
-    /// Factors with a sparse LU on an analysed pivot order (<see cref="SparseRefactor"/>) instead of dense partial
-    /// pivoting, where it can: a real system stored dense whose storage no caller reads directly. It falls back to the dense
-    /// LU for a factorisation whose pivot fails its check, so every system solved dense is solved; the solution may differ
-    /// in its last bits (another order of the arithmetic). Set it before loading: the pattern is learned from the loads
-    /// after the next <see cref="Clear"/>.
+    /// Replays the last factorisation's row interchanges on its pattern (<see cref="SparseRefactor"/>) where it can: a real
+    /// system stored dense whose storage no caller reads directly, factored many times with one pattern. The factors are
+    /// the same bits as the dense LU's; a factorisation where partial pivoting would choose another row is left to the
+    /// dense LU. Set it before loading: the pattern is learned from the loads after the next <see cref="Clear"/>.
     /// </summary>
     public bool PreferSparse
     {
@@ -146,7 +145,6 @@ internal sealed class DenseLu<T>
             Array.Clear(matrix);
         }
 
-        sparse?.Forget();
         Array.Clear(Rhs);
     }
 
@@ -230,20 +228,31 @@ internal sealed class DenseLu<T>
         Array.Copy(other.matrix, matrix, matrix.Length);
         if (rowFirst.Length > 0) FullExtents();
         patternKnown = false;
-        sparse?.Forget();
     }
 
     /// <summary>Factors the matrix in place. Returns −1 on success or the index of the unknown (column) found singular.</summary>
     public int Factor()
     {
         if (ordering is not null) return FactorBand();
-        if (sparse is not null)
+        if (sparse is null) return FactorDense();
+        if (!tracked || !patternKnown)
         {
             sparse.Forget();
-            if (tracked && patternKnown && sparse.TryFactor((double[])(object)matrix, columnScale, rowFirst, rowLast)) return -1;
+            return FactorDense();
         }
 
-        return FactorDense();
+        if (sparse.TryFactor((double[])(object)matrix, columnScale, rowOfStep, rowFirst, rowLast)) return -1;
+        int singular = FactorDense();
+        if (singular < 0)
+        {
+            sparse.Record(rowOfStep);
+        }
+        else
+        {
+            sparse.Forget();
+        }
+
+        return singular;
     }
 
     /// <summary>Solves with the factors; the solution replaces <see cref="Rhs"/>.</summary>
@@ -256,11 +265,7 @@ internal sealed class DenseLu<T>
     /// </summary>
     public void Solve(T[] b, T[] scratch)
     {
-        if (sparse is { Factored: true })
-        {
-            sparse.Solve((double[])(object)matrix, (double[])(object)b, (double[])(object)scratch);
-        }
-        else if (ordering is null)
+        if (ordering is null)
         {
             SolveDense(b);
         }

@@ -1,82 +1,55 @@
 namespace DesignRules.Simulation.Numerics;
 
 /// <summary>
-/// A sparse LU of a small real system kept in <see cref="DenseLu{T}"/>'s dense row-major storage, for the many
-/// factorisations of one circuit's Newton iterations (a transient factors the same pattern tens of thousands of times).
-/// A circuit's rows are short, so a dense elimination spends most of its time on zeros and on the fill a natural order
-/// makes. The analysis, once per pattern, picks the pivots by Markowitz's rule (fewest (row count − 1)·(column count − 1)
-/// of the active submatrix) among entries passing a threshold of partial pivoting on the values then loaded (at least
-/// <see cref="AnalysisThreshold"/> of their column's largest: the threshold pivoting of Duff, Erisman and Reid, "Direct
-/// Methods for Sparse Matrices", ch. 7), records the fill it makes and lists, per step, the multipliers to form and the
-/// updates to make. Every later factorisation runs those lists only. Its pivots are checked as they are formed: a pivot
-/// below <see cref="RefactorThreshold"/> of its column's largest remaining entry, below the dense solver's singularity
-/// test or not finite, or any entry not finite, restores the loaded values and leaves the factorisation to the dense
-/// partial-pivoting LU (which also decides singularity, exactly as without this), and the next factorisation analyses
-/// afresh. So every system the dense LU solves is still solved; only the order of the arithmetic (and so the last bits)
-/// differs. An entry loaded outside the analysed pattern makes the next factorisation analyse afresh as well.
+/// The dense partial-pivoting LU of <see cref="DenseLu{T}"/> (real, dense storage) replayed on its pattern: a transient's
+/// Newton iterations factor one circuit tens of thousands of times, and nearly always with the same row interchanges.
+/// After a dense factorisation this records its interchanges and, from the positions loaded, the fill they make; later
+/// factorisations run only the multipliers and updates of that pattern, in the dense LU's order, so the factors are the
+/// same bits (an update skipped is x − m·0, which is x). Each step checks that partial pivoting would choose the same
+/// row (no other candidate larger, none as large that the dense LU meets first) and that the pivot passes the dense LU's
+/// singularity test; any entry not finite, a new position loaded, or a check failing restores the loaded matrix and
+/// leaves the factorisation to the dense LU, whose interchanges are then recorded afresh. So every system is factored
+/// exactly as the dense LU factors it, and only the time differs.
 /// </summary>
 internal sealed class SparseRefactor
 {
-    /// <summary>Threshold of the analysis' pivot choice: 0.1, the value Duff, Erisman and Reid recommend (common practice).</summary>
-    public const double AnalysisThreshold = 0.1;
-
-    /// <summary>Smallest pivot a refactorisation accepts, relative to its column's largest remaining entry.</summary>
-    public const double RefactorThreshold = 0.01;
-
     private readonly int n;
     private readonly bool[] loaded;
-    private readonly double[] work;
     private readonly bool[] structure;
-    private readonly int[] rowCount;
-    private readonly int[] columnCount;
-    private readonly bool[] rowDone;
-    private readonly bool[] columnDone;
-    private readonly int[] rowOf;
-    private readonly int[] columnOf;
-    private readonly int[] diagonal;
-    private readonly double[] scratch;
-    private readonly int[] fillFirst;
-    private readonly int[] fillLast;
+    private readonly int[] pivotOf;
+    private readonly int[] savedFirst;
+    private readonly int[] savedLast;
+    private readonly int[] factorFirst;
+    private readonly int[] factorLast;
     private int[] lowerStart = [];
-    private int[] lowerIndex = [];
-    private int[] lowerStep = [];
+    private int[] lowerRow = [];
+    private bool[] lowerStrict = [];
     private int[] upperStart = [];
-    private int[] upperIndex = [];
-    private int[] upperStep = [];
-    private int[] updateTarget = [];
-    private int[] filled = [];
-    private int[] filledColumn = [];
+    private int[] upperColumn = [];
+    private int[] positions = [];
     private double[] saved = [];
+    private bool recorded;
     private bool analysed;
 
     public SparseRefactor(int size)
     {
         n = size;
         loaded = new bool[size * size];
-        work = new double[size * size];
         structure = new bool[size * size];
-        rowCount = new int[size];
-        columnCount = new int[size];
-        rowDone = new bool[size];
-        columnDone = new bool[size];
-        rowOf = new int[size];
-        columnOf = new int[size];
-        diagonal = new int[size];
-        scratch = new double[size];
-        fillFirst = new int[size];
-        fillLast = new int[size];
+        pivotOf = new int[size];
+        savedFirst = new int[size];
+        savedLast = new int[size];
+        factorFirst = new int[size];
+        factorLast = new int[size];
     }
 
-    /// <summary>Analyses made (for tests).</summary>
-    public int Analyses { get; private set; }
+    /// <summary>Factorisations replayed (for tests).</summary>
+    public int Replayed { get; private set; }
 
-    /// <summary>Factorisations left to the dense LU because a pivot failed its check (for tests).</summary>
+    /// <summary>Factorisations left to the dense LU after the pattern was known (for tests).</summary>
     public int Fallbacks { get; private set; }
 
-    /// <summary>True when the last <see cref="TryFactor"/> factored (its factors are in the storage, to solve with <see cref="Solve"/>).</summary>
-    public bool Factored { get; private set; }
-
-    /// <summary>Notes a position loaded (flat row-major index); a new one invalidates the analysis.</summary>
+    /// <summary>Notes a position loaded (flat row-major index); a new one makes the next factorisation dense.</summary>
     public void Loaded(int index)
     {
         if (loaded[index]) return;
@@ -84,262 +57,188 @@ internal sealed class SparseRefactor
         analysed = false;
     }
 
-    /// <summary>Forgets the last factors (the storage was cleared or overwritten).</summary>
-    public void Forget() => Factored = false;
-
     /// <summary>
-    /// Factors <paramref name="a"/> (loaded only at noted positions) in place on the analysed pattern. Returns false, with
-    /// <paramref name="a"/> as loaded, when the dense LU must factor it instead.
+    /// Replays the recorded factorisation on <paramref name="a"/> (loaded only at noted positions, row extents
+    /// <paramref name="rowFirst"/>..<paramref name="rowLast"/>). True when done (the factors, <paramref name="rowOfStep"/>
+    /// and the extents then are what the dense LU leaves for its solve); false with everything as loaded otherwise.
     /// </summary>
-    public bool TryFactor(double[] a, double[] columnScale, int[] rowFirst, int[] rowLast)
+    public bool TryFactor(double[] a, double[] columnScale, int[] rowOfStep, int[] rowFirst, int[] rowLast)
     {
-        Factored = false;
-        if (!analysed && !Analyse(a)) return false;
-        var positions = filled;
-        var columns = filledColumn;
+        if (!recorded) return false;
+        if (!analysed) Analyse();
+        var at = positions;
         var keep = saved;
         for (int c = 0; c < n; c++) columnScale[c] = 0;
-        for (int t = 0; t < positions.Length; t++)
+        for (int t = 0; t < at.Length; t++)
         {
-            double v = a[positions[t]];
+            double v = a[at[t]];
+            if (!double.IsFinite(v)) return false;
             keep[t] = v;
             double m = Math.Abs(v);
-            if (!double.IsFinite(v)) return false;
-            if (m > columnScale[columns[t]]) columnScale[columns[t]] = m;
+            int c = at[t] % n;
+            if (m > columnScale[c]) columnScale[c] = m;
         }
 
+        Array.Copy(rowFirst, savedFirst, n);
+        Array.Copy(rowLast, savedLast, n);
         var lStart = lowerStart;
-        var lIndex = lowerIndex;
+        var lRow = lowerRow;
+        var lStrict = lowerStrict;
         var uStart = upperStart;
-        var uIndex = upperIndex;
-        var targets = updateTarget;
-        int op = 0;
+        var uColumn = upperColumn;
         for (int k = 0; k < n; k++)
         {
-            double pivot = a[diagonal[k]];
-            double magnitude = Math.Abs(pivot);
-            double largest = 0;
-            for (int e = lStart[k]; e < lStart[k + 1]; e++) largest = Math.Max(largest, Math.Abs(a[lIndex[e]]));
-            if (!(magnitude > 1e-14 * columnScale[columnOf[k]]) || !double.IsFinite(magnitude) || !double.IsFinite(largest) || magnitude < RefactorThreshold * largest)
+            int p = pivotOf[k];
+            if (p != k)
             {
-                for (int t = 0; t < positions.Length; t++) a[positions[t]] = keep[t];
-                Fallbacks++;
-                analysed = false;
+                Swap(a, k * n, p * n, n);
+            }
+
+            int pivotBase = k * n;
+            double pivot = a[pivotBase + k];
+            double magnitude = Math.Abs(pivot);
+            bool usable = magnitude > 1e-14 * columnScale[k] && double.IsFinite(magnitude);
+            for (int e = lStart[k]; usable && e < lStart[k + 1]; e++)
+            {
+                double m = Math.Abs(a[(lRow[e] * n) + k]);
+                if (m > magnitude || (m == magnitude && lStrict[e]) || !double.IsFinite(m)) usable = false;
+            }
+
+            if (!usable)
+            {
+                Restore(a, rowFirst, rowLast);
                 return false;
             }
 
+            rowOfStep[k] = p;
             int uFrom = uStart[k], uTo = uStart[k + 1];
             for (int e = lStart[k]; e < lStart[k + 1]; e++)
             {
-                double factor = a[lIndex[e]];
-                if (factor == 0)
-                {
-                    op += uTo - uFrom;
-                    continue;
-                }
-
+                int rowBase = lRow[e] * n;
+                double factor = a[rowBase + k];
+                if (factor == 0) continue;
                 factor /= pivot;
-                a[lIndex[e]] = factor;
-                for (int u = uFrom; u < uTo; u++) a[targets[op++]] -= factor * a[uIndex[u]];
+                a[rowBase + k] = factor;
+                for (int u = uFrom; u < uTo; u++)
+                {
+                    int c = uColumn[u];
+                    a[rowBase + c] -= factor * a[pivotBase + c];
+                }
             }
         }
 
-        // Clearing the storage must reach the fill as well.
+        // A value that overflowed on the way would have met zeros the dense LU multiplies and this one skips.
         for (int r = 0; r < n; r++)
         {
-            if (fillFirst[r] < rowFirst[r]) rowFirst[r] = fillFirst[r];
-            if (fillLast[r] > rowLast[r]) rowLast[r] = fillLast[r];
+            int rowBase = r * n;
+            for (int c = factorFirst[r]; c <= factorLast[r]; c++)
+            {
+                if (!double.IsFinite(a[rowBase + c]))
+                {
+                    Restore(a, rowFirst, rowLast);
+                    return false;
+                }
+            }
         }
 
-        Factored = true;
+        Array.Copy(factorFirst, rowFirst, n);
+        Array.Copy(factorLast, rowLast, n);
+        Replayed++;
         return true;
     }
 
-    /// <summary>Solves with the factors in <paramref name="a"/>; the solution replaces <paramref name="b"/>.</summary>
-    public void Solve(double[] a, double[] b, double[] buffer)
+    /// <summary>Records the interchanges of a dense factorisation that succeeded, to replay from the next one on.</summary>
+    public void Record(int[] rowOfStep)
     {
-        var z = buffer.Length >= n ? buffer : scratch;
-        for (int k = 0; k < n; k++) z[k] = b[rowOf[k]];
-        var lStart = lowerStart;
-        var lIndex = lowerIndex;
-        var lStep = lowerStep;
-        for (int k = 0; k < n; k++)
-        {
-            double zk = z[k];
-            if (zk == 0) continue;
-            for (int e = lStart[k]; e < lStart[k + 1]; e++) z[lStep[e]] -= a[lIndex[e]] * zk;
-        }
-
-        var uStart = upperStart;
-        var uIndex = upperIndex;
-        var uStep = upperStep;
-        for (int k = n - 1; k >= 0; k--)
-        {
-            double sum = z[k];
-            for (int u = uStart[k]; u < uStart[k + 1]; u++) sum -= a[uIndex[u]] * z[uStep[u]];
-            z[k] = sum / a[diagonal[k]];
-        }
-
-        for (int k = 0; k < n; k++) b[columnOf[k]] = z[k];
+        Array.Copy(rowOfStep, pivotOf, n);
+        recorded = true;
+        analysed = false;
     }
 
-    /// <summary>Markowitz pivot order with threshold pivoting on the values loaded now; false when no usable pivot is left.</summary>
-    private bool Analyse(double[] a)
+    /// <summary>Forgets the recorded interchanges (the dense LU failed or the storage was overwritten).</summary>
+    public void Forget()
     {
-        Analyses++;
+        recorded = false;
+        analysed = false;
+    }
+
+    private static void Swap<TValue>(TValue[] array, int first, int second, int length)
+    {
+        for (int i = 0; i < length; i++) (array[first + i], array[second + i]) = (array[second + i], array[first + i]);
+    }
+
+    private void Restore(double[] a, int[] rowFirst, int[] rowLast)
+    {
+        Array.Clear(a, 0, n * n);
+        for (int t = 0; t < positions.Length; t++) a[positions[t]] = saved[t];
+        Array.Copy(savedFirst, rowFirst, n);
+        Array.Copy(savedLast, rowLast, n);
+        Fallbacks++;
+        recorded = false;
+        analysed = false;
+    }
+
+    /// <summary>The fill and the step lists of the recorded interchanges on the loaded pattern (a boolean elimination).</summary>
+    private void Analyse()
+    {
         int size = n;
-        Array.Copy(a, work, size * size);
         Array.Copy(loaded, structure, size * size);
-        Array.Clear(rowDone);
-        Array.Clear(columnDone);
-        Array.Clear(rowCount);
-        Array.Clear(columnCount);
-        for (int r = 0; r < size; r++)
-        {
-            for (int c = 0; c < size; c++)
-            {
-                if (!structure[(r * size) + c]) continue;
-                rowCount[r]++;
-                columnCount[c]++;
-            }
-        }
-
-        for (int k = 0; k < size; k++)
-        {
-            int pivotRow = -1, pivotColumn = -1;
-            long bestCost = long.MaxValue;
-            double bestMagnitude = 0;
-            for (int c = 0; c < size; c++)
-            {
-                if (columnDone[c]) continue;
-                double largest = 0;
-                for (int r = 0; r < size; r++)
-                {
-                    if (!rowDone[r] && structure[(r * size) + c]) largest = Math.Max(largest, Math.Abs(work[(r * size) + c]));
-                }
-
-                if (!(largest > 0) || !double.IsFinite(largest)) continue;
-                for (int r = 0; r < size; r++)
-                {
-                    if (rowDone[r] || !structure[(r * size) + c]) continue;
-                    double m = Math.Abs(work[(r * size) + c]);
-                    if (m < AnalysisThreshold * largest) continue;
-                    long cost = (long)(rowCount[r] - 1) * (columnCount[c] - 1);
-                    if (cost < bestCost || (cost == bestCost && m > bestMagnitude))
-                    {
-                        bestCost = cost;
-                        bestMagnitude = m;
-                        pivotRow = r;
-                        pivotColumn = c;
-                    }
-                }
-            }
-
-            if (pivotRow < 0) return false;
-            rowOf[k] = pivotRow;
-            columnOf[k] = pivotColumn;
-            rowDone[pivotRow] = true;
-            columnDone[pivotColumn] = true;
-            double pivot = work[(pivotRow * size) + pivotColumn];
-            for (int r = 0; r < size; r++)
-            {
-                if (rowDone[r] || !structure[(r * size) + pivotColumn]) continue;
-                double factor = work[(r * size) + pivotColumn] / pivot;
-                rowCount[r]--;
-                for (int c = 0; c < size; c++)
-                {
-                    if (columnDone[c] || !structure[(pivotRow * size) + c]) continue;
-                    int at = (r * size) + c;
-                    if (!structure[at])
-                    {
-                        structure[at] = true;
-                        rowCount[r]++;
-                        columnCount[c]++;
-                    }
-
-                    work[at] -= factor * work[(pivotRow * size) + c];
-                }
-            }
-
-            for (int c = 0; c < size; c++)
-            {
-                if (!columnDone[c] && structure[(pivotRow * size) + c]) columnCount[c]--;
-            }
-        }
-
-        BuildLists();
-        analysed = true;
-        return true;
-    }
-
-    private void BuildLists()
-    {
-        int size = n;
         var lStart = new int[size + 1];
         var uStart = new int[size + 1];
-        var lIndex = new List<int>();
-        var lStep = new List<int>();
-        var uIndex = new List<int>();
-        var uStep = new List<int>();
+        var lRow = new List<int>();
+        var lStrict = new List<bool>();
+        var uColumn = new List<int>();
         for (int k = 0; k < size; k++)
         {
-            int pr = rowOf[k], pc = columnOf[k];
-            diagonal[k] = (pr * size) + pc;
-            lStart[k] = lIndex.Count;
-            uStart[k] = uIndex.Count;
-            for (int j = k + 1; j < size; j++)
+            int p = pivotOf[k];
+            if (p != k)
             {
-                int below = (rowOf[j] * size) + pc;
-                if (structure[below])
-                {
-                    lIndex.Add(below);
-                    lStep.Add(j);
-                }
+                Swap(structure, k * size, p * size, size);
+            }
 
-                int right = (pr * size) + columnOf[j];
-                if (structure[right])
-                {
-                    uIndex.Add(right);
-                    uStep.Add(j);
-                }
+            lStart[k] = lRow.Count;
+            uStart[k] = uColumn.Count;
+            for (int c = k + 1; c < size; c++)
+            {
+                if (structure[(k * size) + c]) uColumn.Add(c);
+            }
+
+            for (int r = k + 1; r < size; r++)
+            {
+                if (!structure[(r * size) + k]) continue;
+
+                // Where the row stood when the dense LU searched the column (before the interchange): one met before the
+                // chosen row must be strictly smaller for the dense LU to pass it by.
+                int before = r == p ? k : r;
+                lRow.Add(r);
+                lStrict.Add(before < p);
+                for (int u = uStart[k]; u < uColumn.Count; u++) structure[(r * size) + uColumn[u]] = true;
             }
         }
 
-        lStart[size] = lIndex.Count;
-        uStart[size] = uIndex.Count;
-        var targets = new List<int>();
-        for (int k = 0; k < size; k++)
-        {
-            for (int e = lStart[k]; e < lStart[k + 1]; e++)
-            {
-                int row = lIndex[e] / size;
-                for (int u = uStart[k]; u < uStart[k + 1]; u++) targets.Add((row * size) + (uIndex[u] % size));
-            }
-        }
-
-        var positions = new List<int>();
-        var columns = new List<int>();
-        Array.Fill(fillFirst, size);
-        Array.Fill(fillLast, -1);
-        for (int at = 0; at < size * size; at++)
-        {
-            if (!structure[at]) continue;
-            positions.Add(at);
-            int r = at / size, c = at % size;
-            columns.Add(c);
-            if (c < fillFirst[r]) fillFirst[r] = c;
-            if (c > fillLast[r]) fillLast[r] = c;
-        }
-
+        lStart[size] = lRow.Count;
+        uStart[size] = uColumn.Count;
         lowerStart = lStart;
         upperStart = uStart;
-        lowerIndex = [.. lIndex];
-        lowerStep = [.. lStep];
-        upperIndex = [.. uIndex];
-        upperStep = [.. uStep];
-        updateTarget = [.. targets];
-        filled = [.. positions];
-        filledColumn = [.. columns];
-        saved = new double[filled.Length];
+        lowerRow = [.. lRow];
+        lowerStrict = [.. lStrict];
+        upperColumn = [.. uColumn];
+        var at = new List<int>();
+        for (int r = 0; r < size; r++)
+        {
+            factorFirst[r] = size;
+            factorLast[r] = -1;
+            for (int c = 0; c < size; c++)
+            {
+                if (loaded[(r * size) + c]) at.Add((r * size) + c);
+                if (!structure[(r * size) + c]) continue;
+                factorFirst[r] = Math.Min(factorFirst[r], c);
+                factorLast[r] = Math.Max(factorLast[r], c);
+            }
+        }
+
+        positions = [.. at];
+        saved = new double[positions.Length];
+        analysed = true;
     }
 }
