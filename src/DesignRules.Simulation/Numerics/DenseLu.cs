@@ -90,6 +90,7 @@ internal sealed class DenseLu<T>
             // A caller that reads or writes the storage itself bypasses the row extents: from then on this system clears,
             // factors and solves over every entry.
             tracked = false;
+            sparse?.Unfactored();
             return matrix;
         }
     }
@@ -139,6 +140,7 @@ internal sealed class DenseLu<T>
 
             ResetExtents();
             patternKnown = true;
+            sparse?.Unfactored();
         }
         else
         {
@@ -228,6 +230,7 @@ internal sealed class DenseLu<T>
         Array.Copy(other.matrix, matrix, matrix.Length);
         if (rowFirst.Length > 0) FullExtents();
         patternKnown = false;
+        sparse?.Unfactored();
     }
 
     /// <summary>Factors the matrix in place. Returns −1 on success or the index of the unknown (column) found singular.</summary>
@@ -235,6 +238,7 @@ internal sealed class DenseLu<T>
     {
         if (ordering is not null) return FactorBand();
         if (sparse is null) return FactorDense();
+        sparse.Unfactored();
         if (!tracked || !patternKnown)
         {
             sparse.Forget();
@@ -265,7 +269,11 @@ internal sealed class DenseLu<T>
     /// </summary>
     public void Solve(T[] b, T[] scratch)
     {
-        if (ordering is null)
+        if (sparse is { Factored: true })
+        {
+            sparse.Solve((double[])(object)matrix, (double[])(object)b, rowOfStep);
+        }
+        else if (ordering is null)
         {
             SolveDense(b);
         }

@@ -27,6 +27,12 @@ internal sealed class SparseRefactor
     private int[] upperStart = [];
     private int[] upperColumn = [];
     private int[] positions = [];
+    private int[] positionColumn = [];
+    private int[] factorPositions = [];
+    private int[] solveLowerStart = [];
+    private int[] solveLower = [];
+    private int[] solveUpperStart = [];
+    private int[] solveUpper = [];
     private double[] saved = [];
     private bool recorded;
     private bool analysed;
@@ -49,6 +55,46 @@ internal sealed class SparseRefactor
     /// <summary>Factorisations left to the dense LU after the pattern was known (for tests).</summary>
     public int Fallbacks { get; private set; }
 
+    /// <summary>True when the factors in the storage are a replay's (solve them with <see cref="Solve"/>).</summary>
+    public bool Factored { get; private set; }
+
+    /// <summary>
+    /// Solves with replayed factors as the dense LU's solve does (the interchanges, then each row's sum in column order),
+    /// over the factors' non-zero positions only; the solution replaces <paramref name="b"/>. Reads the factors only.
+    /// </summary>
+    public void Solve(double[] a, double[] b, int[] rowOfStep)
+    {
+        int size = n;
+        for (int k = 0; k < size; k++)
+        {
+            int p = rowOfStep[k];
+            if (p != k) (b[k], b[p]) = (b[p], b[k]);
+        }
+
+        var lStart = solveLowerStart;
+        var lower = solveLower;
+        for (int r = 1; r < size; r++)
+        {
+            double sum = b[r];
+            int rowBase = r * size;
+            for (int e = lStart[r]; e < lStart[r + 1]; e++) sum -= a[rowBase + lower[e]] * b[lower[e]];
+            b[r] = sum;
+        }
+
+        var uStart = solveUpperStart;
+        var upper = solveUpper;
+        for (int r = size - 1; r >= 0; r--)
+        {
+            double sum = b[r];
+            int rowBase = r * size;
+            for (int e = uStart[r]; e < uStart[r + 1]; e++) sum -= a[rowBase + upper[e]] * b[upper[e]];
+            b[r] = sum / a[rowBase + r];
+        }
+    }
+
+    /// <summary>The storage no longer holds replayed factors (cleared, or factored dense).</summary>
+    public void Unfactored() => Factored = false;
+
     /// <summary>Notes a position loaded (flat row-major index); a new one makes the next factorisation dense.</summary>
     public void Loaded(int index)
     {
@@ -64,6 +110,7 @@ internal sealed class SparseRefactor
     /// </summary>
     public bool TryFactor(double[] a, double[] columnScale, int[] rowOfStep, int[] rowFirst, int[] rowLast)
     {
+        Factored = false;
         if (!recorded) return false;
         if (!analysed) Analyse();
         var at = positions;
@@ -75,7 +122,7 @@ internal sealed class SparseRefactor
             if (!double.IsFinite(v)) return false;
             keep[t] = v;
             double m = Math.Abs(v);
-            int c = at[t] % n;
+            int c = positionColumn[t];
             if (m > columnScale[c]) columnScale[c] = m;
         }
 
@@ -128,22 +175,20 @@ internal sealed class SparseRefactor
         }
 
         // A value that overflowed on the way would have met zeros the dense LU multiplies and this one skips.
-        for (int r = 0; r < n; r++)
+        var factors = factorPositions;
+        for (int t = 0; t < factors.Length; t++)
         {
-            int rowBase = r * n;
-            for (int c = factorFirst[r]; c <= factorLast[r]; c++)
+            if (!double.IsFinite(a[factors[t]]))
             {
-                if (!double.IsFinite(a[rowBase + c]))
-                {
-                    Restore(a, rowFirst, rowLast);
-                    return false;
-                }
+                Restore(a, rowFirst, rowLast);
+                return false;
             }
         }
 
         Array.Copy(factorFirst, rowFirst, n);
         Array.Copy(factorLast, rowLast, n);
         Replayed++;
+        Factored = true;
         return true;
     }
 
@@ -224,19 +269,43 @@ internal sealed class SparseRefactor
         lowerStrict = [.. lStrict];
         upperColumn = [.. uColumn];
         var at = new List<int>();
+        var atColumn = new List<int>();
+        var factors = new List<int>();
+        var sLowerStart = new int[size + 1];
+        var sUpperStart = new int[size + 1];
+        var sLower = new List<int>();
+        var sUpper = new List<int>();
         for (int r = 0; r < size; r++)
         {
             factorFirst[r] = size;
             factorLast[r] = -1;
+            sLowerStart[r] = sLower.Count;
+            sUpperStart[r] = sUpper.Count;
             for (int c = 0; c < size; c++)
             {
-                if (loaded[(r * size) + c]) at.Add((r * size) + c);
+                if (loaded[(r * size) + c])
+                {
+                    at.Add((r * size) + c);
+                    atColumn.Add(c);
+                }
+
                 if (!structure[(r * size) + c]) continue;
+                factors.Add((r * size) + c);
+                if (c < r) sLower.Add(c);
+                if (c > r) sUpper.Add(c);
                 factorFirst[r] = Math.Min(factorFirst[r], c);
                 factorLast[r] = Math.Max(factorLast[r], c);
             }
         }
 
+        sLowerStart[size] = sLower.Count;
+        sUpperStart[size] = sUpper.Count;
+        solveLowerStart = sLowerStart;
+        solveUpperStart = sUpperStart;
+        solveLower = [.. sLower];
+        solveUpper = [.. sUpper];
+        factorPositions = [.. factors];
+        positionColumn = [.. atColumn];
         positions = [.. at];
         saved = new double[positions.Length];
         analysed = true;
