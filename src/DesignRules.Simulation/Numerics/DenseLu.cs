@@ -31,6 +31,8 @@ internal sealed class DenseLu<T>
     private readonly int[] rowFirst;
     private readonly int[] rowLast;
     private bool tracked;
+    private SparseRefactor? sparse;
+    private bool patternKnown;
     private T[] matrix;
     private int lower;
     private int upper;
@@ -88,12 +90,39 @@ internal sealed class DenseLu<T>
             // A caller that reads or writes the storage itself bypasses the row extents: from then on this system clears,
             // factors and solves over every entry.
             tracked = false;
+            sparse?.Unfactored();
             return matrix;
         }
     }
 
     /// <summary>Right-hand side; overwritten by the solution in <see cref="Solve()"/>.</summary>
     public T[] Rhs { get; }
+
+    /// <summary>
+    /// Replays the last factorisation's row interchanges on its pattern (<see cref="SparseRefactor"/>) where it can: a real
+    /// system stored dense whose storage no caller reads directly, factored many times with one pattern. The factors are
+    /// the same bits as the dense LU's; a factorisation where partial pivoting would choose another row is left to the
+    /// dense LU. Set it before loading: the pattern is learned from the loads after the next <see cref="Clear"/>.
+    /// </summary>
+    public bool PreferSparse
+    {
+        get => sparse is not null;
+        set
+        {
+            if (value && sparse is null && ordering is null && recorded is null && typeof(T) == typeof(double))
+            {
+                sparse = new SparseRefactor(Size);
+                patternKnown = false;
+            }
+            else if (!value)
+            {
+                sparse = null;
+            }
+        }
+    }
+
+    /// <summary>The sparse LU in use, if any (for tests).</summary>
+    internal SparseRefactor? Sparse => sparse;
 
     /// <summary>A system that only records where entries are added (to compute an ordering), storing nothing.</summary>
     public static DenseLu<T> Recorder(int size, HashSet<(int, int)> into) => new(size, into);
@@ -110,6 +139,8 @@ internal sealed class DenseLu<T>
             }
 
             ResetExtents();
+            patternKnown = true;
+            sparse?.Unfactored();
         }
         else
         {
@@ -143,7 +174,9 @@ internal sealed class DenseLu<T>
 
         if (ordering is null)
         {
-            matrix[(row * Size) + column] += value;
+            int at = (row * Size) + column;
+            matrix[at] += value;
+            sparse?.Loaded(at);
             if (column < rowFirst[row]) rowFirst[row] = column;
             if (column > rowLast[row]) rowLast[row] = column;
             return;
@@ -196,10 +229,35 @@ internal sealed class DenseLu<T>
 
         Array.Copy(other.matrix, matrix, matrix.Length);
         if (rowFirst.Length > 0) FullExtents();
+        patternKnown = false;
+        sparse?.Unfactored();
     }
 
     /// <summary>Factors the matrix in place. Returns −1 on success or the index of the unknown (column) found singular.</summary>
-    public int Factor() => ordering is null ? FactorDense() : FactorBand();
+    public int Factor()
+    {
+        if (ordering is not null) return FactorBand();
+        if (sparse is null) return FactorDense();
+        sparse.Unfactored();
+        if (!tracked || !patternKnown)
+        {
+            sparse.Forget();
+            return FactorDense();
+        }
+
+        if (sparse.TryFactor((double[])(object)matrix, columnScale, rowOfStep, rowFirst, rowLast)) return -1;
+        int singular = FactorDense();
+        if (singular < 0)
+        {
+            sparse.Record(rowOfStep);
+        }
+        else
+        {
+            sparse.Forget();
+        }
+
+        return singular;
+    }
 
     /// <summary>Solves with the factors; the solution replaces <see cref="Rhs"/>.</summary>
     public void Solve() => Solve(Rhs, work);
@@ -211,7 +269,11 @@ internal sealed class DenseLu<T>
     /// </summary>
     public void Solve(T[] b, T[] scratch)
     {
-        if (ordering is null)
+        if (sparse is { Factored: true })
+        {
+            sparse.Solve((double[])(object)matrix, (double[])(object)b, rowOfStep);
+        }
+        else if (ordering is null)
         {
             SolveDense(b);
         }
