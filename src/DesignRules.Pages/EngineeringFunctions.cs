@@ -7,7 +7,20 @@ namespace DesignRules.Pages;
 /// <summary>Functions the templates call: engineering notation, percent, and Markdown table-cell escaping.</summary>
 internal static class EngineeringFunctions
 {
+    // The functions imported once per process: importing them reads the class by reflection, and each import's methods get
+    // reflection invoke stubs of their own, which a warm process (the evaluation server) compiled again on every run once
+    // the garbage collector had dropped the previous run's. The imported functions hold no state; each render copies them
+    // into globals of its own, so nothing a template assigns reaches another render.
+    private static readonly ScriptObject Functions = Import();
+
     public static ScriptObject Create()
+    {
+        var globals = new ScriptObject();
+        globals.Import(Functions);
+        return globals;
+    }
+
+    private static ScriptObject Import()
     {
         var functions = new ScriptObject();
         functions.Import(typeof(TemplateFunctions), filter: null, renamer: member => member.Name.ToLowerInvariant());

@@ -83,7 +83,9 @@ internal sealed class OutputFolder
         {
             listedBefore ??= Directory.Exists(root) ? ReadManifest() : [];
             var full = Inside(relative);
-            return full is null || !listedBefore.Contains(relative) || LinkOnTheWay(relative) is not null ? null : StampOf(full);
+            // The folders on the way are checked once per run (a design's plots share one); the file itself by one look
+            // at its own entry, which also says whether it is a link (never followed) and gives its size and time.
+            return full is null || !listedBefore.Contains(relative) || LinkOnTheWay(relative, foldersOnly: true) is not null ? null : StampOf(full);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
@@ -105,13 +107,20 @@ internal sealed class OutputFolder
         }
     }
 
+    /// <summary>
+    /// "size:ticks" of a plain file, from one status call on the entry itself (lstat on Unix: a symbolic link shows as a
+    /// reparse point and is refused, never followed); null for a link, a folder or nothing.
+    /// </summary>
     private static string? StampOf(string full)
     {
         var info = new FileInfo(full);
-        return info.Exists && info.LinkTarget is null
+        return PlainFile(info)
             ? string.Create(CultureInfo.InvariantCulture, $"{info.Length}:{info.LastWriteTimeUtc.Ticks}")
             : null;
     }
+
+    private static bool PlainFile(FileInfo info) =>
+        info.Exists && (info.Attributes & (FileAttributes.ReparsePoint | FileAttributes.Directory)) == 0;
 
     /// <summary>Turns an id into a file-name part: lower-case letters, digits and hyphens only.</summary>
     public static string SafeName(string id)
@@ -184,7 +193,7 @@ internal sealed class OutputFolder
 
         var removed = new List<string>();
         // A kept file that vanished since it was vouched for is not listed again (the next run renders it).
-        kept.RemoveWhere(k => !listed.Contains(k) || LinkOnTheWay(k) is not null || !File.Exists(Inside(k)));
+        kept.RemoveWhere(k => !listed.Contains(k) || LinkOnTheWay(k, foldersOnly: true) is not null || Inside(k) is not { } full || !PlainFile(new FileInfo(full)));
         foreach (var relative in listed.Where(l => !pending.ContainsKey(l) && !kept.Contains(l)))
         {
             var full = Inside(relative);
@@ -217,12 +226,15 @@ internal sealed class OutputFolder
         return full.StartsWith(root + Path.DirectorySeparatorChar, StringComparison.Ordinal) ? full : null;
     }
 
-    /// <summary>The first symbolic link on the way from the folder to <paramref name="relative"/>, or null.</summary>
-    private string? LinkOnTheWay(string relative)
+    /// <summary>
+    /// The first symbolic link on the way from the folder to <paramref name="relative"/>, or null; with
+    /// <paramref name="foldersOnly"/> only the folders on the way are looked at (the caller looks at the file's own entry).
+    /// </summary>
+    private string? LinkOnTheWay(string relative, bool foldersOnly = false)
     {
         var path = root;
         var parts = relative.Split('/', StringSplitOptions.RemoveEmptyEntries);
-        for (var i = 0; i < parts.Length; i++)
+        for (var i = 0; i < (foldersOnly ? parts.Length - 1 : parts.Length); i++)
         {
             path = Path.Combine(path, parts[i]);
             var folder = i < parts.Length - 1;

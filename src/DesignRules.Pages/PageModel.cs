@@ -17,9 +17,12 @@ internal static class PageModel
     public static ScriptObject Index(CheckReport report, IReadOnlyList<(DesignSummary Summary, string Page)> designs)
     {
         var items = new ScriptArray();
+        // Each design's findings in the report's order, gathered in one pass: a large repository's index lists hundreds of
+        // designs, and a scan of every finding per design grew with the square of their number.
+        var byDesign = report.Findings.Where(f => f.DesignId is not null).ToLookup(f => f.DesignId!, StringComparer.Ordinal);
         foreach (var (summary, page) in designs)
         {
-            var findings = report.Findings.Where(f => f.DesignId == summary.Design.Id.Value).ToList();
+            var findings = byDesign[summary.Design.Id.Value].ToList();
             items.Add(new ScriptObject
             {
                 ["id"] = summary.Design.Id.Value,

@@ -172,6 +172,8 @@ internal sealed class ResultCache : IDesignResultStore
         }
 
         var pageKeys = new Dictionary<string, string>(StringComparer.Ordinal);
+        // Each design's findings in the report's order, gathered in one pass (not a scan of every finding per design).
+        var byDesign = report.Findings.Where(f => f.DesignId is not null).ToLookup(f => f.DesignId!, StringComparer.Ordinal);
         foreach (var summary in report.Designs)
         {
             var id = summary.Design.Id.Value;
@@ -184,7 +186,7 @@ internal sealed class ResultCache : IDesignResultStore
                 .Append("root ").Append(request.Root).Append('\n')
                 .Append("help ").Append(request.HelpUriBase).Append('\n')
                 .Append("templates\n").Append(templates)
-                .Append("findings ").Append(Convert.ToHexString(SHA256.HashData(ResultCodec.EncodeFindings(report.Findings.Where(f => f.DesignId == id))))).Append('\n');
+                .Append("findings ").Append(Convert.ToHexString(SHA256.HashData(ResultCodec.EncodeFindings(byDesign[id])))).Append('\n');
             pageKeys[id] = Hash(text.ToString());
         }
 

@@ -17,6 +17,26 @@ public sealed class TemplateOverrideTests
     }
 
     [Fact]
+    public void A_template_that_assigns_to_a_function_name_leaves_every_later_render_as_it_was()
+    {
+        // The template functions are imported once per process (a warm server renders run after run) and copied into each
+        // render's globals: whatever one template does to them, the next render of the built-in templates is the same bytes.
+        var (before, _) = ExamplePages.Render();
+        var templates = Directory.CreateTempSubdirectory("designrules-templates-").FullName;
+        File.WriteAllText(Path.Combine(templates, "index.md.sbn"), "{{ eng = \"replaced\"; percent = 1; cell = 2 }}# {{ eng }}\n");
+        ExamplePages.Render(templates);
+
+        var (after, _) = ExamplePages.Render();
+        var files = Directory.GetFiles(before, "*", SearchOption.AllDirectories).Select(f => Path.GetRelativePath(before, f)).Order(StringComparer.Ordinal).ToList();
+        Assert.Equal(files, Directory.GetFiles(after, "*", SearchOption.AllDirectories).Select(f => Path.GetRelativePath(after, f)).Order(StringComparer.Ordinal));
+        Assert.NotEmpty(files);
+        foreach (var file in files)
+        {
+            Assert.Equal(File.ReadAllBytes(Path.Combine(before, file)), File.ReadAllBytes(Path.Combine(after, file)));
+        }
+    }
+
+    [Fact]
     public void A_template_with_a_syntax_error_is_reported_at_its_file_line_and_column_and_writes_nothing()
     {
         var templates = Directory.CreateTempSubdirectory("designrules-templates-").FullName;

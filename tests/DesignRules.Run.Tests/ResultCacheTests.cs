@@ -137,6 +137,38 @@ public sealed class ResultCacheTests : IDisposable
         Assert.Equal(text, File.ReadAllText(page));
     }
 
+    [Fact]
+    public void A_kept_plot_replaced_by_a_link_to_the_same_bytes_is_not_kept_and_never_written_through()
+    {
+        repo.Run();
+        // The same bytes behind a symbolic link: its size matches the stamp, but a kept file must be a plain file of the folder.
+        var plot = Directory.GetFiles(Path.Combine(repo.Pages, "plots", "door-impact-peak-hold"), "*.svg").Order(StringComparer.Ordinal).First();
+        var outside = Path.Combine(repo.Root, "outside.svg");
+        File.Copy(plot, outside);
+        File.Delete(plot);
+        File.CreateSymbolicLink(plot, outside);
+        var before = File.ReadAllBytes(outside);
+
+        var (outcome, evaluated) = repo.Run();
+        Assert.Empty(evaluated);
+        Assert.DoesNotContain(outcome.Pages!.Kept, k => k.StartsWith("plots/door-impact-peak-hold/", StringComparison.Ordinal));
+        Assert.Contains(outcome.Pages.Diagnostics, d => d.Id == Pages.DatasheetPages.FolderProblemId);
+        Assert.Equal(before, File.ReadAllBytes(outside));
+    }
+
+    [Fact]
+    public void A_kept_page_that_vanished_is_rendered_again()
+    {
+        repo.Run();
+        var page = Path.Combine(repo.Pages, "door-impact-peak-hold.md");
+        var text = File.ReadAllText(page);
+        File.Delete(page);
+        var (outcome, evaluated) = repo.Run();
+        Assert.Empty(evaluated);
+        Assert.DoesNotContain("door-impact-peak-hold.md", outcome.Pages!.Kept);
+        Assert.Equal(text, File.ReadAllText(page));
+    }
+
     private static byte[] Flip(byte[] bytes, int at)
     {
         bytes[at] ^= 0x20;
