@@ -81,6 +81,14 @@ public sealed class VariedDcSolver
     /// </summary>
     private const int MaxLinearisedSteps = 24;
 
+    /// <summary>
+    /// Consecutive steps without contraction (each more than half the one before) after which steps from a value's own
+    /// reference solution are given up when a neighbouring value can provide another start: in the example's Monte Carlo
+    /// such steps (a rectifier's open-loop amplifier thrown into its swing clamp) never converged, and the start from the
+    /// neighbour then converges in about two steps. Those from a neighbour keep the full <see cref="MaxLinearisedSteps"/>.
+    /// </summary>
+    private const int StalledStepLimit = 4;
+
     private readonly NewtonSolver solver;
     private readonly CompiledCircuit compiled;
     private readonly Dictionary<string, Device> devices;
@@ -151,6 +159,16 @@ public sealed class VariedDcSolver
     /// </summary>
     public bool StopAtFigureNodes { get; set; } = true;
 
+    /// <summary>
+    /// Whether a warm sweep from a reference may write its solutions into arrays this solver keeps per reference and reuses
+    /// at the next warm sweep from the same reference (off by default): no allocation per sweep, but the solutions it returns
+    /// are then valid only until that next sweep. For a caller that reads them at once, such as a tolerance sample.
+    /// </summary>
+    public bool ReuseSolutions { get; set; }
+
+    /// <summary>Per reference sweep: the solution arrays a warm sweep from it fills when <see cref="ReuseSolutions"/> is on.</summary>
+    private readonly Dictionary<DcSolutions, double[][]> reusedSolutions = new(ReferenceEqualityComparer.Instance);
+
     /// <summary>Swept values a linearised solve accepted once the figure nodes had converged, the rest still moving (for tests).</summary>
     internal int FigureConvergedValues { get; private set; }
 
@@ -183,6 +201,15 @@ public sealed class VariedDcSolver
 
     /// <summary>Swept values where linearised steps were tried and did not converge, so a fuller path solved them (for tests).</summary>
     internal int LinearisedFallbacks { get; private set; }
+
+    /// <summary>Swept values solved by linearised steps started from a neighbouring value's solution of the same sweep (for tests).</summary>
+    internal int NeighbourStarts { get; private set; }
+
+    /// <summary>Linearised steps of attempts that did not converge (for measurements).</summary>
+    internal int AbandonedSteps { get; private set; }
+
+    /// <summary>Newton iterations taken by the fallback after linearised steps (for tests and measurements).</summary>
+    internal int FallbackNewtonIterations { get; private set; }
 
     /// <summary>Linearised steps taken since this solver was made, converged or not (for tests).</summary>
     internal int LinearisedSteps { get; private set; }
@@ -321,24 +348,60 @@ public sealed class VariedDcSolver
         context.Alpha = 0;
         context.SourceScale = 1;
         var solutions = new double[values.Count][];
-        var linearisation = Linearised && reference.Linearisation is { } l && l.Serves(sourceId, values) ? l : null;
-        if (linearisation is not null) PrepareLinearised(linearisation);
-        for (int i = 0; i < values.Count; i++)
+        double[][]? buffers = null;
+        if (ReuseSolutions && !reusedSolutions.TryGetValue(reference, out buffers))
         {
-            context.OverrideValue = values[i];
-            if (linearisation is not null)
+            buffers = new double[values.Count][];
+            for (int i = 0; i < buffers.Length; i++) buffers[i] = new double[Size];
+            reusedSolutions.Add(reference, buffers);
+        }
+
+        var linearisation = Linearised && reference.Linearisation is { } l && l.Serves(sourceId, values) ? l : null;
+        if (linearisation is not null)
+        {
+            PrepareLinearised(linearisation);
+            nonlinear.OverrideSource = sourceId;
+            if (linearisedUsable)
             {
-                nonlinear.OverrideSource = sourceId;
-                nonlinear.OverrideValue = values[i];
-                if (linearisedUsable && LinearisedSolve(linearisation, i))
+                // Every value from its own reference solution first; the values are independent of each other here.
+                for (int i = 0; i < values.Count; i++)
                 {
-                    LinearisedValues++;
-                    solutions[i] = (double[])context.X.Clone();
-                    continue;
+                    nonlinear.OverrideValue = values[i];
+                    int before = LinearisedSteps;
+                    if (LinearisedSolve(linearisation, i, null, values.Count > 1 ? StalledStepLimit : MaxLinearisedSteps)) solutions[i] = Keep(solver.Context.X, buffers, i);
+                    else AbandonedSteps += LinearisedSteps - before;
                 }
 
-                LinearisedFallbacks++;
+                // A value whose steps from its reference did not converge (a rectifier behind the stage at its dead zone's
+                // centre in the reference, open-loop, which the sample's offset carries across a diode drop: steps from the
+                // open-loop Jacobian overshoot into the swing clamp) is tried again from the same sample's solution at a
+                // neighbouring value, where that rectifier already conducts: the nearer side first, then the other. The same
+                // bounded steps and the same convergence test; only the start differs.
+                for (int i = 0; i < values.Count; i++)
+                {
+                    if (solutions[i] is not null) continue;
+                    nonlinear.OverrideValue = values[i];
+                    foreach (int j in Neighbours(values, i))
+                    {
+                        if (solutions[j] is null || !LinearisedSolve(linearisation, i, solutions[j], MaxLinearisedSteps)) continue;
+                        NeighbourStarts++;
+                        solutions[i] = Keep(solver.Context.X, buffers, i);
+                        break;
+                    }
+                }
             }
+        }
+
+        for (int i = 0; i < values.Count; i++)
+        {
+            if (solutions[i] is not null)
+            {
+                LinearisedValues++;
+                continue;
+            }
+
+            if (linearisation is not null) LinearisedFallbacks++;
+            context.OverrideValue = values[i];
 
             // After linearised steps failed (Newton's method already, in low-rank form), the chord iterations, a weaker form of
             // the same steps, are skipped: in the example's Monte Carlo they never solved a value the linearised steps had
@@ -348,7 +411,7 @@ public sealed class VariedDcSolver
                 return Sweep(sourceId, values);
             }
 
-            solutions[i] = (double[])context.X.Clone();
+            solutions[i] = Keep(context.X, buffers, i);
         }
 
         return new DcSolutions(compiled.Layout.Nodes, solutions, null);
@@ -416,13 +479,21 @@ public sealed class VariedDcSolver
     /// inside their swing). Converged, with the engine's test, when a step moves no unknown by more than its tolerance and
     /// no junction was limited; the solution is then in the solver's X.
     /// </summary>
-    private bool LinearisedSolve(SweepLinearisation linearisation, int level)
+    private bool LinearisedSolve(SweepLinearisation linearisation, int level, double[]? start, int stallLimit)
     {
         var x = nonlinear.X;
         int n = x.Length;
         Array.Copy(linearisation.Solutions[level], x, n);
+        if (start is not null)
+        {
+            // Only the solved unknowns start elsewhere; the others keep this value's reference solution, as always.
+            foreach (int i in linearisation.Unknowns) x[i] = start[i];
+        }
+
         var devices = compiled.Devices;
         var nonlinearDevices = linearisation.NonlinearDevices;
+        var reachedDevices = linearisation.ReachedNonlinearDevices;
+        var unreachedAmplifiers = linearisation.UnreachedAmplifiers;
         foreach (int d in nonlinearDevices) devices[d].Prime(x);
         int k = updates.Count;
         Array.Clear(responses);
@@ -444,12 +515,21 @@ public sealed class VariedDcSolver
         double relative = solver.Limits.RelativeTolerance;
         double shunt = nonlinear.JunctionShunt;
         double previousSize = double.PositiveInfinity;
+        int stalled = 0;
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
         {
             // The non-linear devices at x, in a dense system that holds only them.
             LinearisedSteps++;
             nonlinear.Limited = false;
-            foreach (int d in nonlinearDevices) devices[d].Load(nonlinear);
+            foreach (int d in reachedDevices) devices[d].Load(nonlinear);
+            foreach (int d in unreachedAmplifiers)
+            {
+                // What such an amplifier's load puts into the solved equations: its input bias currents (as in its Load).
+                var amplifier = (AmplifierDevice)devices[d];
+                var model = amplifier.Parameters.Model;
+                nonlinear.AddRhs(amplifier.Nodes.Plus, -model.InputBiasCurrentNonInverting * nonlinear.SourceScale);
+                nonlinear.AddRhs(amplifier.Nodes.Minus, -model.InputBiasCurrentInverting * nonlinear.SourceScale);
+            }
 
             // r = b_L − A_L·x − Σ ΔG·u·(uᵀ·x) + (b_N − A_N·x); the non-linear entries are cleared as they are read.
             // Rows outside the solved unknowns are only cleared (their equations are not solved; see SweepLinearisation.Unknowns).
@@ -564,12 +644,16 @@ public sealed class VariedDcSolver
                 converged = true;
             }
 
-            previousSize = size;
             if (converged)
             {
                 Array.Copy(x, solver.Context.X, n);
                 return true;
             }
+
+            // Steps that keep failing to contract (each more than half the one before) are not converging from this start.
+            stalled = size > FigureContraction * previousSize ? stalled + 1 : 0;
+            if (stalled >= stallLimit) return false;
+            previousSize = size;
         }
 
         return false;
@@ -580,6 +664,29 @@ public sealed class VariedDcSolver
     /// Jacobian (the steps' contraction changes by about this share; the residual, and so the solution, is exact).
     /// </summary>
     private const double NegligibleUpdate = 1e-9;
+
+    /// <summary>A copy of <paramref name="x"/>: into the reused array of value <paramref name="i"/>, or a new one.</summary>
+    private static double[] Keep(double[] x, double[][]? buffers, int i)
+    {
+        if (buffers is null) return (double[])x.Clone();
+        Array.Copy(x, buffers[i], x.Length);
+        return buffers[i];
+    }
+
+    /// <summary>The values beside <paramref name="i"/>, the nearer first (the lower on a tie), at most two.</summary>
+    private static IEnumerable<int> Neighbours(IReadOnlyList<double> values, int i)
+    {
+        bool below = i > 0, above = i + 1 < values.Count;
+        if (below && above && Math.Abs(values[i + 1] - values[i]) < Math.Abs(values[i] - values[i - 1]))
+        {
+            yield return i + 1;
+            yield return i - 1;
+            yield break;
+        }
+
+        if (below) yield return i - 1;
+        if (above) yield return i + 1;
+    }
 
     /// <summary>
     /// Whether a linearised step that left some unknowns unconverged may still be accepted because the figure unknowns have
@@ -665,7 +772,9 @@ public sealed class VariedDcSolver
         Array.Copy(start, x, x.Length);
         foreach (var device in compiled.Devices) device.Prime(x);
         chordValid = false;
-        return solver.Solve(solver.Limits.MaxDcIterations, 0).Status == NewtonStatus.Converged;
+        var outcome = solver.Solve(solver.Limits.MaxDcIterations, 0);
+        FallbackNewtonIterations += outcome.Iterations;
+        return outcome.Status == NewtonStatus.Converged;
     }
 
     /// <summary>
