@@ -513,7 +513,6 @@ public sealed class VariedDcSolver
         int count = unknowns.Length;
         var y = compressedStep;
         double relative = solver.Limits.RelativeTolerance;
-        double shunt = nonlinear.JunctionShunt;
         double previousSize = double.PositiveInfinity;
         int stalled = 0;
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
@@ -572,7 +571,7 @@ public sealed class VariedDcSolver
                 };
                 double change = u.Device switch
                 {
-                    DiodeDevice diode => diode.LoadedConductance(shunt) - held,
+                    DiodeDevice diode => diode.LoadedJunctionConductance - held,
                     AmplifierDevice amplifier when u.Key % 2 == 0 => amplifier.LoadedDriveSlope - held,
                     AmplifierDevice amplifier => amplifier.LoadedOutputConductance - held,
                     _ => u.Change,
