@@ -81,14 +81,6 @@ public sealed class VariedDcSolver
     /// </summary>
     private const int MaxLinearisedSteps = 24;
 
-    /// <summary>
-    /// Consecutive steps without contraction (each more than half the one before) after which steps from a value's own
-    /// reference solution are given up when a neighbouring value can provide another start: in the example's Monte Carlo
-    /// such steps (a rectifier's open-loop amplifier thrown into its swing clamp) never converged, and the start from the
-    /// neighbour then converges in about two steps. Those from a neighbour keep the full <see cref="MaxLinearisedSteps"/>.
-    /// </summary>
-    private const int StalledStepLimit = 4;
-
     private readonly NewtonSolver solver;
     private readonly CompiledCircuit compiled;
     private readonly Dictionary<string, Device> devices;
@@ -368,7 +360,7 @@ public sealed class VariedDcSolver
                 {
                     nonlinear.OverrideValue = values[i];
                     int before = LinearisedSteps;
-                    if (LinearisedSolve(linearisation, i, null, values.Count > 1 ? StalledStepLimit : MaxLinearisedSteps)) solutions[i] = Keep(solver.Context.X, buffers, i);
+                    if (LinearisedSolve(linearisation, i, null)) solutions[i] = Keep(solver.Context.X, buffers, i);
                     else AbandonedSteps += LinearisedSteps - before;
                 }
 
@@ -383,7 +375,7 @@ public sealed class VariedDcSolver
                     nonlinear.OverrideValue = values[i];
                     foreach (int j in Neighbours(values, i))
                     {
-                        if (solutions[j] is null || !LinearisedSolve(linearisation, i, solutions[j], MaxLinearisedSteps)) continue;
+                        if (solutions[j] is null || !LinearisedSolve(linearisation, i, solutions[j])) continue;
                         NeighbourStarts++;
                         solutions[i] = Keep(solver.Context.X, buffers, i);
                         break;
@@ -479,7 +471,7 @@ public sealed class VariedDcSolver
     /// inside their swing). Converged, with the engine's test, when a step moves no unknown by more than its tolerance and
     /// no junction was limited; the solution is then in the solver's X.
     /// </summary>
-    private bool LinearisedSolve(SweepLinearisation linearisation, int level, double[]? start, int stallLimit)
+    private bool LinearisedSolve(SweepLinearisation linearisation, int level, double[]? start)
     {
         var x = nonlinear.X;
         int n = x.Length;
@@ -514,7 +506,6 @@ public sealed class VariedDcSolver
         var y = compressedStep;
         double relative = solver.Limits.RelativeTolerance;
         double previousSize = double.PositiveInfinity;
-        int stalled = 0;
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
         {
             // The non-linear devices at x, in a dense system that holds only them.
@@ -648,10 +639,6 @@ public sealed class VariedDcSolver
                 Array.Copy(x, solver.Context.X, n);
                 return true;
             }
-
-            // Steps that keep failing to contract (each more than half the one before) are not converging from this start.
-            stalled = size > FigureContraction * previousSize ? stalled + 1 : 0;
-            if (stalled >= stallLimit) return false;
             previousSize = size;
         }
 
