@@ -58,7 +58,10 @@ public sealed class DcSolutions
 /// swept value, factored once for every sample, with the changed conductances added exactly by a low-rank update, and the
 /// full non-linear residual checked at every step with the same convergence test. A stage that stays linear (its
 /// amplifiers inside their swing, its diodes where they were) is solved in one step and confirmed by the next, with no
-/// factorisation; one that clips or whose diode changes state fails the test and takes the paths above.</para>
+/// factorisation; one that clips or whose diode changes state takes further steps (Newton's, for the diodes). A value whose
+/// steps from its own reference do not converge (a rectifier at its dead zone's centre in the reference, open-loop, carried
+/// across a diode drop by the sample) is started again from the same sweep's solution at a neighbouring value, and only
+/// then takes the paths above.</para>
 /// <para>Where the caller names the nodes its figures read (<see cref="SetFigureNodes"/>), a linearised solve may also stop
 /// once those have converged while unknowns elsewhere still move — a rectifier behind a linear stage, at its zero crossing,
 /// whose diodes take several steps to settle but move the stage's output only through the stage's tiny output impedance.
@@ -506,6 +509,7 @@ public sealed class VariedDcSolver
         var y = compressedStep;
         double relative = solver.Limits.RelativeTolerance;
         double previousSize = double.PositiveInfinity;
+        int thrown = 0;
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
         {
             // The non-linear devices at x, in a dense system that holds only them.
@@ -639,6 +643,12 @@ public sealed class VariedDcSolver
                 Array.Copy(x, solver.Context.X, n);
                 return true;
             }
+
+            // Junction-limited steps that keep moving some unknown by about its whole value without contracting: an
+            // amplifier thrown between its swing clamps. From the value's own reference, where a neighbour can restart it,
+            // such steps are given up after a few (in the example's Monte Carlo they never converged).
+            thrown = start is null && nonlinear.Limited && size >= ThrownStepSize && size > FigureContraction * previousSize ? thrown + 1 : 0;
+            if (thrown >= ThrownStepLimit) return false;
             previousSize = size;
         }
 
@@ -650,6 +660,12 @@ public sealed class VariedDcSolver
     /// Jacobian (the steps' contraction changes by about this share; the residual, and so the solution, is exact).
     /// </summary>
     private const double NegligibleUpdate = 1e-9;
+
+    /// <summary>A step's size, in tolerances, at which it moved some unknown by about its whole value (1/RelativeTolerance is 1e6).</summary>
+    private const double ThrownStepSize = 1e5;
+
+    /// <summary>Consecutive such steps (limited, not contracting) after which steps from a value's own reference are given up.</summary>
+    private const int ThrownStepLimit = 4;
 
     /// <summary>A copy of <paramref name="x"/>: into the reused array of value <paramref name="i"/>, or a new one.</summary>
     private static double[] Keep(double[] x, double[][]? buffers, int i)
