@@ -18,7 +18,9 @@ namespace DesignRules.Benchmarks;
 /// as the analysis runs it now (set the values in the compiled chain, solve warm from the nominal solution by linearised
 /// steps: the nominal Jacobian of each level factored once, the sample's changes as low-rank updates, the residual
 /// checked at every step, a level accepted once the stage's own nodes have converged, only the equations those nodes reach
-/// solved: for both stages the averaging filter behind the rectifier is left out); "without linearised steps" is the chord-and-Newton warm path alone, for comparison.
+/// solved: for both stages the averaging filter behind the rectifier is left out; a level whose steps from the nominal
+/// solution do not converge is started again from the sample's solution at the neighbouring level, not by Newton; the
+/// level solutions go into arrays the solver keeps); "without linearised steps" is the chord-and-Newton warm path alone, for comparison.
 /// BenchmarkDotNet needs benchmark classes to be public and unsealed.
 /// </summary>
 [MemoryDiagnoser]

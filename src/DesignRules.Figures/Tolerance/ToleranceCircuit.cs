@@ -58,6 +58,9 @@ internal sealed class ToleranceCircuit
         reference = solver.ReferenceSweep(chain.SourceId, plan.Levels);
         referenceCommonMode = plan.CommonMode is { } cm && reference.Succeeded ? solver.ReferenceSweep(TransferPlan.CommonModeSourceId, [0, cm]) : null;
         Nominal = Transfer(reference, referenceCommonMode);
+
+        // A sample's warm sweeps are read (Transfer) before the solver goes back to the pool, so they may reuse its arrays.
+        solver.ReuseSolutions = true;
         solvers.Add(solver);
     }
 
@@ -99,6 +102,7 @@ internal sealed class ToleranceCircuit
             solver = VariedDcSolver.Compile(Chain.Circuit, out var failure);
             if (solver is null) return DcTransfer.Failed(Chain, failure!);
             solver.SetFigureNodes(FigureNodes);
+            solver.ReuseSolutions = true;
         }
 
         try

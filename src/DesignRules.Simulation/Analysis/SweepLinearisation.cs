@@ -63,6 +63,19 @@ internal sealed class SweepLinearisation
     /// <summary>Indices (into the compiled devices) of the devices that are not linear in DC.</summary>
     public required int[] NonlinearDevices { get; init; }
 
+    /// <summary>
+    /// The <see cref="NonlinearDevices"/> a linearised step loads: those with a matrix row among <see cref="Unknowns"/>. A diode
+    /// or amplifier whose rows all lie beyond them (an amplifier of a stage behind, whose only term in the solved equations is
+    /// its input bias current, see <see cref="UnreachedAmplifiers"/>) would load only equations that are not solved.
+    /// </summary>
+    public required int[] ReachedNonlinearDevices { get; init; }
+
+    /// <summary>
+    /// Amplifiers among the compiled devices left out of <see cref="ReachedNonlinearDevices"/>: a step adds their input bias
+    /// currents (constant terms, the only ones they put into the solved equations) to the right-hand side instead.
+    /// </summary>
+    public required int[] UnreachedAmplifiers { get; init; }
+
     /// <summary>Every position the non-linear devices load in DC, compressed by rows like the linear matrix.</summary>
     public required int[] NonlinearRowStart { get; init; }
 
@@ -254,6 +267,32 @@ internal sealed class SweepLinearisation
             jacobians[l] = jacobian;
         }
 
+        // Which non-linear devices load a solved row (recorded device by device, from their calls).
+        var reached = new List<int>();
+        var unreachedAmplifiers = new List<int>();
+        foreach (int i in nonlinear)
+        {
+            var own = new HashSet<(int, int)>();
+            var single = new LoadContext(n, compiled.Layout.StateCount, null, own)
+            {
+                Mode = AnalysisMode.Dc,
+                JunctionShunt = context.JunctionShunt,
+                Temperature = context.Temperature,
+            };
+            Array.Copy(sweep[0], single.X, n);
+            devices[i].Prime(single.X);
+            devices[i].Load(single);
+            bool loadsSolvedRow = own.Any(p => inSet[p.Item1]);
+            if (loadsSolvedRow || devices[i] is not (AmplifierDevice or DiodeDevice))
+            {
+                reached.Add(i);
+            }
+            else if (devices[i] is AmplifierDevice)
+            {
+                unreachedAmplifiers.Add(i);
+            }
+        }
+
         var conductances = new double[devices.Length];
         var saturation = new double[devices.Length];
         for (int i = 0; i < devices.Length; i++)
@@ -273,6 +312,8 @@ internal sealed class SweepLinearisation
             LinearColumns = [.. columns],
             LinearEntries = [.. entries],
             NonlinearDevices = nonlinear,
+            ReachedNonlinearDevices = [.. reached],
+            UnreachedAmplifiers = [.. unreachedAmplifiers],
             NonlinearRowStart = nonlinearRowStart,
             NonlinearColumns = [.. positions.Select(p => p.Item2)],
             Conductances = conductances,

@@ -58,7 +58,10 @@ public sealed class DcSolutions
 /// swept value, factored once for every sample, with the changed conductances added exactly by a low-rank update, and the
 /// full non-linear residual checked at every step with the same convergence test. A stage that stays linear (its
 /// amplifiers inside their swing, its diodes where they were) is solved in one step and confirmed by the next, with no
-/// factorisation; one that clips or whose diode changes state fails the test and takes the paths above.</para>
+/// factorisation; one that clips or whose diode changes state takes further steps (Newton's, for the diodes). A value whose
+/// steps from its own reference do not converge (a rectifier at its dead zone's centre in the reference, open-loop, carried
+/// across a diode drop by the sample) is started again from the same sweep's solution at a neighbouring value, and only
+/// then takes the paths above.</para>
 /// <para>Where the caller names the nodes its figures read (<see cref="SetFigureNodes"/>), a linearised solve may also stop
 /// once those have converged while unknowns elsewhere still move — a rectifier behind a linear stage, at its zero crossing,
 /// whose diodes take several steps to settle but move the stage's output only through the stage's tiny output impedance.
@@ -151,6 +154,16 @@ public sealed class VariedDcSolver
     /// </summary>
     public bool StopAtFigureNodes { get; set; } = true;
 
+    /// <summary>
+    /// Whether a warm sweep from a reference may write its solutions into arrays this solver keeps per reference and reuses
+    /// at the next warm sweep from the same reference (off by default): no allocation per sweep, but the solutions it returns
+    /// are then valid only until that next sweep. For a caller that reads them at once, such as a tolerance sample.
+    /// </summary>
+    public bool ReuseSolutions { get; set; }
+
+    /// <summary>Per reference sweep: the solution arrays a warm sweep from it fills when <see cref="ReuseSolutions"/> is on.</summary>
+    private readonly Dictionary<DcSolutions, double[][]> reusedSolutions = new(ReferenceEqualityComparer.Instance);
+
     /// <summary>Swept values a linearised solve accepted once the figure nodes had converged, the rest still moving (for tests).</summary>
     internal int FigureConvergedValues { get; private set; }
 
@@ -183,6 +196,15 @@ public sealed class VariedDcSolver
 
     /// <summary>Swept values where linearised steps were tried and did not converge, so a fuller path solved them (for tests).</summary>
     internal int LinearisedFallbacks { get; private set; }
+
+    /// <summary>Swept values solved by linearised steps started from a neighbouring value's solution of the same sweep (for tests).</summary>
+    internal int NeighbourStarts { get; private set; }
+
+    /// <summary>Linearised steps of attempts that did not converge (for measurements).</summary>
+    internal int AbandonedSteps { get; private set; }
+
+    /// <summary>Newton iterations taken by the fallback after linearised steps (for tests and measurements).</summary>
+    internal int FallbackNewtonIterations { get; private set; }
 
     /// <summary>Linearised steps taken since this solver was made, converged or not (for tests).</summary>
     internal int LinearisedSteps { get; private set; }
@@ -321,24 +343,60 @@ public sealed class VariedDcSolver
         context.Alpha = 0;
         context.SourceScale = 1;
         var solutions = new double[values.Count][];
-        var linearisation = Linearised && reference.Linearisation is { } l && l.Serves(sourceId, values) ? l : null;
-        if (linearisation is not null) PrepareLinearised(linearisation);
-        for (int i = 0; i < values.Count; i++)
+        double[][]? buffers = null;
+        if (ReuseSolutions && !reusedSolutions.TryGetValue(reference, out buffers))
         {
-            context.OverrideValue = values[i];
-            if (linearisation is not null)
+            buffers = new double[values.Count][];
+            for (int i = 0; i < buffers.Length; i++) buffers[i] = new double[Size];
+            reusedSolutions.Add(reference, buffers);
+        }
+
+        var linearisation = Linearised && reference.Linearisation is { } l && l.Serves(sourceId, values) ? l : null;
+        if (linearisation is not null)
+        {
+            PrepareLinearised(linearisation);
+            nonlinear.OverrideSource = sourceId;
+            if (linearisedUsable)
             {
-                nonlinear.OverrideSource = sourceId;
-                nonlinear.OverrideValue = values[i];
-                if (linearisedUsable && LinearisedSolve(linearisation, i))
+                // Every value from its own reference solution first; the values are independent of each other here.
+                for (int i = 0; i < values.Count; i++)
                 {
-                    LinearisedValues++;
-                    solutions[i] = (double[])context.X.Clone();
-                    continue;
+                    nonlinear.OverrideValue = values[i];
+                    int before = LinearisedSteps;
+                    if (LinearisedSolve(linearisation, i, null)) solutions[i] = Keep(solver.Context.X, buffers, i);
+                    else AbandonedSteps += LinearisedSteps - before;
                 }
 
-                LinearisedFallbacks++;
+                // A value whose steps from its reference did not converge (a rectifier behind the stage at its dead zone's
+                // centre in the reference, open-loop, which the sample's offset carries across a diode drop: steps from the
+                // open-loop Jacobian overshoot into the swing clamp) is tried again from the same sample's solution at a
+                // neighbouring value, where that rectifier already conducts: the nearer side first, then the other. The same
+                // bounded steps and the same convergence test; only the start differs.
+                for (int i = 0; i < values.Count; i++)
+                {
+                    if (solutions[i] is not null) continue;
+                    nonlinear.OverrideValue = values[i];
+                    foreach (int j in Neighbours(values, i))
+                    {
+                        if (solutions[j] is null || !LinearisedSolve(linearisation, i, solutions[j])) continue;
+                        NeighbourStarts++;
+                        solutions[i] = Keep(solver.Context.X, buffers, i);
+                        break;
+                    }
+                }
             }
+        }
+
+        for (int i = 0; i < values.Count; i++)
+        {
+            if (solutions[i] is not null)
+            {
+                LinearisedValues++;
+                continue;
+            }
+
+            if (linearisation is not null) LinearisedFallbacks++;
+            context.OverrideValue = values[i];
 
             // After linearised steps failed (Newton's method already, in low-rank form), the chord iterations, a weaker form of
             // the same steps, are skipped: in the example's Monte Carlo they never solved a value the linearised steps had
@@ -348,7 +406,7 @@ public sealed class VariedDcSolver
                 return Sweep(sourceId, values);
             }
 
-            solutions[i] = (double[])context.X.Clone();
+            solutions[i] = Keep(context.X, buffers, i);
         }
 
         return new DcSolutions(compiled.Layout.Nodes, solutions, null);
@@ -416,13 +474,21 @@ public sealed class VariedDcSolver
     /// inside their swing). Converged, with the engine's test, when a step moves no unknown by more than its tolerance and
     /// no junction was limited; the solution is then in the solver's X.
     /// </summary>
-    private bool LinearisedSolve(SweepLinearisation linearisation, int level)
+    private bool LinearisedSolve(SweepLinearisation linearisation, int level, double[]? start)
     {
         var x = nonlinear.X;
         int n = x.Length;
         Array.Copy(linearisation.Solutions[level], x, n);
+        if (start is not null)
+        {
+            // Only the solved unknowns start elsewhere; the others keep this value's reference solution, as always.
+            foreach (int i in linearisation.Unknowns) x[i] = start[i];
+        }
+
         var devices = compiled.Devices;
         var nonlinearDevices = linearisation.NonlinearDevices;
+        var reachedDevices = linearisation.ReachedNonlinearDevices;
+        var unreachedAmplifiers = linearisation.UnreachedAmplifiers;
         foreach (int d in nonlinearDevices) devices[d].Prime(x);
         int k = updates.Count;
         Array.Clear(responses);
@@ -442,14 +508,22 @@ public sealed class VariedDcSolver
         int count = unknowns.Length;
         var y = compressedStep;
         double relative = solver.Limits.RelativeTolerance;
-        double shunt = nonlinear.JunctionShunt;
         double previousSize = double.PositiveInfinity;
+        int thrown = 0;
         for (int iteration = 0; iteration < MaxLinearisedSteps; iteration++)
         {
             // The non-linear devices at x, in a dense system that holds only them.
             LinearisedSteps++;
             nonlinear.Limited = false;
-            foreach (int d in nonlinearDevices) devices[d].Load(nonlinear);
+            foreach (int d in reachedDevices) devices[d].Load(nonlinear);
+            foreach (int d in unreachedAmplifiers)
+            {
+                // What such an amplifier's load puts into the solved equations: its input bias currents (as in its Load).
+                var amplifier = (AmplifierDevice)devices[d];
+                var model = amplifier.Parameters.Model;
+                nonlinear.AddRhs(amplifier.Nodes.Plus, -model.InputBiasCurrentNonInverting * nonlinear.SourceScale);
+                nonlinear.AddRhs(amplifier.Nodes.Minus, -model.InputBiasCurrentInverting * nonlinear.SourceScale);
+            }
 
             // r = b_L − A_L·x − Σ ΔG·u·(uᵀ·x) + (b_N − A_N·x); the non-linear entries are cleared as they are read.
             // Rows outside the solved unknowns are only cleared (their equations are not solved; see SweepLinearisation.Unknowns).
@@ -492,7 +566,7 @@ public sealed class VariedDcSolver
                 };
                 double change = u.Device switch
                 {
-                    DiodeDevice diode => diode.LoadedConductance(shunt) - held,
+                    DiodeDevice diode => diode.LoadedJunctionConductance - held,
                     AmplifierDevice amplifier when u.Key % 2 == 0 => amplifier.LoadedDriveSlope - held,
                     AmplifierDevice amplifier => amplifier.LoadedOutputConductance - held,
                     _ => u.Change,
@@ -564,12 +638,18 @@ public sealed class VariedDcSolver
                 converged = true;
             }
 
-            previousSize = size;
             if (converged)
             {
                 Array.Copy(x, solver.Context.X, n);
                 return true;
             }
+
+            // Junction-limited steps that keep moving some unknown by about its whole value without contracting: an
+            // amplifier thrown between its swing clamps. From the value's own reference, where a neighbour can restart it,
+            // such steps are given up after a few (in the example's Monte Carlo they never converged).
+            thrown = start is null && nonlinear.Limited && size >= ThrownStepSize && size > FigureContraction * previousSize ? thrown + 1 : 0;
+            if (thrown >= ThrownStepLimit) return false;
+            previousSize = size;
         }
 
         return false;
@@ -580,6 +660,35 @@ public sealed class VariedDcSolver
     /// Jacobian (the steps' contraction changes by about this share; the residual, and so the solution, is exact).
     /// </summary>
     private const double NegligibleUpdate = 1e-9;
+
+    /// <summary>A step's size, in tolerances, at which it moved some unknown by about its whole value (1/RelativeTolerance is 1e6).</summary>
+    private const double ThrownStepSize = 1e5;
+
+    /// <summary>Consecutive such steps (limited, not contracting) after which steps from a value's own reference are given up.</summary>
+    private const int ThrownStepLimit = 4;
+
+    /// <summary>A copy of <paramref name="x"/>: into the reused array of value <paramref name="i"/>, or a new one.</summary>
+    private static double[] Keep(double[] x, double[][]? buffers, int i)
+    {
+        if (buffers is null) return (double[])x.Clone();
+        Array.Copy(x, buffers[i], x.Length);
+        return buffers[i];
+    }
+
+    /// <summary>The values beside <paramref name="i"/>, the nearer first (the lower on a tie), at most two.</summary>
+    private static IEnumerable<int> Neighbours(IReadOnlyList<double> values, int i)
+    {
+        bool below = i > 0, above = i + 1 < values.Count;
+        if (below && above && Math.Abs(values[i + 1] - values[i]) < Math.Abs(values[i] - values[i - 1]))
+        {
+            yield return i + 1;
+            yield return i - 1;
+            yield break;
+        }
+
+        if (below) yield return i - 1;
+        if (above) yield return i + 1;
+    }
 
     /// <summary>
     /// Whether a linearised step that left some unknowns unconverged may still be accepted because the figure unknowns have
@@ -665,7 +774,9 @@ public sealed class VariedDcSolver
         Array.Copy(start, x, x.Length);
         foreach (var device in compiled.Devices) device.Prime(x);
         chordValid = false;
-        return solver.Solve(solver.Limits.MaxDcIterations, 0).Status == NewtonStatus.Converged;
+        var outcome = solver.Solve(solver.Limits.MaxDcIterations, 0);
+        FallbackNewtonIterations += outcome.Iterations;
+        return outcome.Status == NewtonStatus.Converged;
     }
 
     /// <summary>

@@ -64,6 +64,7 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
 
         lastVoltage = limitedV;
         double current = Current(limitedV, context.JunctionShunt, out double g);
+        LoadedJunctionConductance = g;
         context.NonlinearBranch(junction, cathode, current, g, limitedV);
         if (state >= 0)
         {
@@ -87,6 +88,12 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
 
     /// <summary>Unknown index of the cathode (−1 for the reference).</summary>
     public int Cathode => cathode;
+
+    /// <summary>
+    /// The junction conductance (with the load's junction shunt) the last <see cref="Load"/> stamped: what
+    /// <see cref="LoadedConductance"/> computes again for that load's shunt, kept so a linearised step need not.
+    /// </summary>
+    internal double LoadedJunctionConductance { get; private set; }
 
     /// <summary>
     /// dI/dV of the junction (with the junction shunt <paramref name="shunt"/>) at the voltage the last <see cref="Load"/>

@@ -21,9 +21,28 @@ internal static class SmoothFunctions
         return top * (1 + z - MaxExponent);
     }
 
+    /// <summary>
+    /// Beyond this |z| e^−|z| is exactly 0 in double precision (it underflows below e^−745), so <see cref="Softplus"/> and
+    /// <see cref="Logistic"/> return, bit for bit, what their full formulas give there without evaluating them: an amplifier's
+    /// swing clamp is evaluated at every load with its drive thousands of clamp widths inside the swing.
+    /// </summary>
+    private const double Underflow = 750;
+
     /// <summary>softplus(z) = ln(1 + e^z), computed without overflow.</summary>
-    public static double Softplus(double z) => z > 0 ? z + Math.Log(1 + Math.Exp(-z)) : Math.Log(1 + Math.Exp(z));
+    public static double Softplus(double z)
+    {
+        if (z < -Underflow) return 0;
+        if (z > Underflow) return z;
+        return z > 0 ? z + Math.Log(1 + Math.Exp(-z)) : Math.Log(1 + Math.Exp(z));
+    }
 
     /// <summary>Logistic function 1/(1 + e^−z), the derivative of softplus.</summary>
-    public static double Logistic(double z) => z >= 0 ? 1 / (1 + Math.Exp(-z)) : Math.Exp(z) / (1 + Math.Exp(z));
+    public static double Logistic(double z)
+    {
+        if (z < -Underflow) return 0;
+        if (z > Underflow) return 1;
+        if (z >= 0) return 1 / (1 + Math.Exp(-z));
+        double e = Math.Exp(z);
+        return e / (1 + e);
+    }
 }

@@ -3,6 +3,7 @@ using DesignRules.Loading;
 using DesignRules.Model;
 using DesignRules.Rules.Evaluation;
 using DesignRules.Rules.Evaluation.Tolerance;
+using DesignRules.Simulation;
 
 namespace DesignRules.Rules.Tests.Tolerance;
 
@@ -83,6 +84,55 @@ public sealed class LinearisedSampleTests
             }
 
             Assert.Equal(everywhere.CommonModeShift, stopped.CommonModeShift, 1e-8);
+        }
+    }
+
+    [Theory]
+    [InlineData(2.5e-3)]
+    [InlineData(5e-3)]
+    public void A_preamp_offset_that_carries_the_rectifier_across_its_diode_drop_is_solved_without_the_newton_fallback(double offset)
+    {
+        // The nominal chain has no offsets, so at the 0 V level the rectifier behind the preamp sits at its dead zone's centre
+        // with both diodes off and its amplifier open-loop. A preamp offset of 2.5 mV (5 mV) puts about 10 mV (20 mV) on the
+        // rectifier's input (the preamp's gain is 1 + 30.1k/10k = 4.01, textbook non-inverting gain), which its amplifier must
+        // answer by swinging across a diode drop: steps from the open-loop Jacobian stall, and the level is started again from
+        // the same sample's solution at a neighbouring level instead of falling back to Newton.
+        var worstCase = Stage("preamp");
+        var chain = worstCase.Circuit.Chain;
+        var probe = worstCase.Circuit.Probe!;
+        var levels = worstCase.Plan.Levels;
+        var warm = VariedDcSolver.Compile(chain.Circuit, out _)!;
+        warm.SetFigureNodes([probe.InputNode, probe.OutputNode, probe.ReferenceInputNode, .. probe.Amplifiers.Select(a => a.OutputNode)]);
+        var reference = warm.ReferenceSweep(chain.SourceId, levels);
+        Assert.True(reference.Succeeded);
+        string amplifier = probe.Amplifiers.Single().ElementId;
+        warm.SetAmplifierInputs(amplifier, offset, 0, 0);
+        var sample = warm.Sweep(chain.SourceId, levels, reference);
+
+        // The same values solved cold: every level by Newton from zero, continuation where needed (as Simulate.DcSweep).
+        var cold = VariedDcSolver.Compile(chain.Circuit, out _)!;
+        cold.SetAmplifierInputs(amplifier, offset, 0, 0);
+        var exact = cold.Sweep(chain.SourceId, levels);
+        Assert.True(sample.Succeeded && exact.Succeeded);
+
+        int zero = Array.IndexOf(levels, 0.0);
+        Assert.True(zero >= 0, "the preamp's levels include 0 V");
+        Assert.True(exact.Voltage(probe.OutputNode)[zero] > 6e-3, "the offset puts more than a few millivolts on the rectifier's input");
+        Assert.True(warm.AbandonedSteps > 0, "the steps from the 0 V level's own reference did not converge");
+        Assert.True(warm.NeighbourStarts >= 1, "a level was started from its neighbour's solution");
+        Assert.Equal(0, warm.LinearisedFallbacks);
+        Assert.Equal(0, warm.FallbackNewtonIterations);
+        Assert.Equal(levels.Length, warm.LinearisedValues);
+        foreach (string node in new[] { probe.InputNode, probe.OutputNode })
+        {
+            var w = sample.Voltage(node);
+            var c = exact.Voltage(node);
+            for (int l = 0; l < levels.Length; l++)
+            {
+                // Both are converged solutions of the same equations: within 1e-6 relative plus 1 nV each of the exact one
+                // (SolverLimits.RelativeTolerance, VoltageTolerance), so within twice that of each other (and a margin).
+                Assert.True(Math.Abs(w[l] - c[l]) <= (2e-6 * Math.Abs(c[l])) + 1e-8, $"{node} at level {levels[l]}: warm {w[l]}, cold {c[l]}");
+            }
         }
     }
 
