@@ -44,6 +44,9 @@ internal sealed class SweepLinearisation
     /// <summary>Per unknown: its place in <see cref="Unknowns"/>, or −1 where it is not solved.</summary>
     public required int[] Compressed { get; init; }
 
+    /// <summary>The unknowns not in <see cref="Unknowns"/>, ascending: rows a linearised step does not evaluate, only clears.</summary>
+    public required int[] OtherRows { get; init; }
+
     /// <summary>The reference solution at each swept value.</summary>
     public required double[][] Solutions { get; init; }
 
@@ -253,17 +256,28 @@ internal sealed class SweepLinearisation
         {
             var full = fullJacobians[l];
             var jacobian = new DenseLu<double>(m, m == n ? compiled.Ordering : null);
-            for (int r = 0; r < m; r++)
+
+            // Every linearised step solves with these factors, so a dense one is factored twice: the first time by the dense
+            // LU, whose interchanges the second replays (DenseLu.PreferSparse), leaving factors that are the same bits and a
+            // solve that runs over their non-zero positions only, in the dense solve's order (the same bits again). Should
+            // the replay not take (it checks every pivot), the dense factors of the second time serve as before.
+            jacobian.PreferSparse = true;
+            for (int pass = 0; pass < (jacobian.PreferSparse ? 2 : 1); pass++)
             {
-                int at = unknowns[r] * n;
-                for (int c = 0; c < m; c++)
+                jacobian.Clear();
+                for (int r = 0; r < m; r++)
                 {
-                    double a = full[at + unknowns[c]];
-                    if (a != 0) jacobian.Add(r, c, a);
+                    int at = unknowns[r] * n;
+                    for (int c = 0; c < m; c++)
+                    {
+                        double a = full[at + unknowns[c]];
+                        if (a != 0) jacobian.Add(r, c, a);
+                    }
                 }
+
+                if (jacobian.Factor() >= 0) return null;
             }
 
-            if (jacobian.Factor() >= 0) return null;
             jacobians[l] = jacobian;
         }
 
@@ -305,6 +319,7 @@ internal sealed class SweepLinearisation
         {
             Unknowns = unknowns,
             Compressed = compressed,
+            OtherRows = [.. Enumerable.Range(0, n).Where(i => !inSet[i])],
             Solutions = solutions,
             Jacobians = jacobians,
             LinearRhs = linearRhs,

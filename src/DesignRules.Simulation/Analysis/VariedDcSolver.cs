@@ -1,3 +1,5 @@
+using System.Runtime.InteropServices;
+
 namespace DesignRules.Simulation.Analysis;
 
 /// <summary>
@@ -91,13 +93,15 @@ public sealed class VariedDcSolver
     private readonly double[] tolerance;
     private readonly double[] residual;
     private readonly LoadContext nonlinear;
-    private readonly double[] step;
     private readonly double[] solveScratch;
 
     /// <summary>A linearised step over the unknowns its linearisation solves (<see cref="SweepLinearisation.Unknowns"/>).</summary>
     private readonly double[] compressedStep;
     private readonly List<JacobianUpdate> updates = [];
     private double[][] responses = [];
+
+    /// <summary>Per active update of a step (see <see cref="LinearisedSolve"/>): its response, looked up once per step.</summary>
+    private double[][] activeResponses = [];
     private double[] changes = [];
     private int[] active = [];
     private double[] update = [];
@@ -123,7 +127,6 @@ public sealed class VariedDcSolver
         chord = new DenseLu<double>(n, compiled.Ordering);
         figureUnknowns = new bool[n];
         residual = new double[n];
-        step = new double[n];
         solveScratch = new double[n];
         compressedStep = new double[n];
         nonlinear = new LoadContext(n, compiled.Layout.StateCount)
@@ -453,10 +456,19 @@ public sealed class VariedDcSolver
             if (Solved(nodes.Output) && Solved(nodes.Stage)) updates.Add(new JacobianUpdate((2 * i) + 1, nodes.Output, -1, nodes.Output, nodes.Stage, 0, devices[i], j));
         }
 
+        // The updates' unknowns as places among the solved ones, looked up once here instead of at every step.
+        int Place(int unknown) => unknown >= 0 ? solved[unknown] : -1;
+        for (int j = 0; j < updates.Count; j++)
+        {
+            var u = updates[j];
+            updates[j] = u with { SolvedA = Place(u.A), SolvedB = Place(u.B), SolvedC = Place(u.C), SolvedD = Place(u.D) };
+        }
+
         int k = updates.Count;
         if (responses.Length != k)
         {
             responses = new double[k][];
+            activeResponses = new double[k][];
             changes = new double[k];
             active = new int[k];
             update = new double[k * k];
@@ -504,7 +516,7 @@ public sealed class VariedDcSolver
         var nonlinearColumns = linearisation.NonlinearColumns;
         var jacobian = linearisation.Jacobians[level];
         var unknowns = linearisation.Unknowns;
-        var solved = linearisation.Compressed;
+        var otherRows = linearisation.OtherRows;
         int count = unknowns.Length;
         var y = compressedStep;
         double relative = solver.Limits.RelativeTolerance;
@@ -525,17 +537,15 @@ public sealed class VariedDcSolver
                 nonlinear.AddRhs(amplifier.Nodes.Minus, -model.InputBiasCurrentInverting * nonlinear.SourceScale);
             }
 
-            // r = b_L − A_L·x − Σ ΔG·u·(uᵀ·x) + (b_N − A_N·x); the non-linear entries are cleared as they are read.
-            // Rows outside the solved unknowns are only cleared (their equations are not solved; see SweepLinearisation.Unknowns).
-            var r = step;
-            for (int row = 0; row < n; row++)
+            // r = b_L − A_L·x − Σ ΔG·u·(uᵀ·x) + (b_N − A_N·x) over the solved rows, written straight into y (indexed as the
+            // solved unknowns, where the solve below takes it); the non-linear entries are cleared as they are read. Rows
+            // outside the solved unknowns are not evaluated, only cleared: their equations are not solved, and no solved
+            // unknown depends on them (see SweepLinearisation.Unknowns).
+            for (int s = 0; s < count; s++)
             {
+                int row = unknowns[s];
                 double sum = linearRhs[row] + rhs[row];
-                if (solved[row] >= 0)
-                {
-                    for (int e = rowStart[row]; e < rowStart[row + 1]; e++) sum -= entries[e] * x[columns[e]];
-                }
-
+                for (int e = rowStart[row]; e < rowStart[row + 1]; e++) sum -= entries[e] * x[columns[e]];
                 int at = row * n;
                 for (int e = nonlinearStart[row]; e < nonlinearStart[row + 1]; e++)
                 {
@@ -544,7 +554,14 @@ public sealed class VariedDcSolver
                     matrix[at + c] = 0;
                 }
 
-                r[row] = sum;
+                y[s] = sum;
+                rhs[row] = 0;
+            }
+
+            foreach (int row in otherRows)
+            {
+                int at = row * n;
+                for (int e = nonlinearStart[row]; e < nonlinearStart[row + 1]; e++) matrix[at + nonlinearColumns[e]] = 0;
                 rhs[row] = 0;
             }
 
@@ -554,9 +571,10 @@ public sealed class VariedDcSolver
             var slopes = linearisation.AmplifierDriveSlopes[level];
             var outputs = linearisation.AmplifierOutputConductances[level];
             int m = 0;
+            var list = CollectionsMarshal.AsSpan(updates);
             for (int j = 0; j < k; j++)
             {
-                var u = updates[j];
+                ref readonly var u = ref list[j];
                 double held = u.Device switch
                 {
                     DiodeDevice => diodes[u.Index],
@@ -574,8 +592,8 @@ public sealed class VariedDcSolver
                 if (u.Device is null)
                 {
                     double current = change * (At(x, u.A) - At(x, u.B));
-                    if (u.A >= 0) r[u.A] -= current;
-                    if (u.B >= 0) r[u.B] += current;
+                    if (u.SolvedA >= 0) y[u.SolvedA] -= current;
+                    if (u.SolvedB >= 0) y[u.SolvedB] += current;
                 }
 
                 // A non-linear device whose coefficient moved by a negligible share of what J0 holds (an amplifier well
@@ -588,30 +606,38 @@ public sealed class VariedDcSolver
             }
 
             // y = J0⁻¹·r over the solved unknowns, then the Woodbury correction for the updates.
-            for (int i = 0; i < count; i++) y[i] = r[unknowns[i]];
             jacobian.Solve(y, solveScratch);
             if (m > 0)
             {
+                var z = activeResponses;
                 for (int j = 0; j < m; j++)
                 {
-                    var u = updates[active[j]];
+                    ref readonly var u = ref list[active[j]];
+                    z[j] = responses[active[j]] ??= linearisation.Response(level, u.Key, u.A, u.B);
+                }
+
+                for (int j = 0; j < m; j++)
+                {
+                    ref readonly var u = ref list[active[j]];
+                    int cc = u.SolvedC, cd = u.SolvedD;
+                    double change = changes[j];
                     for (int c = 0; c < m; c++)
                     {
-                        var z = responses[active[c]] ??= linearisation.Response(level, updates[active[c]].Key, updates[active[c]].A, updates[active[c]].B);
-                        update[(j * m) + c] = (j == c ? 1 : 0) + (changes[j] * (At(z, solved, u.C) - At(z, solved, u.D)));
+                        update[(j * m) + c] = (j == c ? 1 : 0) + (change * (At(z[c], cc) - At(z[c], cd)));
                     }
 
-                    updateRhs[j] = changes[j] * (At(y, solved, u.C) - At(y, solved, u.D));
+                    updateRhs[j] = change * (At(y, cc) - At(y, cd));
                 }
 
                 if (!SmallFactor(update, updatePivots, m)) return false;
                 SmallSolve(update, updatePivots, updateRhs, m);
+                var ys = y.AsSpan(0, count);
                 for (int j = 0; j < m; j++)
                 {
                     double w = updateRhs[j];
                     if (w == 0) continue;
-                    var z = responses[active[j]];
-                    for (int i = 0; i < count; i++) y[i] -= w * z[i];
+                    var zj = z[j].AsSpan(0, count);
+                    for (int i = 0; i < ys.Length; i++) ys[i] -= w * zj[i];
                 }
             }
 
@@ -713,10 +739,8 @@ public sealed class VariedDcSolver
     /// <summary>The contraction a step must show against the one before for <see cref="FigureConverged"/>: ρ ≤ ½ bounds the remaining geometric tail by this step.</summary>
     private const double FigureContraction = 0.5;
 
+    /// <summary>Entry <paramref name="index"/> of <paramref name="x"/> (−1: none, 0).</summary>
     private static double At(double[] x, int index) => index >= 0 ? x[index] : 0;
-
-    /// <summary>Entry <paramref name="index"/> (an unknown, −1: none) of a vector over the solved unknowns only.</summary>
-    private static double At(double[] compressed, int[] solved, int index) => index >= 0 ? compressed[solved[index]] : 0;
 
     /// <summary>LU with partial pivoting of a small dense k×k matrix in place; false when it is singular.</summary>
     private static bool SmallFactor(double[] a, int[] pivots, int k)
@@ -854,4 +878,17 @@ public sealed class VariedDcSolver
 /// (<paramref name="Index"/> its place among the linearisation's diodes or amplifiers; an even key is an amplifier's
 /// drive row, an odd one its output row).
 /// </summary>
-internal readonly record struct JacobianUpdate(int Key, int A, int B, int C, int D, double Change, Device? Device, int Index);
+internal readonly record struct JacobianUpdate(int Key, int A, int B, int C, int D, double Change, Device? Device, int Index)
+{
+    /// <summary>Places of A, B, C and D among the solved unknowns (<see cref="SweepLinearisation.Compressed"/>; −1: no term).</summary>
+    public int SolvedA { get; init; } = -1;
+
+    /// <inheritdoc cref="SolvedA"/>
+    public int SolvedB { get; init; } = -1;
+
+    /// <inheritdoc cref="SolvedA"/>
+    public int SolvedC { get; init; } = -1;
+
+    /// <inheritdoc cref="SolvedA"/>
+    public int SolvedD { get; init; } = -1;
+}

@@ -70,7 +70,10 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
         {
             double c = model.JunctionCapacitance;
             double chargeCurrent = context.Derivative(state, c * limitedV);
-            context.NonlinearBranch(junction, cathode, chargeCurrent, context.Alpha * c, limitedV);
+            double gc = context.Alpha * c;
+
+            // In DC (no charge current, no capacitive conductance) the branch would add only zeros: skipped.
+            if (chargeCurrent != 0 || gc != 0) context.NonlinearBranch(junction, cathode, chargeCurrent, gc, limitedV);
         }
     }
 

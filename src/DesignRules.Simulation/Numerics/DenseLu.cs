@@ -177,6 +177,9 @@ internal sealed class DenseLu<T>
             int at = (row * Size) + column;
             matrix[at] += value;
             sparse?.Loaded(at);
+
+            // Untracked (a caller reads the storage itself), the extents are never read before FactorDense sets them full.
+            if (!tracked) return;
             if (column < rowFirst[row]) rowFirst[row] = column;
             if (column > rowLast[row]) rowLast[row] = column;
             return;
