@@ -19,19 +19,23 @@ internal static class ServerClient
 
     /// <summary>
     /// Runs <paramref name="call"/> on the server; null (and <paramref name="whyNot"/>) when it could not be served, and
-    /// nothing but progress lines has been logged then.
+    /// nothing but progress lines has been logged then. Synchronous throughout (blocking socket calls, each wait bounded):
+    /// this runs in the build's own process on every build, where async state machines would be compiled just in time.
     /// </summary>
     public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, CancellationToken cancellation, out string? whyNot)
     {
         try
         {
-            var (result, reason) = TryRunAsync(call, log, options, cancellation).GetAwaiter().GetResult();
-            whyNot = reason;
-            return result;
+            return Run(call, log, options, cancellation, out whyNot);
         }
         catch (OperationCanceledException) when (cancellation.IsCancellationRequested)
         {
             throw;
+        }
+        catch (Exception ex) when (cancellation.IsCancellationRequested && ex is SocketException or ObjectDisposedException)
+        {
+            // Cancelling closes the socket under a wait: that is the cancellation, not a failing server.
+            throw new OperationCanceledException("the build was cancelled", ex, cancellation);
         }
         catch (Exception ex) when (ex is IOException or SocketException or OperationCanceledException or ObjectDisposedException
             or UnauthorizedAccessException or System.ComponentModel.Win32Exception or InvalidOperationException)
@@ -41,13 +45,13 @@ internal static class ServerClient
         }
     }
 
-    private static async Task<(BuildCheckResult? Result, string? WhyNot)> TryRunAsync(BuildCall call, IBuildLog log, ServerOptions options,
-        CancellationToken cancellation)
+    private static BuildCheckResult? Run(BuildCall call, IBuildLog log, ServerOptions options, CancellationToken cancellation, out string? whyNot)
     {
         var server = Path.Combine(options.TaskFolder, ServerAssembly);
         if (!File.Exists(server))
         {
-            return (null, $"there is no {ServerAssembly} beside the task");
+            whyNot = $"there is no {ServerAssembly} beside the task";
+            return null;
         }
 
         var address = ServerAddress.For(options.TaskFolder, options.Salt);
@@ -56,41 +60,48 @@ internal static class ServerClient
             address = address with { SocketFolder = options.SocketFolder };
         }
 
-        if (!address.PrepareSocketFolder(out var folderProblem))
+        if (!address.PrepareSocketFolder(out whyNot))
         {
-            return (null, folderProblem);
+            return null;
         }
 
-        var (connected, startProblem) = await ConnectOrStart(address, options, cancellation).ConfigureAwait(false);
-        using var socket = connected;
+        using var socket = ConnectOrStart(address, options, cancellation, out whyNot);
         if (socket is null)
         {
-            return (null, startProblem);
+            return null;
         }
 
         // Cancelling the build closes the connection: the server stops sending and abandons the run's result.
-        await using var closeOnCancel = cancellation.Register(socket.Dispose).ConfigureAwait(false);
-        using var stream = new NetworkStream(socket, ownsSocket: false);
-        using var reader = ServerFrame.Reader(stream);
-        await stream.WriteAsync(new ServerFrame(ServerFrame.Run) { Identity = address.Identity, Call = call }.ToLine(), cancellation).ConfigureAwait(false);
-        var answer = await Read(reader, ServerSettings.AnswerLimit, cancellation).ConfigureAwait(false);
+        using var closeOnCancel = cancellation.Register(socket.Dispose);
+        // A server that does not read its request is as hung as one that does not answer.
+        socket.SendTimeout = (int)ServerSettings.AnswerLimit.TotalMilliseconds;
+        new ServerFrame(ServerFrame.Run) { Identity = address.Identity, Call = call }.Send(socket);
+        var answer = ServerFrame.Receive(socket, ServerSettings.AnswerLimit, cancellation, out var fault, out var problem);
         if (answer is null)
         {
-            return (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not answer within {ServerSettings.AnswerLimit.TotalSeconds:0} s"));
+            whyNot = fault == FrameFault.Damaged ? "the evaluation server's answer is not a frame of its protocol (" + problem + ")"
+                : string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not answer within {ServerSettings.AnswerLimit.TotalSeconds:0} s");
+            return null;
         }
 
         if (answer.Kind != ServerFrame.Accepted)
         {
-            return (null, "the evaluation server refused the run: " + (answer.Reason ?? answer.Kind));
+            whyNot = answer.Kind == ServerFrame.Foreign
+                ? string.Create(CultureInfo.InvariantCulture, $"the evaluation server speaks protocol {answer.Protocol}, the task {ServerFrame.CurrentProtocol}")
+                : "the evaluation server refused the run: " + (answer.Reason ?? answer.Kind);
+            return null;
         }
 
         while (true)
         {
-            var frame = await Read(reader, ServerSettings.SilenceLimit, cancellation).ConfigureAwait(false);
+            var frame = ServerFrame.Receive(socket, ServerSettings.SilenceLimit, cancellation, out fault, out problem);
             switch (frame?.Kind)
             {
                 case null:
-                    return (null, "the evaluation server stopped answering in the middle of the run");
+                    whyNot = fault == FrameFault.Damaged
+                        ? "the evaluation server sent something that is not a frame of its protocol in the middle of the run (" + problem + ")"
+                        : "the evaluation server stopped answering in the middle of the run";
+                    return null;
                 case ServerFrame.ProgressKind when frame.Entry is not null:
                     log.Write(frame.Entry);
                     break;
@@ -100,64 +111,68 @@ internal static class ServerClient
                         log.Write(entry);
                     }
 
-                    log.Write(new BuildLogEntry(BuildLogKind.Message, string.Create(CultureInfo.InvariantCulture,
-                        $"DesignRules: checked by the evaluation server (process {answer.ProcessId}); DesignRulesServer=false checks in the build process."))
+                    log.Write(new BuildLogEntry(BuildLogKind.Message, "DesignRules: checked by the evaluation server (process "
+                        + answer.ProcessId.ToString(CultureInfo.InvariantCulture) + "); DesignRulesServer=false checks in the build process.")
                     { Importance = BuildLogImportance.Low });
-                    return (frame.Result, null);
-                default:
-                    // Heartbeats, and frames a later protocol might add within the same version: nothing to log.
+                    whyNot = null;
+                    return frame.Result;
+                case ServerFrame.Alive:
                     break;
+                default:
+                    // Any other frame in the middle of a run (a second answer, a foreign one, a done without its result)
+                    // is a server out of step: its result cannot be trusted.
+                    whyNot = "the evaluation server sent a '" + frame.Kind + "' frame in the middle of the run";
+                    return null;
             }
         }
     }
 
-    /// <summary>Reads one frame, waiting at most <paramref name="limit"/>; null for silence, the stream's end or a line that is no frame.</summary>
-    private static async Task<ServerFrame?> Read(StreamReader reader, TimeSpan limit, CancellationToken cancellation)
-    {
-        using var bounded = CancellationTokenSource.CreateLinkedTokenSource(cancellation);
-        bounded.CancelAfter(limit);
-        try
-        {
-            return await ServerFrame.ReadAsync(reader, bounded.Token).ConfigureAwait(false);
-        }
-        catch (OperationCanceledException) when (!cancellation.IsCancellationRequested)
-        {
-            return null;
-        }
-    }
-
     /// <summary>Connects to the server of <paramref name="address"/>, starting it when none listens; no socket (and why) when none came up in time.</summary>
-    private static async Task<(Socket? Socket, string? Problem)> ConnectOrStart(ServerAddress address, ServerOptions options, CancellationToken cancellation)
+    private static Socket? ConnectOrStart(ServerAddress address, ServerOptions options, CancellationToken cancellation, out string? problem)
     {
-        if (await TryConnect(address, cancellation).ConfigureAwait(false) is { } running)
+        problem = null;
+        if (TryConnect(address, cancellation) is { } running)
         {
-            return (running, null);
+            return running;
         }
 
         using var started = Start(address, options);
         var deadline = Stopwatch.StartNew();
         while (deadline.Elapsed < ServerSettings.StartLimit)
         {
-            await Task.Delay(TimeSpan.FromMilliseconds(40), cancellation).ConfigureAwait(false);
-            if (await TryConnect(address, cancellation).ConfigureAwait(false) is { } socket)
+            if (cancellation.WaitHandle.WaitOne(TimeSpan.FromMilliseconds(40)))
             {
-                return (socket, null);
+                cancellation.ThrowIfCancellationRequested();
+            }
+
+            if (TryConnect(address, cancellation) is { } socket)
+            {
+                return socket;
             }
 
             // A server that exited at once (another one won a race and took the lock: try once more to reach that one;
             // or it could not listen) is not waited for.
             if (started.HasExited)
             {
-                return await TryConnect(address, cancellation).ConfigureAwait(false) is { } winner
-                    ? (winner, null)
-                    : (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server exited at once (exit code {started.ExitCode})"));
+                if (TryConnect(address, cancellation) is { } winner)
+                {
+                    return winner;
+                }
+
+                problem = string.Create(CultureInfo.InvariantCulture, $"the evaluation server exited at once (exit code {started.ExitCode})");
+                return null;
             }
         }
 
-        return (null, string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not start listening within {ServerSettings.StartLimit.TotalSeconds:0} s"));
+        problem = string.Create(CultureInfo.InvariantCulture, $"the evaluation server did not start listening within {ServerSettings.StartLimit.TotalSeconds:0} s");
+        return null;
     }
 
-    private static async Task<Socket?> TryConnect(ServerAddress address, CancellationToken cancellation)
+    /// <summary>
+    /// A connection to the server's socket, or null when nobody listens there. The connect is a task of the framework's
+    /// own (compiled ahead in it) waited on with a bound: a listener whose queue is full must not hold the build.
+    /// </summary>
+    private static Socket? TryConnect(ServerAddress address, CancellationToken cancellation)
     {
         if (!File.Exists(address.SocketPath) || address.EndPoint(out _) is not { } endPoint)
         {
@@ -167,16 +182,24 @@ internal static class ServerClient
         var socket = new Socket(AddressFamily.Unix, SocketType.Stream, ProtocolType.Unspecified);
         try
         {
-            using var bounded = CancellationTokenSource.CreateLinkedTokenSource(cancellation);
-            bounded.CancelAfter(ServerSettings.AnswerLimit);
-            await socket.ConnectAsync(endPoint, bounded.Token).ConfigureAwait(false);
-            return socket;
+            var connecting = socket.ConnectAsync(endPoint);
+            if (connecting.Wait((int)ServerSettings.AnswerLimit.TotalMilliseconds, cancellation))
+            {
+                return socket;
+            }
         }
-        catch (Exception ex) when (ex is SocketException or OperationCanceledException && !cancellation.IsCancellationRequested)
+        catch (AggregateException ex) when (ex.InnerException is SocketException)
+        {
+            // Nobody listens there (a stale socket file): start one.
+        }
+        catch (OperationCanceledException)
         {
             socket.Dispose();
-            return null;
+            throw;
         }
+
+        socket.Dispose();
+        return null;
     }
 
     /// <summary>

@@ -141,53 +141,55 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
 
     private void Touch() => Interlocked.Exchange(ref lastActivity, Environment.TickCount64);
 
-    private async Task Serve(Socket connection)
+    private void Serve(Socket connection)
     {
         try
         {
-            using var stream = new NetworkStream(connection, ownsSocket: true);
-            using var reader = ServerFrame.Reader(stream);
-            using var answer = new CancellationTokenSource(ServerSettings.AnswerLimit);
-            var request = await ServerFrame.ReadAsync(reader, answer.Token).ConfigureAwait(false);
-            var channel = new Channel(stream);
-            if (request?.Kind == ServerFrame.Stop)
+            using (connection)
             {
-                channel.Send(new ServerFrame(ServerFrame.Accepted) { ProcessId = Environment.ProcessId, Identity = address.Identity });
-                stopping.Cancel();
-                return;
-            }
-
-            if (request is null || request.Kind != ServerFrame.Run || request.Call is null || request.Protocol != ServerFrame.CurrentProtocol
-                || request.Identity != address.Identity)
-            {
-                channel.Send(new ServerFrame(ServerFrame.Refused)
+                var request = ServerFrame.Receive(connection, ServerSettings.AnswerLimit, stopping.Token, out _, out var problem);
+                // A task that stops reading (a build killed without closing) must not hold a writer forever.
+                connection.SendTimeout = (int)ServerSettings.SilenceLimit.TotalMilliseconds;
+                var channel = new Channel(connection);
+                if (request?.Kind == ServerFrame.Stop)
                 {
-                    Identity = address.Identity,
-                    Reason = request is null ? "the request was not a frame of this server's protocol"
-                        : request.Protocol != ServerFrame.CurrentProtocol ? string.Create(CultureInfo.InvariantCulture, $"the server speaks protocol {ServerFrame.CurrentProtocol}, the task {request.Protocol}")
-                        : request.Identity != address.Identity ? "the server belongs to another build of the tool"
-                        : "the request was not a run",
+                    channel.Send(new ServerFrame(ServerFrame.Accepted) { ProcessId = Environment.ProcessId, Identity = address.Identity });
+                    stopping.Cancel();
+                    return;
+                }
+
+                if (request is null || request.Kind != ServerFrame.Run || request.Call is null || request.Protocol != ServerFrame.CurrentProtocol
+                    || request.Identity != address.Identity)
+                {
+                    channel.Send(new ServerFrame(ServerFrame.Refused)
+                    {
+                        Identity = address.Identity,
+                        Reason = request is null ? "the request was not a frame of this server's protocol" + (problem is null ? string.Empty : " (" + problem + ")")
+                            : request.Protocol != ServerFrame.CurrentProtocol ? string.Create(CultureInfo.InvariantCulture, $"the server speaks protocol {ServerFrame.CurrentProtocol}, the task {request.Protocol}")
+                            : request.Identity != address.Identity ? "the server belongs to another build of the tool"
+                            : "the request was not a run",
+                    });
+                    return;
+                }
+
+                channel.Send(new ServerFrame(ServerFrame.Accepted) { ProcessId = Environment.ProcessId, Identity = address.Identity });
+                var call = request.Call;
+                var log = new CollectingLog(channel);
+                var run = Task.Run(() =>
+                {
+                    CultureInfo.CurrentCulture = CultureInfo.InvariantCulture;
+                    CultureInfo.CurrentUICulture = CultureInfo.InvariantCulture;
+                    return BuildCheck.Execute(call, log, hostAsError: null);
                 });
-                return;
-            }
+                // A heartbeat while the run goes on; once the task has gone (a cancelled build), sends fail and the run's
+                // result is abandoned, but the run itself finishes its writes, so no output is left half-written.
+                while (!run.Wait(ServerSettings.Heartbeat))
+                {
+                    channel.Send(new ServerFrame(ServerFrame.Alive));
+                }
 
-            channel.Send(new ServerFrame(ServerFrame.Accepted) { ProcessId = Environment.ProcessId, Identity = address.Identity });
-            var call = request.Call;
-            var log = new CollectingLog(channel);
-            var run = Task.Run(() =>
-            {
-                CultureInfo.CurrentCulture = CultureInfo.InvariantCulture;
-                CultureInfo.CurrentUICulture = CultureInfo.InvariantCulture;
-                return BuildCheck.Execute(call, log, hostAsError: null);
-            });
-            // A heartbeat while the run goes on; once the task has gone (a cancelled build), sends fail and the run's
-            // result is abandoned, but the run itself finishes its writes, so no output is left half-written.
-            while (!run.Wait(ServerSettings.Heartbeat))
-            {
-                channel.Send(new ServerFrame(ServerFrame.Alive));
+                channel.Send(new ServerFrame(ServerFrame.Done) { Entries = log.Entries, Result = run.Result });
             }
-
-            channel.Send(new ServerFrame(ServerFrame.Done) { Entries = log.Entries, Result = run.Result });
         }
         catch (Exception ex) when (ex is IOException or SocketException or OperationCanceledException or ObjectDisposedException)
         {
@@ -213,7 +215,7 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
     }
 
     /// <summary>Writes frames one at a time (progress comes from worker threads, heartbeats from the serving loop).</summary>
-    private sealed class Channel(Stream stream)
+    private sealed class Channel(Socket socket)
     {
         private readonly Lock gate = new();
         private bool broken;
@@ -229,8 +231,7 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
 
                 try
                 {
-                    stream.Write(frame.ToLine());
-                    stream.Flush();
+                    frame.Send(socket);
                 }
                 catch (Exception ex) when (ex is IOException or SocketException or ObjectDisposedException)
                 {

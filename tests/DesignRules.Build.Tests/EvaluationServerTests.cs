@@ -272,11 +272,9 @@ public sealed class EvaluationServerTests : IDisposable
         var dying = Task.Run(async () =>
         {
             using var connection = await listener.AcceptAsync();
-            using var stream = new NetworkStream(connection);
-            using var reader = ServerFrame.Reader(stream);
-            await reader.ReadLineAsync();
-            stream.Write(new ServerFrame(ServerFrame.Accepted) { ProcessId = 1 }.ToLine());
-            stream.Write(new ServerFrame(ServerFrame.Alive).ToLine());
+            Assert.Equal(ServerFrame.Run, ServerFrame.Receive(connection, Bound, CancellationToken.None, out _, out _)?.Kind);
+            new ServerFrame(ServerFrame.Accepted) { ProcessId = 1 }.Send(connection);
+            new ServerFrame(ServerFrame.Alive).Send(connection);
         });
         SampleRepository.Write(root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
         var (task, engine) = CheckTask(served: true, salt: "dying");
@@ -287,6 +285,71 @@ public sealed class EvaluationServerTests : IDisposable
         Assert.Single(engine.Errors, e => e.Code == "DR906");
         Assert.Contains(engine.Messages, m => m.Message!.Contains("checking in the build process: the evaluation server stopped answering", StringComparison.Ordinal));
         Assert.True(File.Exists(Path.Combine(root, "out", "designrules.sarif")));
+    }
+
+    [Theory]
+    [InlineData("foreign", "the evaluation server's answer is not a frame of its protocol")]
+    [InlineData("other-version", "the evaluation server speaks protocol")]
+    [InlineData("truncated", "the evaluation server sent something that is not a frame of its protocol in the middle of the run")]
+    [InlineData("second-answer", "the evaluation server sent a 'accepted' frame in the middle of the run")]
+    public async Task A_server_whose_frames_are_foreign_truncated_or_out_of_step_leaves_the_check_to_the_build_process(string how, string said)
+    {
+        var address = Address("odd-" + how);
+        Assert.True(address.PrepareSocketFolder(out _));
+        using var listener = new Socket(AddressFamily.Unix, SocketType.Stream, ProtocolType.Unspecified);
+        listener.Bind(new UnixDomainSocketEndPoint(address.SocketPath));
+        listener.Listen(4);
+        var odd = Task.Run(async () =>
+        {
+            using var connection = await listener.AcceptAsync();
+            Assert.Equal(ServerFrame.Run, ServerFrame.Receive(connection, Bound, CancellationToken.None, out _, out _)?.Kind);
+            var done = new ServerFrame(ServerFrame.Done) { Entries = [], Result = new BuildCheckResult(true, 0, 0) }.ToBytes();
+            switch (how)
+            {
+                case "foreign":
+                    connection.Send("{\"Kind\":\"accepted\"}\n"u8.ToArray());
+                    break;
+                case "other-version":
+                    new ServerFrame(ServerFrame.Accepted) { ProcessId = 1, Protocol = ServerFrame.CurrentProtocol + 1 }.Send(connection);
+                    break;
+                case "truncated":
+                    // A green result cut off before its end must never be taken for one.
+                    new ServerFrame(ServerFrame.Accepted) { ProcessId = 1 }.Send(connection);
+                    connection.Send(done.AsSpan(0, done.Length - 2));
+                    break;
+                default:
+                    new ServerFrame(ServerFrame.Accepted) { ProcessId = 1 }.Send(connection);
+                    new ServerFrame(ServerFrame.Accepted) { ProcessId = 1 }.Send(connection);
+                    connection.Send(done);
+                    break;
+            }
+
+            connection.Shutdown(SocketShutdown.Send);
+        });
+        SampleRepository.Write(root, SampleRepository.Design(SampleRepository.UnknownAmplifier));
+        var (task, engine) = CheckTask(served: true, salt: "odd-" + how);
+
+        Assert.False(task.Execute());
+
+        await odd.WaitAsync(Bound);
+        Assert.Single(engine.Errors, e => e.Code == "DR906");
+        Assert.Contains(engine.Messages, m => m.Message!.Contains("checking in the build process: " + said, StringComparison.Ordinal));
+        Assert.True(File.Exists(Path.Combine(root, "out", "designrules.sarif")));
+    }
+
+    [Fact]
+    public void A_server_refuses_bytes_that_are_not_a_frame_of_its_protocol_with_a_reason()
+    {
+        Serve("served");
+        using var socket = new Socket(AddressFamily.Unix, SocketType.Stream, ProtocolType.Unspecified);
+        socket.Connect(new UnixDomainSocketEndPoint(Address("served").SocketPath));
+
+        // Protocol 1's request: a line of JSON.
+        socket.Send("{\"Kind\":\"run\",\"Protocol\":1}\n"u8.ToArray());
+        var answer = ServerFrame.Receive(socket, Bound, CancellationToken.None, out _, out _);
+
+        Assert.Equal(ServerFrame.Refused, answer?.Kind);
+        Assert.Contains("not a frame of this server's protocol", answer!.Reason, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -343,10 +406,7 @@ public sealed class EvaluationServerTests : IDisposable
     {
         using var socket = new Socket(AddressFamily.Unix, SocketType.Stream, ProtocolType.Unspecified);
         socket.Connect(new UnixDomainSocketEndPoint(socketPath));
-        using var stream = new NetworkStream(socket);
-        using var reader = ServerFrame.Reader(stream);
-        stream.Write(frame.ToLine());
-        using var limit = new CancellationTokenSource(Bound);
-        return ServerFrame.ReadAsync(reader, limit.Token).GetAwaiter().GetResult();
+        frame.Send(socket);
+        return ServerFrame.Receive(socket, Bound, CancellationToken.None, out _, out _);
     }
 }
