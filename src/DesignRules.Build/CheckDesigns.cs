@@ -162,13 +162,14 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
 
     private bool ExecuteInvariant()
     {
+        var started = TaskStart.Now();
         var log = new TaskLog(Log);
         using var cancellation = new CancellationTokenSource();
         cancelRun = cancellation.Cancel;
         try
         {
             var call = Call();
-            var result = Replay ? BuildCheck.Replay(call, log) : RunServedOrInProcess(call, log, cancellation.Token);
+            var result = Replay ? BuildCheck.Replay(call, log) : RunServedOrInProcess(call, log, started, cancellation.Token);
             ErrorCount = result.ErrorCount;
             WarningCount = result.WarningCount;
             return result.Success && !Log.HasLoggedErrors;
@@ -209,12 +210,12 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
     /// Hands the run to the warm evaluation server of this task folder when <see cref="Server"/> is on, else (and whenever
     /// the server cannot serve) runs it here. Both run <see cref="BuildCheck"/>, so the outputs and the log are the same.
     /// </summary>
-    private BuildCheckResult RunServedOrInProcess(BuildCall call, TaskLog log, CancellationToken cancellation)
+    private BuildCheckResult RunServedOrInProcess(BuildCall call, TaskLog log, TaskStart started, CancellationToken cancellation)
     {
         var hostAsError = BuildEngine is IBuildEngine8 engine ? engine.ShouldTreatWarningAsError : (Func<string, bool>?)null;
         if (Server && Served(call, hostAsError) is { } served)
         {
-            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), cancellation,
+            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), started, cancellation,
                 out var whyNot);
             if (result is not null)
             {

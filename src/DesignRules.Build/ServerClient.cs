@@ -22,11 +22,11 @@ internal static class ServerClient
     /// nothing but progress lines has been logged then. Synchronous throughout (blocking socket calls, each wait bounded):
     /// this runs in the build's own process on every build, where async state machines would be compiled just in time.
     /// </summary>
-    public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, CancellationToken cancellation, out string? whyNot)
+    public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, TaskStart started, CancellationToken cancellation, out string? whyNot)
     {
         try
         {
-            return Run(call, log, options, cancellation, out whyNot);
+            return Run(call, log, options, started, cancellation, out whyNot);
         }
         catch (OperationCanceledException) when (cancellation.IsCancellationRequested)
         {
@@ -45,8 +45,9 @@ internal static class ServerClient
         }
     }
 
-    private static BuildCheckResult? Run(BuildCall call, IBuildLog log, ServerOptions options, CancellationToken cancellation, out string? whyNot)
+    private static BuildCheckResult? Run(BuildCall call, IBuildLog log, ServerOptions options, TaskStart started, CancellationToken cancellation, out string? whyNot)
     {
+        var sending = Stopwatch.GetTimestamp();
         var server = Path.Combine(options.TaskFolder, ServerAssembly);
         if (!File.Exists(server))
         {
@@ -71,6 +72,7 @@ internal static class ServerClient
             return null;
         }
 
+        var connected = Stopwatch.GetTimestamp();
         // Cancelling the build closes the connection: the server stops sending and abandons the run's result.
         using var closeOnCancel = cancellation.Register(socket.Dispose);
         // A server that does not read its request is as hung as one that does not answer.
@@ -106,13 +108,16 @@ internal static class ServerClient
                     log.Write(frame.Entry);
                     break;
                 case ServerFrame.Done when frame.Result is not null && frame.Entries is not null:
+                    var answered = Stopwatch.GetTimestamp();
                     foreach (var entry in frame.Entries)
                     {
                         log.Write(entry);
                     }
 
-                    log.Write(new BuildLogEntry(BuildLogKind.Message, "DesignRules: checked by the evaluation server (process "
-                        + answer.ProcessId.ToString(CultureInfo.InvariantCulture) + "); DesignRulesServer=false checks in the build process.")
+                    // Where the task's own time went, beside the server's account of its run ("run took", -v:detailed).
+                    var logged = Stopwatch.GetTimestamp();
+                    log.Write(new BuildLogEntry(BuildLogKind.Message, string.Create(CultureInfo.InvariantCulture,
+                        $"DesignRules: checked by the evaluation server (process {answer.ProcessId}); DesignRulesServer=false checks in the build process. The task took {Milliseconds(started.Timestamp, logged)} ms: {Milliseconds(started.Timestamp, sending)} ms for the call, {Milliseconds(sending, connected)} ms to reach the server, {Milliseconds(connected, answered)} ms for the request and the run, {Milliseconds(answered, logged)} ms logging {frame.Entries.Count} entries; meanwhile this process compiled {System.Runtime.JitInfo.GetCompiledMethodCount() - started.CompiledMethods} method(s) just in time."))
                     { Importance = BuildLogImportance.Low });
                     whyNot = null;
                     return frame.Result;
@@ -202,6 +207,8 @@ internal static class ServerClient
         return null;
     }
 
+    private static long Milliseconds(long from, long to) => (long)Stopwatch.GetElapsedTime(from, to).TotalMilliseconds;
+
     /// <summary>
     /// Starts the server as a background process of the same dotnet the build runs on, with standard streams of its own
     /// (redirected, then closed here): a build whose caller reads its output to the end must not wait on the server's
@@ -251,6 +258,21 @@ internal static class ServerClient
         process.StandardError.Close();
         return process;
     }
+}
+
+/// <summary>When the task began (for its account of where its time went, at -v:detailed).</summary>
+internal readonly struct TaskStart
+{
+    private TaskStart(long timestamp, long compiledMethods) => (Timestamp, CompiledMethods) = (timestamp, compiledMethods);
+
+    /// <summary>The <see cref="Stopwatch"/> timestamp.</summary>
+    public long Timestamp { get; }
+
+    /// <summary>The methods the process had compiled just in time by then.</summary>
+    public long CompiledMethods { get; }
+
+    /// <summary>Now.</summary>
+    public static TaskStart Now() => new(Stopwatch.GetTimestamp(), System.Runtime.JitInfo.GetCompiledMethodCount());
 }
 
 /// <summary>How the task reaches its server.</summary>
