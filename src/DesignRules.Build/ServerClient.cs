@@ -19,13 +19,15 @@ internal static class ServerClient
 
     /// <summary>
     /// Runs <paramref name="call"/> on the server; null (and <paramref name="whyNot"/>) when it could not be served, and
-    /// nothing but progress lines has been logged then.
+    /// nothing but progress lines has been logged then. With <paramref name="handOverOnly"/> the task leaves as soon as
+    /// the server accepted the run (a head start): the server finishes it alone, and nothing is logged.
     /// </summary>
-    public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, CancellationToken cancellation, out string? whyNot)
+    public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, CancellationToken cancellation, out string? whyNot,
+        bool handOverOnly = false)
     {
         try
         {
-            var (result, reason) = TryRunAsync(call, log, options, cancellation).GetAwaiter().GetResult();
+            var (result, reason) = TryRunAsync(call, log, options, handOverOnly, cancellation).GetAwaiter().GetResult();
             whyNot = reason;
             return result;
         }
@@ -42,7 +44,7 @@ internal static class ServerClient
     }
 
     private static async Task<(BuildCheckResult? Result, string? WhyNot)> TryRunAsync(BuildCall call, IBuildLog log, ServerOptions options,
-        CancellationToken cancellation)
+        bool handOverOnly, CancellationToken cancellation)
     {
         var server = Path.Combine(options.TaskFolder, ServerAssembly);
         if (!File.Exists(server))
@@ -82,6 +84,12 @@ internal static class ServerClient
         if (answer.Kind != ServerFrame.Accepted)
         {
             return (null, "the evaluation server refused the run: " + (answer.Reason ?? answer.Kind));
+        }
+
+        if (handOverOnly)
+        {
+            // Closing the connection now leaves the run to the server, which finishes it (writing only the results cache).
+            return (new BuildCheckResult(true, 0, 0), null);
         }
 
         while (true)

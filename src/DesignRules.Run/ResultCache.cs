@@ -18,7 +18,7 @@ namespace DesignRules.Run;
 /// completed and only when no file it depends on changed during the check; a damaged or foreign entry is ignored and
 /// written again.
 /// </summary>
-internal sealed class ResultCache : IDesignResultStore
+internal sealed class ResultCache : IDesignResultStore, IDisposable
 {
     private const string Magic = "designrules-results";
     private readonly string folder;
@@ -26,6 +26,7 @@ internal sealed class ResultCache : IDesignResultStore
     private readonly ConcurrentDictionary<string, string?> contentHashes = new(StringComparer.Ordinal);
     private readonly ConcurrentDictionary<string, string> keys = new(StringComparer.Ordinal);
     private readonly ConcurrentBag<string> designFiles = [];
+    private readonly ConcurrentDictionary<string, EvaluationClaims.Claim> claims = new(StringComparer.Ordinal);
     private int hits;
 
     /// <summary>A cache in <paramref name="folder"/>; <paramref name="files"/> are hashed now, before they are loaded.</summary>
@@ -58,6 +59,48 @@ internal sealed class ResultCache : IDesignResultStore
 
         keys[design.Id.Value] = key;
         var entry = EntryPath(design.File);
+        // Another run of this process evaluating exactly this content now (a build's head start): wait for it and read
+        // the entry it writes.
+        var waited = EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
+        if (Read(entry, key, design) is { } result)
+        {
+            Interlocked.Increment(ref hits);
+            return result with { JustEvaluated = waited };
+        }
+
+        // About to evaluate: claim the key, so that another run of this process waits instead of evaluating it too.
+        var claim = EvaluationClaims.TryClaim(key, ClaimName(design));
+        if (claim is null)
+        {
+            // Claimed meanwhile by another run: wait for its entry; without one (it failed), evaluate here.
+            waited = EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
+        }
+        else
+        {
+            claims[ClaimName(design)] = claim;
+        }
+
+        // Once more: the other run may have written its entry and left between the first look and now.
+        if (Read(entry, key, design) is { } written)
+        {
+            if (claims.TryRemove(ClaimName(design), out var mine))
+            {
+                mine.Release();
+            }
+
+            Interlocked.Increment(ref hits);
+            return written with { JustEvaluated = waited };
+        }
+
+        return null;
+    }
+
+    /// <summary>A claim is this run's by the design file it was made for (one design per file; ids may collide, DR909).</summary>
+    private static string ClaimName(Design design) => Path.GetFullPath(design.File);
+
+    /// <summary>The result stored in <paramref name="entry"/> under exactly <paramref name="key"/>; null when there is none.</summary>
+    private static DesignResult? Read(string entry, string key, Design design)
+    {
         try
         {
             if (!File.Exists(entry))
@@ -74,9 +117,7 @@ internal sealed class ResultCache : IDesignResultStore
 
             // The payload's checksum (just verified against the bytes) names its content exactly: a warm process that read
             // the same bytes before reuses their parsed form instead of parsing the JSON again.
-            var result = ResultCodec.Decode(DecodedEntries.Get(checksum, bytes.AsSpan(payload)), design);
-            Interlocked.Increment(ref hits);
-            return result;
+            return ResultCodec.Decode(DecodedEntries.Get(checksum, bytes.AsSpan(payload)), design);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or System.Text.Json.JsonException
             or NotSupportedException or InvalidOperationException or ArgumentException or FormatException or OverflowException)
@@ -88,6 +129,34 @@ internal sealed class ResultCache : IDesignResultStore
 
     /// <inheritdoc />
     public void Keep(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
+    {
+        try
+        {
+            Store(design, ruleSet, today, result);
+        }
+        finally
+        {
+            // Written (or not): a run waiting for this design now reads the entry, or evaluates the design itself.
+            if (claims.TryRemove(ClaimName(design), out var claim))
+            {
+                claim.Release();
+            }
+        }
+    }
+
+    /// <summary>Ends every claim this run still holds (a design whose check failed): waiting runs evaluate it themselves.</summary>
+    public void Dispose()
+    {
+        foreach (var name in claims.Keys)
+        {
+            if (claims.TryRemove(name, out var claim))
+            {
+                claim.Release();
+            }
+        }
+    }
+
+    private void Store(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
     {
         if (!keys.TryGetValue(design.Id.Value, out var before) || Key(design, ruleSet, today, fresh: true) != before)
         {
