@@ -253,7 +253,10 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
             : null;
         if (why is null && Served(call, hostAsError: null) is { } served)
         {
-            var headStart = served with { SarifFile = null, JsonFile = null, PagesFolder = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false };
+            var headStart = served with
+            {
+                SarifFile = null, JsonFile = null, PagesFolder = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
+            };
             var handed = ServerClient.TryRun(headStart, new TaskLog(Log), new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder),
                 cancellation, out why, handOverOnly: true);
             if (handed is not null)

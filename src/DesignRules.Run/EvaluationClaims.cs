@@ -36,6 +36,28 @@ internal static class EvaluationClaims
     public static bool WaitFor(string key, TimeSpan limit) =>
         Held.TryGetValue(key, out var claim) && claim.Ended.Wait(limit);
 
+    /// <summary>How many keys evaluated by head starts a process remembers until a run reads them (then it starts afresh).</summary>
+    public const int HeadStartCapacity = 1024;
+
+    private static readonly ConcurrentDictionary<string, byte> HeadStarted = new(StringComparer.Ordinal);
+
+    /// <summary>A head start (a run that only fills the cache ahead of the build's check) evaluated the result of <paramref name="key"/>.</summary>
+    public static void EvaluatedByHeadStart(string key)
+    {
+        if (HeadStarted.Count >= HeadStartCapacity)
+        {
+            HeadStarted.Clear();
+        }
+
+        HeadStarted[key] = 0;
+    }
+
+    /// <summary>
+    /// True once for a key a head start evaluated: the run that reads the result says so, instead of calling an edited
+    /// design "unchanged".
+    /// </summary>
+    public static bool TakeEvaluatedByHeadStart(string key) => HeadStarted.TryRemove(key, out _);
+
     /// <summary>Whether a run holds a claim on a result of <paramref name="designFile"/> now (tests).</summary>
     internal static bool Holds(string designFile) => Held.Values.Any(c => c.DesignFile == Path.GetFullPath(designFile));
 

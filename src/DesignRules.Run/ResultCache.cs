@@ -42,6 +42,12 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         }
     }
 
+    /// <summary>
+    /// True for a build's head start: the run only fills the cache ahead of the build's own check, and the designs it
+    /// evaluates are remembered so that the check's progress says where their results came from.
+    /// </summary>
+    public bool HeadStart { get; init; }
+
     /// <summary>How many designs came from the cache.</summary>
     public int Hits => hits;
 
@@ -61,11 +67,11 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         var entry = EntryPath(design.File);
         // Another run of this process evaluating exactly this content now (a build's head start): wait for it and read
         // the entry it writes.
-        var waited = EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
+        EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
         if (Read(entry, key, design) is { } result)
         {
             Interlocked.Increment(ref hits);
-            return result with { JustEvaluated = waited };
+            return result with { JustEvaluated = !HeadStart && EvaluationClaims.TakeEvaluatedByHeadStart(key) };
         }
 
         // About to evaluate: claim the key, so that another run of this process waits instead of evaluating it too.
@@ -73,7 +79,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         if (claim is null)
         {
             // Claimed meanwhile by another run: wait for its entry; without one (it failed), evaluate here.
-            waited = EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
+            EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
         }
         else
         {
@@ -89,7 +95,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
             }
 
             Interlocked.Increment(ref hits);
-            return written with { JustEvaluated = waited };
+            return written with { JustEvaluated = !HeadStart && EvaluationClaims.TakeEvaluatedByHeadStart(key) };
         }
 
         return null;
@@ -132,7 +138,10 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     {
         try
         {
-            Store(design, ruleSet, today, result);
+            if (Store(design, ruleSet, today, result) is { } key && HeadStart)
+            {
+                EvaluationClaims.EvaluatedByHeadStart(key);
+            }
         }
         finally
         {
@@ -156,13 +165,14 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         }
     }
 
-    private void Store(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
+    /// <summary>Writes the design's entry; its key when written, else null.</summary>
+    private string? Store(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
     {
         if (!keys.TryGetValue(design.Id.Value, out var before) || Key(design, ruleSet, today, fresh: true) != before)
         {
             // A file the design depends on changed while it was checked: the result is of neither version; keep nothing.
             keys.TryRemove(design.Id.Value, out _);
-            return;
+            return null;
         }
 
         try
@@ -180,10 +190,12 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
             }
 
             File.Move(temporary, entry, overwrite: true);
+            return before;
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
             // A cache that cannot be written costs time next run, never a result.
+            return null;
         }
     }
 

@@ -62,6 +62,7 @@ internal sealed class ExampleCopy : IDisposable
             PagesFolder = cacheOnly ? null : Pages,
             CacheFolder = Cache,
             ToolIdentityOverride = toolIdentity,
+            HeadStart = cacheOnly,
         };
         var progress = new Recorder();
         var outcome = DesignRun.Execute(request, progress);

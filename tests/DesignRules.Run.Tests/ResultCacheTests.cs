@@ -57,6 +57,11 @@ public sealed class ResultCacheTests : IDisposable
         Assert.Equal(4, outcome.FromCache);
         Assert.False(EvaluationClaims.Holds(edited));
 
+        // Another run later reads the same entry as unchanged (the head start's evaluation is announced once).
+        File.AppendAllText(repo.Design("motor-current-monitor"), "\n# edited\n");
+        repo.Run(null, cacheOnly: false, out var later);
+        Assert.Empty(later);
+
         // The same bytes as a run that evaluated the edited design itself.
         var json = File.ReadAllBytes(repo.Json);
         var pages = Snapshot(repo.Pages);

@@ -15,7 +15,7 @@ internal sealed record ServerFrame(string Kind)
     /// The protocol version both ends must speak; raised whenever a frame or <see cref="BuildCall"/> changes shape, so that
     /// a task never talks to a server that would read its request otherwise (it runs in-process instead).
     /// </summary>
-    public const int CurrentProtocol = 1;
+    public const int CurrentProtocol = 2;
 
     /// <summary>The client's request to run.</summary>
     public const string Run = "run";
