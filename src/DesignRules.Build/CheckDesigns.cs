@@ -134,6 +134,15 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
     /// <summary><c>DesignRulesServerIdleSeconds</c>: how long a server this task starts waits for runs before it exits.</summary>
     public double ServerIdleSeconds { get; set; } = ServerSettings.DefaultIdleSeconds;
 
+    /// <summary>
+    /// A head start (<c>DesignRulesHeadStart</c>, while the build restores): hand the check of the designs to the
+    /// evaluation server and return at once, without waiting, logging findings or writing any output but the server's
+    /// results cache. The build's own check later finds the results there, or waits in the server for a design still under
+    /// way, so the edited design is evaluated while MSBuild restores and evaluates the project. Never fails the build: when
+    /// the server is off or cannot be reached nothing happens, and the build's check runs as always.
+    /// </summary>
+    public bool HeadStart { get; set; }
+
     /// <summary>Tells servers of one task folder apart (tests of "another tool identity"); empty normally.</summary>
     public string? ServerSalt { get; set; }
 
@@ -169,6 +178,12 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
         try
         {
             var call = Call();
+            if (HeadStart)
+            {
+                HandOver(call, started, cancellation.Token);
+                return true;
+            }
+
             var result = Replay ? BuildCheck.Replay(call, log) : RunServedOrInProcess(call, log, started, cancellation.Token);
             ErrorCount = result.ErrorCount;
             WarningCount = result.WarningCount;
@@ -215,8 +230,8 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
         var hostAsError = BuildEngine is IBuildEngine8 engine ? engine.ShouldTreatWarningAsError : (Func<string, bool>?)null;
         if (Server && Served(call, hostAsError) is { } served)
         {
-            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), started, cancellation,
-                out var whyNot);
+            var result = ServerClient.TryRun(served, log, new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), started,
+                handOverOnly: false, cancellation, out var whyNot);
             if (result is not null)
             {
                 return result;
@@ -226,6 +241,33 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
         }
 
         return BuildCheck.Execute(call, log, hostAsError);
+    }
+
+    /// <summary>
+    /// The head start: only the results cache is the server's to write (no reports, pages, stamp or loaded-files list), and
+    /// the level and warning switches do not matter to the cache, so they are not asked of the engine.
+    /// </summary>
+    private void HandOver(BuildCall call, TaskStart started, CancellationToken cancellation)
+    {
+        var why = !Server ? "the evaluation server is off (DesignRulesServer=false)"
+            : string.IsNullOrWhiteSpace(CacheFolder) ? "the results cache is off (DesignRulesCache=false)"
+            : null;
+        if (why is null && Served(call, hostAsError: null) is { } served)
+        {
+            var headStart = served with
+            {
+                SarifFile = null, JsonFile = null, PagesFolder = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
+            };
+            var handed = ServerClient.TryRun(headStart, new TaskLog(Log), new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), started,
+                handOverOnly: true, cancellation, out why);
+            if (handed is not null)
+            {
+                Log.LogMessage(MessageImportance.Low, "DesignRules: head start: the evaluation server checks the designs while the build goes on.");
+                return;
+            }
+        }
+
+        Log.LogMessage(MessageImportance.Low, $"DesignRules: no head start: {why ?? "a path cannot be made full"}.");
     }
 
     /// <summary>

@@ -21,12 +21,15 @@ internal static class ServerClient
     /// Runs <paramref name="call"/> on the server; null (and <paramref name="whyNot"/>) when it could not be served, and
     /// nothing but progress lines has been logged then. Synchronous throughout (blocking socket calls, each wait bounded):
     /// this runs in the build's own process on every build, where async state machines would be compiled just in time.
+    /// With <paramref name="handOverOnly"/> the task leaves as soon as the server accepted the run (a head start): the
+    /// server finishes it alone, and nothing is logged.
     /// </summary>
-    public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, TaskStart started, CancellationToken cancellation, out string? whyNot)
+    public static BuildCheckResult? TryRun(BuildCall call, IBuildLog log, ServerOptions options, TaskStart started, bool handOverOnly,
+        CancellationToken cancellation, out string? whyNot)
     {
         try
         {
-            return Run(call, log, options, started, cancellation, out whyNot);
+            return Run(call, log, options, started, handOverOnly, cancellation, out whyNot);
         }
         catch (OperationCanceledException) when (cancellation.IsCancellationRequested)
         {
@@ -45,7 +48,8 @@ internal static class ServerClient
         }
     }
 
-    private static BuildCheckResult? Run(BuildCall call, IBuildLog log, ServerOptions options, TaskStart started, CancellationToken cancellation, out string? whyNot)
+    private static BuildCheckResult? Run(BuildCall call, IBuildLog log, ServerOptions options, TaskStart started, bool handOverOnly,
+        CancellationToken cancellation, out string? whyNot)
     {
         var sending = Stopwatch.GetTimestamp();
         var server = Path.Combine(options.TaskFolder, ServerAssembly);
@@ -92,6 +96,12 @@ internal static class ServerClient
                 ? string.Create(CultureInfo.InvariantCulture, $"the evaluation server speaks protocol {answer.Protocol}, the task {ServerFrame.CurrentProtocol}")
                 : "the evaluation server refused the run: " + (answer.Reason ?? answer.Kind);
             return null;
+        }
+
+        if (handOverOnly)
+        {
+            // Closing the connection now leaves the run to the server, which finishes it (writing only the results cache).
+            return new BuildCheckResult(true, 0, 0);
         }
 
         while (true)

@@ -43,7 +43,14 @@ public interface IDesignResultStore
 /// <summary>What the check of one design yields: its findings (after waivers) and its summary (figures, plots, verdicts).</summary>
 /// <param name="Findings">The design's findings, before any host-level change of levels.</param>
 /// <param name="Summary">Its figures, plots, yields and requirement verdicts.</param>
-public sealed record DesignResult(IReadOnlyList<Finding> Findings, DesignSummary Summary);
+public sealed record DesignResult(IReadOnlyList<Finding> Findings, DesignSummary Summary)
+{
+    /// <summary>
+    /// True when the store holds this result because another run evaluated the design just now (a build's head start,
+    /// which the run waited for), not because nothing it depends on changed since an earlier check.
+    /// </summary>
+    public bool JustEvaluated { get; init; }
+}
 
 /// <summary>Where a host looked for design files.</summary>
 /// <param name="Location">The file or folder a "no design found" finding points at.</param>
@@ -60,6 +67,9 @@ public sealed record DesignProgress(string File, string DesignId, int Errors, in
 {
     /// <summary>True when the result came from an earlier check (nothing it depends on changed), not from evaluation.</summary>
     public bool FromStore { get; init; }
+
+    /// <summary>True when the result came from the store because another run evaluated the design just now (<see cref="DesignResult.JustEvaluated"/>).</summary>
+    public bool JustEvaluated { get; init; }
 
     /// <summary>How many designs of the run have finished, this one included.</summary>
     public int Completed { get; init; }

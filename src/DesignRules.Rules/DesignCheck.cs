@@ -81,6 +81,7 @@ public static class DesignCheck
                         System.Diagnostics.Stopwatch.GetElapsedTime(started))
                     {
                         FromStore = kept is not null,
+                        JustEvaluated = kept?.JustEvaluated == true,
                         Completed = completed,
                         Total = loaded.Designs.Count,
                     });

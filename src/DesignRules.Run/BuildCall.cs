@@ -88,6 +88,9 @@ internal sealed record BuildCall
     /// <summary><c>DesignRulesNewOnly</c>.</summary>
     public bool NewOnly { get; init; }
 
+    /// <summary>The head start (<c>DesignRulesHeadStart</c>, during restore): only the results cache is filled.</summary>
+    public bool HeadStart { get; init; }
+
     /// <summary>Every code a DR diagnostic can have (DR000 to DR999): the ones the engine is asked about.</summary>
     public static IEnumerable<string> AllCodes => Enumerable.Range(0, 1000).Select(n => "DR" + n.ToString("000", System.Globalization.CultureInfo.InvariantCulture));
 }

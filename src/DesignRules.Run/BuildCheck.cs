@@ -101,6 +101,7 @@ internal static class BuildCheck
             CacheFolder = call.CacheFolder,
             BaselineFile = call.BaselineFile,
             NewOnly = call.NewOnly,
+            HeadStart = call.HeadStart,
         });
 
         // Properties that cannot be used are the user's mistake: plain errors at the project, before the check runs.

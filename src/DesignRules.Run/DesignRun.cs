@@ -30,7 +30,8 @@ public static class DesignRun
     private static RunOutcome ExecuteOrThrow(RunRequest request, IRunProgress? progress)
     {
         var clock = new RunClock();
-        var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride);
+        // Disposed at the end: a design claimed but never kept (its check failed) is released for waiting runs.
+        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride) { HeadStart = request.HeadStart };
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
             Search = request.Search,

@@ -18,7 +18,7 @@ namespace DesignRules.Run;
 /// completed and only when no file it depends on changed during the check; a damaged or foreign entry is ignored and
 /// written again.
 /// </summary>
-internal sealed class ResultCache : IDesignResultStore
+internal sealed class ResultCache : IDesignResultStore, IDisposable
 {
     private const string Magic = "designrules-results";
     private readonly string folder;
@@ -26,6 +26,7 @@ internal sealed class ResultCache : IDesignResultStore
     private readonly ConcurrentDictionary<string, string?> contentHashes = new(StringComparer.Ordinal);
     private readonly ConcurrentDictionary<string, string> keys = new(StringComparer.Ordinal);
     private readonly ConcurrentBag<string> designFiles = [];
+    private readonly ConcurrentDictionary<string, EvaluationClaims.Claim> claims = new(StringComparer.Ordinal);
     private int hits;
 
     /// <summary>A cache in <paramref name="folder"/>; <paramref name="files"/> are hashed now, before they are loaded.</summary>
@@ -40,6 +41,12 @@ internal sealed class ResultCache : IDesignResultStore
             contentHashes[Path.GetFullPath(file)] = HashFile(file);
         }
     }
+
+    /// <summary>
+    /// True for a build's head start: the run only fills the cache ahead of the build's own check, and the designs it
+    /// evaluates are remembered so that the check's progress says where their results came from.
+    /// </summary>
+    public bool HeadStart { get; init; }
 
     /// <summary>How many designs came from the cache.</summary>
     public int Hits => hits;
@@ -58,6 +65,48 @@ internal sealed class ResultCache : IDesignResultStore
 
         keys[design.Id.Value] = key;
         var entry = EntryPath(design.File);
+        // Another run of this process evaluating exactly this content now (a build's head start): wait for it and read
+        // the entry it writes.
+        EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
+        if (Read(entry, key, design) is { } result)
+        {
+            Interlocked.Increment(ref hits);
+            return result with { JustEvaluated = !HeadStart && EvaluationClaims.TakeEvaluatedByHeadStart(key) };
+        }
+
+        // About to evaluate: claim the key, so that another run of this process waits instead of evaluating it too.
+        var claim = EvaluationClaims.TryClaim(key, ClaimName(design));
+        if (claim is null)
+        {
+            // Claimed meanwhile by another run: wait for its entry; without one (it failed), evaluate here.
+            EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
+        }
+        else
+        {
+            claims[ClaimName(design)] = claim;
+        }
+
+        // Once more: the other run may have written its entry and left between the first look and now.
+        if (Read(entry, key, design) is { } written)
+        {
+            if (claims.TryRemove(ClaimName(design), out var mine))
+            {
+                mine.Release();
+            }
+
+            Interlocked.Increment(ref hits);
+            return written with { JustEvaluated = !HeadStart && EvaluationClaims.TakeEvaluatedByHeadStart(key) };
+        }
+
+        return null;
+    }
+
+    /// <summary>A claim is this run's by the design file it was made for (one design per file; ids may collide, DR909).</summary>
+    private static string ClaimName(Design design) => Path.GetFullPath(design.File);
+
+    /// <summary>The result stored in <paramref name="entry"/> under exactly <paramref name="key"/>; null when there is none.</summary>
+    private static DesignResult? Read(string entry, string key, Design design)
+    {
         try
         {
             if (!File.Exists(entry))
@@ -74,9 +123,7 @@ internal sealed class ResultCache : IDesignResultStore
 
             // The payload's checksum (just verified against the bytes) names its content exactly: a warm process that read
             // the same bytes before reuses their parsed form instead of parsing the JSON again.
-            var result = ResultCodec.Decode(DecodedEntries.Get(checksum, bytes.AsSpan(payload)), design);
-            Interlocked.Increment(ref hits);
-            return result;
+            return ResultCodec.Decode(DecodedEntries.Get(checksum, bytes.AsSpan(payload)), design);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or System.Text.Json.JsonException
             or NotSupportedException or InvalidOperationException or ArgumentException or FormatException or OverflowException)
@@ -89,11 +136,43 @@ internal sealed class ResultCache : IDesignResultStore
     /// <inheritdoc />
     public void Keep(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
     {
+        try
+        {
+            if (Store(design, ruleSet, today, result) is { } key && HeadStart)
+            {
+                EvaluationClaims.EvaluatedByHeadStart(key);
+            }
+        }
+        finally
+        {
+            // Written (or not): a run waiting for this design now reads the entry, or evaluates the design itself.
+            if (claims.TryRemove(ClaimName(design), out var claim))
+            {
+                claim.Release();
+            }
+        }
+    }
+
+    /// <summary>Ends every claim this run still holds (a design whose check failed): waiting runs evaluate it themselves.</summary>
+    public void Dispose()
+    {
+        foreach (var name in claims.Keys)
+        {
+            if (claims.TryRemove(name, out var claim))
+            {
+                claim.Release();
+            }
+        }
+    }
+
+    /// <summary>Writes the design's entry; its key when written, else null.</summary>
+    private string? Store(Design design, RuleSet ruleSet, DateOnly today, DesignResult result)
+    {
         if (!keys.TryGetValue(design.Id.Value, out var before) || Key(design, ruleSet, today, fresh: true) != before)
         {
             // A file the design depends on changed while it was checked: the result is of neither version; keep nothing.
             keys.TryRemove(design.Id.Value, out _);
-            return;
+            return null;
         }
 
         try
@@ -111,10 +190,12 @@ internal sealed class ResultCache : IDesignResultStore
             }
 
             File.Move(temporary, entry, overwrite: true);
+            return before;
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
             // A cache that cannot be written costs time next run, never a result.
+            return null;
         }
     }
 

@@ -67,6 +67,12 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
     /// </summary>
     public bool NewOnly { get; init; }
 
+    /// <summary>
+    /// A build's head start (<c>DesignRulesHeadStart</c>): a run that only fills the results cache while the build restores,
+    /// ahead of the build's own check.
+    /// </summary>
+    public bool HeadStart { get; init; }
+
     /// <summary>Stands in for the tool's identity in cache keys (tests: "another tool version"); null for the real one.</summary>
     internal string? ToolIdentityOverride { get; init; }
 
@@ -191,6 +197,7 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
             CacheFolder = Blank(inputs.CacheFolder) is { } cache ? Path.GetFullPath(cache) : null,
             Baseline = baseline,
             NewOnly = inputs.NewOnly,
+            HeadStart = inputs.HeadStart,
         };
         return new RequestParse(request, []);
     }
@@ -358,4 +365,7 @@ public sealed record BuildInputs(IReadOnlyList<string> Files)
 
     /// <summary><c>DesignRulesNewOnly</c>: fail only on findings new against the baseline.</summary>
     public bool NewOnly { get; init; }
+
+    /// <summary>The task's head start: only the results cache is filled.</summary>
+    public bool HeadStart { get; init; }
 }

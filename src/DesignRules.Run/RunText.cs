@@ -38,7 +38,8 @@ public static class RunText
     public static string Progress(DesignProgress progress, string root)
     {
         ArgumentNullException.ThrowIfNull(progress);
-        var how = progress.FromStore ? "unchanged, from the results cache" : string.Create(CultureInfo.InvariantCulture, $"{progress.Elapsed.TotalSeconds:0.00} s");
+        var how = progress.JustEvaluated ? "evaluated by the head start, from the results cache"
+            : progress.FromStore ? "unchanged, from the results cache" : string.Create(CultureInfo.InvariantCulture, $"{progress.Elapsed.TotalSeconds:0.00} s");
         return string.Create(CultureInfo.InvariantCulture,
             $"checked {DiagnosticText.Escape(RepositoryPaths.Display(root, progress.File))} ({DiagnosticText.Escape(progress.DesignId)}): {progress.Errors} error(s), {progress.Warnings} warning(s), {how}");
     }

@@ -25,12 +25,16 @@ public sealed partial class ServerPackageTests(PackedFeed feed)
             var inProcess = repo.Build("-p:DesignRulesServer=false", "-p:DesignRulesToday=2026-12-01", "-p:DesignRulesJsonFile=out/designrules.json", "-v:d");
             Assert.True(inProcess.ExitCode == 0, inProcess.ToString());
             Assert.DoesNotContain("checked by the evaluation server", inProcess.Output, StringComparison.Ordinal);
+            Assert.DoesNotContain("DesignRules: head start", inProcess.Output, StringComparison.Ordinal);
             var expected = Outputs(repo.Root);
             ForgetOutputs(repo.Root);
 
-            // The first build starts the server and hands it the run; the outputs are the same bytes.
+            // The first build starts the server while it restores (the head start) and hands it the check; the check target
+            // then reads the head start's result or waits for it (which of the two depends on timing; the run layer's
+            // tests pin the wait); the outputs are the same bytes.
             var served = repo.Build("-p:DesignRulesToday=2026-12-01", "-p:DesignRulesJsonFile=out/designrules.json", "-v:d");
             Assert.True(served.ExitCode == 0, served.ToString());
+            Assert.Contains("DesignRules: head start: the evaluation server checks the designs", served.Output, StringComparison.Ordinal);
             var server = ServerProcess(served);
             started.Add(server);
             var actual = Outputs(repo.Root);
@@ -39,6 +43,12 @@ public sealed partial class ServerPackageTests(PackedFeed feed)
             {
                 Assert.True(bytes.AsSpan().SequenceEqual(actual[file]), $"{file} differs between the served and the in-process build");
             }
+
+            // Nothing changed: neither the head start nor the check runs (both are skipped by their inputs and outputs).
+            var again = repo.Build("-p:DesignRulesToday=2026-12-01", "-p:DesignRulesJsonFile=out/designrules.json", "-v:d");
+            Assert.True(again.ExitCode == 0, again.ToString());
+            Assert.Contains("evaluation skipped", again.Output, StringComparison.Ordinal);
+            Assert.DoesNotContain("DesignRules: head start", again.Output, StringComparison.Ordinal);
 
             // An edited design goes to the same, warm server, which reports its new error: never a stale green.
             SampleRepository.Write(repo.Root, SampleRepository.Design(SampleRepository.UnknownAmplifier));

@@ -44,21 +44,30 @@ internal sealed class ExampleCopy : IDisposable
     public string Design(string id) => Directory.GetFiles(Path.Combine(Root, "designs"), id + ".yaml").Single();
 
     /// <summary>Runs the check with the cache, pages and JSON; returns the outcome and the ids of the designs evaluated (not from the cache).</summary>
-    public (RunOutcome Outcome, IReadOnlyList<string> Evaluated) Run(string? toolIdentity = null)
+    public (RunOutcome Outcome, IReadOnlyList<string> Evaluated) Run(string? toolIdentity = null) => Run(toolIdentity, cacheOnly: false, out _);
+
+    /// <summary>
+    /// As <see cref="Run(string?)"/>; <paramref name="cacheOnly"/> writes only the cache (no pages, no JSON, as a build's
+    /// head start runs), and <paramref name="justEvaluated"/> lists the designs read from the cache because another run
+    /// had just evaluated them.
+    /// </summary>
+    public (RunOutcome Outcome, IReadOnlyList<string> Evaluated) Run(string? toolIdentity, bool cacheOnly, out IReadOnlyList<string> justEvaluated)
     {
         var files = DesignRules.Loading.RepositoryFiles.Find([Root], out _);
         var request = new RunRequest(files, Root, new DateOnly(2026, 12, 1))
         {
             RuleSetFile = RuleSet,
             ReportRoot = Root,
-            JsonFile = Json,
-            PagesFolder = Pages,
+            JsonFile = cacheOnly ? null : Json,
+            PagesFolder = cacheOnly ? null : Pages,
             CacheFolder = Cache,
             ToolIdentityOverride = toolIdentity,
+            HeadStart = cacheOnly,
         };
         var progress = new Recorder();
         var outcome = DesignRun.Execute(request, progress);
         Assert.True(outcome.Fault is null, outcome.FaultDetail);
+        justEvaluated = progress.JustEvaluated;
         return (outcome, progress.Evaluated.Order(StringComparer.Ordinal).ToList());
     }
 
@@ -68,11 +77,17 @@ internal sealed class ExampleCopy : IDisposable
     {
         public List<string> Evaluated { get; } = [];
 
+        public List<string> JustEvaluated { get; } = [];
+
         public void DesignChecked(DesignProgress progress)
         {
             if (!progress.FromStore)
             {
                 Evaluated.Add(progress.DesignId);
+            }
+            else if (progress.JustEvaluated)
+            {
+                JustEvaluated.Add(progress.DesignId);
             }
         }
 

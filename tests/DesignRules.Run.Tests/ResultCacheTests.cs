@@ -32,6 +32,47 @@ public sealed class ResultCacheTests : IDisposable
     }
 
     [Fact]
+    public void A_run_that_meets_a_design_another_run_is_evaluating_waits_for_its_result_instead_of_evaluating_it_again()
+    {
+        repo.Run();
+        var edited = repo.Design("compressor-vibration-envelope");
+        File.AppendAllText(edited, "\n# edited\n");
+
+        // A run that writes only the cache (as a build's head start does) claims the edited design and evaluates it; a
+        // full run started meanwhile waits for that result and reads it from the cache: the design is evaluated once.
+        IReadOnlyList<string> headStartEvaluated = [];
+        var headStart = new Thread(() => headStartEvaluated = repo.Run(null, cacheOnly: true, out _).Evaluated);
+        headStart.Start();
+        var clock = System.Diagnostics.Stopwatch.StartNew();
+        while (!EvaluationClaims.Holds(edited) && headStart.IsAlive && clock.Elapsed < TimeSpan.FromSeconds(60))
+        {
+            Thread.Sleep(1);
+        }
+
+        var (outcome, evaluated) = repo.Run(null, cacheOnly: false, out var justEvaluated);
+        headStart.Join();
+        Assert.Equal(["compressor-vibration-envelope"], headStartEvaluated);
+        Assert.Empty(evaluated);
+        Assert.Equal(["compressor-vibration-envelope"], justEvaluated);
+        Assert.Equal(4, outcome.FromCache);
+        Assert.False(EvaluationClaims.Holds(edited));
+
+        // Another run later reads the same entry as unchanged (the head start's evaluation is announced once).
+        File.AppendAllText(repo.Design("motor-current-monitor"), "\n# edited\n");
+        repo.Run(null, cacheOnly: false, out var later);
+        Assert.Empty(later);
+
+        // The same bytes as a run that evaluated the edited design itself.
+        var json = File.ReadAllBytes(repo.Json);
+        var pages = Snapshot(repo.Pages);
+        Directory.Delete(repo.Cache, recursive: true);
+        Directory.Delete(repo.Pages, recursive: true);
+        Assert.Equal(All, repo.Run().Evaluated);
+        Assert.Equal(json, File.ReadAllBytes(repo.Json));
+        Assert.Equal(pages, Snapshot(repo.Pages));
+    }
+
+    [Fact]
     public void A_changed_parts_file_re_evaluates_exactly_the_design_that_uses_it()
     {
         repo.Run();

@@ -21,6 +21,8 @@ public sealed class RunTextTests
         Assert.Equal("checked designs/a.yaml (a): 1 error(s), 2 warning(s), 0.43 s", RunText.Progress(fresh, "/repo"));
         Assert.Equal("checked designs/a.yaml (a): 1 error(s), 2 warning(s), unchanged, from the results cache",
             RunText.Progress(fresh with { FromStore = true }, "/repo"));
+        Assert.Equal("checked designs/a.yaml (a): 1 error(s), 2 warning(s), evaluated by the head start, from the results cache",
+            RunText.Progress(fresh with { FromStore = true, JustEvaluated = true }, "/repo"));
     }
 
     [Fact]

@@ -289,6 +289,7 @@ internal sealed record ServerFrame(string Kind)
         WriteText(writer, call.CacheFolder);
         WriteText(writer, call.BaselineFile);
         writer.Write(call.NewOnly);
+        writer.Write(call.HeadStart);
     }
 
     private static BuildCall ReadCall(BinaryReader reader) => new()
@@ -319,6 +320,7 @@ internal sealed record ServerFrame(string Kind)
         CacheFolder = ReadText(reader),
         BaselineFile = ReadText(reader),
         NewOnly = reader.ReadBoolean(),
+        HeadStart = reader.ReadBoolean(),
     };
 
     private static void WriteEntry(BinaryWriter writer, BuildLogEntry entry)
