@@ -59,7 +59,7 @@ internal sealed class ResultCache : IDesignResultStore
         // The key from the content hashed before loading must be the key of the content now: a file saved in between may
         // have been loaded in either version, and a result of the other version must never stand for it. The key is the
         // same text with the same hashes, so comparing each file's hash now with its hash before is the same test; a
-        // parts file many designs share is hashed again once per run, after loading (see LoadedHash).
+        // parts file many designs share is hashed again once per run, after loading (see SameAsBefore).
         if (key is null || !Unchanged(design))
         {
             return null;
