@@ -119,6 +119,43 @@ internal sealed class OutputFolder
             : null;
     }
 
+    /// <summary>
+    /// True when <paramref name="full"/> is, by its folder's listing (read once per folder into <paramref name="folders"/>),
+    /// an entry that is neither a folder nor a symbolic link: what <see cref="PlainFile"/> says of its own status.
+    /// </summary>
+    private static bool Listed(Dictionary<string, HashSet<string>> folders, string full)
+    {
+        var folder = Path.GetDirectoryName(full)!;
+        if (!folders.TryGetValue(folder, out var names))
+        {
+            names = new HashSet<string>(StringComparer.Ordinal);
+            try
+            {
+                // Skipping links and folders needs no status call: the directory entry's own type says so (on a file
+                // system that does not give the type, the runtime looks at the entry itself, never through a link).
+                var options = new EnumerationOptions
+                {
+                    AttributesToSkip = FileAttributes.Directory | FileAttributes.ReparsePoint,
+                    IgnoreInaccessible = false,
+                    MatchType = MatchType.Simple,
+                    RecurseSubdirectories = false,
+                };
+                foreach (var file in Directory.EnumerateFiles(folder, "*", options))
+                {
+                    names.Add(Path.GetFileName(file));
+                }
+            }
+            catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+            {
+                // A folder that went away or cannot be listed keeps none of its files.
+            }
+
+            folders[folder] = names;
+        }
+
+        return names.Contains(Path.GetFileName(full));
+    }
+
     private static bool PlainFile(FileInfo info) =>
         info.Exists && (info.Attributes & (FileAttributes.ReparsePoint | FileAttributes.Directory)) == 0;
 
@@ -192,8 +229,11 @@ internal sealed class OutputFolder
         }
 
         var removed = new List<string>();
-        // A kept file that vanished since it was vouched for is not listed again (the next run renders it).
-        kept.RemoveWhere(k => !listed.Contains(k) || LinkOnTheWay(k, foldersOnly: true) is not null || Inside(k) is not { } full || !PlainFile(new FileInfo(full)));
+        // A kept file that vanished since it was vouched for is not listed again (the next run renders it). Whether each is
+        // still a plain file is read from its folder's listing, one per folder (a design's plots share one), rather than
+        // from a status call per file: the listing tells a link and a folder from a file without another look.
+        var plainFiles = new Dictionary<string, HashSet<string>>(StringComparer.Ordinal);
+        kept.RemoveWhere(k => !listed.Contains(k) || LinkOnTheWay(k, foldersOnly: true) is not null || Inside(k) is not { } full || !Listed(plainFiles, full));
         foreach (var relative in listed.Where(l => !pending.ContainsKey(l) && !kept.Contains(l)))
         {
             var full = Inside(relative);

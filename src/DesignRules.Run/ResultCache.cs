@@ -1,3 +1,4 @@
+using System.Buffers;
 using System.Collections.Concurrent;
 using System.Globalization;
 using System.Security.Cryptography;
@@ -21,10 +22,16 @@ namespace DesignRules.Run;
 internal sealed class ResultCache : IDesignResultStore, IDisposable
 {
     private const string Magic = "designrules-results";
+
+    /// <summary>An entry larger than this is not one this tool wrote (the largest design's is a few hundred kilobytes).</summary>
+    private const int MaxEntryBytes = 64 << 20;
     private readonly string folder;
     private readonly string tool;
     private readonly ConcurrentDictionary<string, string?> contentHashes = new(StringComparer.Ordinal);
     private readonly ConcurrentDictionary<string, string> keys = new(StringComparer.Ordinal);
+
+    // Each file's content hash taken again after loading, once per run (a parts file is shared by many designs).
+    private readonly ConcurrentDictionary<string, Lazy<string?>> loadedHashes = new(StringComparer.Ordinal);
     private readonly ConcurrentBag<string> designFiles = [];
     private readonly ConcurrentDictionary<string, EvaluationClaims.Claim> claims = new(StringComparer.Ordinal);
     private int hits;
@@ -55,10 +62,12 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     public DesignResult? Find(Design design, RuleSet ruleSet, DateOnly today)
     {
         designFiles.Add(Path.GetFullPath(design.File));
-        // The key from the content hashed before loading must be the key of the content now: a file saved in between may
-        // have been loaded in either version, and a result of the other version must never stand for it.
         var key = Key(design, ruleSet, today, fresh: false);
-        if (key is null || Key(design, ruleSet, today, fresh: true) != key)
+        // The key from the content hashed before loading must be the key of the content now: a file saved in between may
+        // have been loaded in either version, and a result of the other version must never stand for it. The key is the
+        // same text with the same hashes, so comparing each file's hash now with its hash before is the same test; a
+        // parts file many designs share is hashed again once per run, after loading (see SameAsBefore).
+        if (key is null || !Unchanged(design))
         {
             return null;
         }
@@ -107,14 +116,36 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     /// <summary>The result stored in <paramref name="entry"/> under exactly <paramref name="key"/>; null when there is none.</summary>
     private static DesignResult? Read(string entry, string key, Design design)
     {
+        byte[]? buffer = null;
+        var length = 0;
         try
         {
-            if (!File.Exists(entry))
+            // Read into a rented buffer: an entry is tens of kilobytes (the plots' numbers), hundreds of them are read on
+            // every run, and as fresh arrays most of them went to the large-object heap. A missing entry throws
+            // FileNotFoundException, an IOException like any unreadable one.
+            using (var handle = File.OpenHandle(entry, FileMode.Open, FileAccess.Read, FileShare.Read))
             {
-                return null;
+                var size = RandomAccess.GetLength(handle);
+                if (size > MaxEntryBytes)
+                {
+                    return null;
+                }
+
+                length = (int)size;
+                buffer = ArrayPool<byte>.Shared.Rent(length);
+                var read = 0;
+                while (read < length && RandomAccess.Read(handle, buffer.AsSpan(read, length - read), read) is var n and > 0)
+                {
+                    read += n;
+                }
+
+                if (read != length)
+                {
+                    return null;
+                }
             }
 
-            var bytes = File.ReadAllBytes(entry);
+            ReadOnlySpan<byte> bytes = buffer.AsSpan(0, length);
             var payload = Payload(bytes, key, out var checksum);
             if (payload < 0)
             {
@@ -123,13 +154,20 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
 
             // The payload's checksum (just verified against the bytes) names its content exactly: a warm process that read
             // the same bytes before reuses their parsed form instead of parsing the JSON again.
-            return ResultCodec.Decode(DecodedEntries.Get(checksum, bytes.AsSpan(payload)), design);
+            return ResultCodec.Decode(DecodedEntries.Get(checksum, bytes[payload..]), design);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or System.Text.Json.JsonException
             or NotSupportedException or InvalidOperationException or ArgumentException or FormatException or OverflowException)
         {
             // Damaged, foreign or unreadable: never trusted; the design is evaluated and its entry written again.
             return null;
+        }
+        finally
+        {
+            if (buffer is not null)
+            {
+                ArrayPool<byte>.Shared.Return(buffer);
+            }
         }
     }
 
@@ -274,6 +312,36 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         return new PageReuse(Path.Combine(folder, "pages.state"), pageKeys);
     }
 
+    /// <summary>
+    /// True when every file the design's key names has now, after loading, the content it had when the run began (so the
+    /// design as loaded is the design the key names). Checked only after loading: the store is asked once every file is
+    /// read, so one hash per file per run, taken on first need, stands for every design that uses the file.
+    /// </summary>
+    private bool Unchanged(Design design)
+    {
+        var designFile = Path.GetFullPath(design.File);
+        if (!SameAsBefore(designFile))
+        {
+            return false;
+        }
+
+        foreach (var library in design.Libraries.Where(l => l.File != DesignLoader.BuiltinLibraryFile))
+        {
+            if (!SameAsBefore(Path.GetFullPath(library.File)))
+            {
+                return false;
+            }
+        }
+
+        return true;
+    }
+
+    private bool SameAsBefore(string file)
+    {
+        var before = contentHashes.GetOrAdd(file, HashFile);
+        return before is not null && loadedHashes.GetOrAdd(file, f => new Lazy<string?>(() => HashFile(f))).Value == before;
+    }
+
     /// <summary>The key of a design's result; null when a file it depends on cannot be read.</summary>
     internal string? Key(Design design, RuleSet ruleSet, DateOnly today, bool fresh)
     {
@@ -315,28 +383,28 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         Path.Combine(folder, Hash(Path.GetFullPath(designFile))[..32] + ".result");
 
     /// <summary>The offset of the payload when the header is this format, this key and the payload's checksum holds; else -1.</summary>
-    private static int Payload(byte[] bytes, string key, out string checksum)
+    private static int Payload(ReadOnlySpan<byte> bytes, string key, out string checksum)
     {
         checksum = string.Empty;
-        var lines = new int[4];
+        Span<int> lines = stackalloc int[4];
         var at = 0;
         for (var i = 0; i < 4; i++)
         {
-            var end = Array.IndexOf(bytes, (byte)'\n', at);
+            var end = bytes[at..].IndexOf((byte)'\n');
             if (end < 0)
             {
                 return -1;
             }
 
-            lines[i] = end;
-            at = end + 1;
+            lines[i] = at + end;
+            at = at + end + 1;
         }
 
-        var magic = Encoding.UTF8.GetString(bytes, 0, lines[0]);
-        var storedKey = Encoding.UTF8.GetString(bytes, lines[0] + 1, lines[1] - lines[0] - 1);
-        checksum = Encoding.UTF8.GetString(bytes, lines[1] + 1, lines[2] - lines[1] - 1);
+        var magic = Encoding.UTF8.GetString(bytes[..lines[0]]);
+        var storedKey = Encoding.UTF8.GetString(bytes[(lines[0] + 1)..lines[1]]);
+        checksum = Encoding.UTF8.GetString(bytes[(lines[1] + 1)..lines[2]]);
         if (magic != $"{Magic} {ResultCodec.FormatVersion.ToString(CultureInfo.InvariantCulture)}" || storedKey != key
-            || checksum != Convert.ToHexString(SHA256.HashData(bytes.AsSpan(at))))
+            || checksum != Convert.ToHexString(SHA256.HashData(bytes[at..])))
         {
             return -1;
         }

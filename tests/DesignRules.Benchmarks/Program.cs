@@ -1,1 +1,14 @@
-internal static class Program { private static void Main(string[] args) => BenchmarkDotNet.Running.BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args); }
+internal static class Program
+{
+    private static void Main(string[] args)
+    {
+        // `served-loop REPOSITORY [RUNS]`: the warm server's run repeated in this process (not a BenchmarkDotNet case).
+        if (args.Length > 1 && args[0] == "served-loop")
+        {
+            DesignRules.Benchmarks.ServedRunLoop.Run(args[1..]);
+            return;
+        }
+
+        BenchmarkDotNet.Running.BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);
+    }
+}

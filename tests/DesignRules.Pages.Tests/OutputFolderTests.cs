@@ -36,6 +36,46 @@ public sealed class OutputFolderTests
         File.Delete(outside);
     }
 
+    [Fact]
+    public void A_kept_file_that_vanished_or_became_a_link_after_it_was_vouched_for_is_not_listed_again()
+    {
+        var folder = Directory.CreateTempSubdirectory("designrules-kept-").FullName;
+        try
+        {
+            var first = new OutputFolder(folder);
+            foreach (var name in new[] { "plots/d/same.svg", "plots/d/gone.svg", "plots/d/linked.svg", "plots/e/other.svg" })
+            {
+                first.Write(name, "<svg>" + name + "</svg>");
+            }
+
+            first.Commit([]);
+            var second = new OutputFolder(folder);
+            foreach (var name in new[] { "plots/d/same.svg", "plots/d/gone.svg", "plots/d/linked.svg", "plots/e/other.svg" })
+            {
+                Assert.NotNull(second.StampOfListedFile(name));
+                second.Keep(name);
+            }
+
+            // Another process changes the folder after the files were vouched for and before this run takes the lock.
+            File.Delete(Path.Combine(folder, "plots", "d", "gone.svg"));
+            var target = Path.Combine(folder, "elsewhere.svg");
+            File.WriteAllText(target, "<svg>plots/d/linked.svg</svg>");
+            File.Delete(Path.Combine(folder, "plots", "d", "linked.svg"));
+            File.CreateSymbolicLink(Path.Combine(folder, "plots", "d", "linked.svg"), target);
+
+            second.Commit([]);
+
+            Assert.Equal(["plots/d/same.svg", "plots/e/other.svg"], second.Kept.Order(StringComparer.Ordinal));
+            var manifest = File.ReadAllLines(Path.Combine(folder, OutputFolder.ManifestName)).Where(l => !l.StartsWith('#')).ToList();
+            Assert.Equal(["plots/d/same.svg", "plots/e/other.svg"], manifest);
+            Assert.Equal("<svg>plots/d/linked.svg</svg>", File.ReadAllText(target));
+        }
+        finally
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+    }
+
     [Theory]
     [InlineData("vibration-envelope", "vibration-envelope")]
     [InlineData("Bad Name/../x", "bad-name----x")]

@@ -90,6 +90,23 @@ public sealed class ResultCacheTests : IDisposable
     }
 
     [Fact]
+    public void A_parts_file_saved_after_the_run_hashed_its_inputs_gives_no_result_to_any_design_that_uses_it()
+    {
+        repo.Run();
+        var files = DesignRules.Loading.RepositoryFiles.Find([repo.Root], out _);
+        var today = new DateOnly(2026, 12, 1);
+        // The cache hashes the given files first; the parts file is then saved before the loader reads it, so every design
+        // loaded with it is of a version the key does not name. A design that does not use it is still found.
+        var cache = new ResultCache(repo.Cache, files);
+        var parts = Directory.GetFiles(Path.Combine(repo.Root, "parts"), "*.yaml").Single();
+        File.AppendAllText(parts, "# saved while the build ran\n");
+        var ruleSet = DesignRules.Loading.RuleSetLoader.Load(repo.RuleSet).RuleSet;
+        var found = DesignRules.Loading.DesignLoader.LoadFiles(files).Designs
+            .Where(d => cache.Find(d, ruleSet, today) is not null).Select(d => d.Id.Value).Order(StringComparer.Ordinal);
+        Assert.Equal(["compressor-vibration-envelope", "motor-current-monitor"], found);
+    }
+
+    [Fact]
     public void A_changed_rule_set_section_re_evaluates_exactly_the_design_it_names_and_a_global_change_every_design()
     {
         repo.Run();
