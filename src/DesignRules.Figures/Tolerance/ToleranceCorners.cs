@@ -59,8 +59,16 @@ internal static class ToleranceCorners
 
         // The runs are independent: side by side on every core, each into its own slot, so the list keeps the jobs' order
         // and each run's bits do not depend on which core ran it or when. A core takes the next run only when its last is
-        // done (no ranges of runs per core), so one long run does not leave a core idle behind a queue of others.
-        var order = Partitioner.Create(Enumerable.Range(0, jobs.Count), EnumerablePartitionerOptions.NoBuffering);
+        // done (no ranges of runs per core), so one long run does not leave a core idle behind a queue of others. They are
+        // handed out longest first (the time steps the nominal run at the same band end took, the estimate of a corner's),
+        // so that the last runs handed out are short ones and the cores finish together: the compressor's 10 Hz runs take
+        // about 1.27 times the steps of its 2 kHz ones, and in the jobs' order one core finished about 8 % of the corner
+        // runs' time after the other.
+        var started = Enumerable.Range(0, jobs.Count)
+            .OrderByDescending(i => Steps(nominalRuns[jobs[i].End]))
+            .ThenBy(i => i)
+            .ToList();
+        var order = Partitioner.Create(started, EnumerablePartitionerOptions.NoBuffering);
         Parallel.ForEach(order, i =>
         {
             var (corner, end) = jobs[i];
@@ -105,6 +113,10 @@ internal static class ToleranceCorners
 
         return runs.OfType<CornerRun>().ToList();
     }
+
+    /// <summary>The time steps a settled run took in its last run, accepted and rejected: its cost, for the order of the corner runs.</summary>
+    private static long Steps(SettledTransient run) =>
+        (long)run.Result.Statistics.AcceptedSteps + run.Result.Statistics.RejectedSteps;
 
     private static List<ToleranceCorner> Corners(DesignAnalyses analyses, ElaboratedChain nominal)
     {

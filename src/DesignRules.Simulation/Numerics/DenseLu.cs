@@ -132,10 +132,18 @@ internal sealed class DenseLu<T>
     {
         if (tracked)
         {
-            int n = Size;
-            for (int r = 0; r < n; r++)
+            if (sparse is { Factored: true })
             {
-                if (rowLast[r] >= rowFirst[r]) Array.Clear(matrix, (r * n) + rowFirst[r], rowLast[r] - rowFirst[r] + 1);
+                // Replayed factors lie on the replay's pattern only (the rows' extents cover it and more).
+                sparse.ClearFactors((double[])(object)matrix);
+            }
+            else
+            {
+                int n = Size;
+                for (int r = 0; r < n; r++)
+                {
+                    if (rowLast[r] >= rowFirst[r]) Array.Clear(matrix, (r * n) + rowFirst[r], rowLast[r] - rowFirst[r] + 1);
+                }
             }
 
             ResetExtents();

@@ -1,3 +1,5 @@
+using System.Runtime.InteropServices;
+
 namespace DesignRules.Simulation.Numerics;
 
 /// <summary>
@@ -17,23 +19,27 @@ internal sealed class SparseRefactor
     private readonly bool[] loaded;
     private readonly bool[] structure;
     private readonly int[] pivotOf;
-    private readonly int[] savedFirst;
-    private readonly int[] savedLast;
     private readonly int[] factorFirst;
     private readonly int[] factorLast;
-    private int[] lowerStart = [];
-    private int[] lowerRow = [];
-    private bool[] lowerStrict = [];
-    private int[] upperStart = [];
-    private int[] upperColumn = [];
-    private int[] positions = [];
-    private int[] positionColumn = [];
-    private int[] factorPositions = [];
-    private int[] solveLowerStart = [];
-    private int[] solveLower = [];
-    private int[] solveUpperStart = [];
-    private int[] solveUpper = [];
-    private double[] saved = [];
+
+    // The step lists of the recorded interchanges (Analyse). Kept and refilled at every analysis rather than allocated
+    // anew: a transient records fresh interchanges about a hundred times (about 1 % of its factorisations), and each
+    // analysis allocated some ten lists and arrays.
+    private readonly int[] lowerStart;
+    private readonly int[] upperStart;
+    private readonly int[] swapStart;
+    private readonly int[] solveLowerStart;
+    private readonly int[] solveUpperStart;
+    private readonly List<int> lowerRow = [];
+    private readonly List<bool> lowerStrict = [];
+    private readonly List<int> upperColumn = [];
+    private readonly List<int> swapColumn = [];
+    private readonly List<int> positions = [];
+    private readonly List<int> positionColumn = [];
+    private readonly List<int> factorPositions = [];
+    private readonly List<int> solveLower = [];
+    private readonly List<int> solveUpper = [];
+    private readonly List<double> saved = [];
     private bool recorded;
     private bool analysed;
 
@@ -43,10 +49,13 @@ internal sealed class SparseRefactor
         loaded = new bool[size * size];
         structure = new bool[size * size];
         pivotOf = new int[size];
-        savedFirst = new int[size];
-        savedLast = new int[size];
         factorFirst = new int[size];
         factorLast = new int[size];
+        lowerStart = new int[size + 1];
+        upperStart = new int[size + 1];
+        swapStart = new int[size + 1];
+        solveLowerStart = new int[size + 1];
+        solveUpperStart = new int[size + 1];
     }
 
     /// <summary>Factorisations replayed (for tests).</summary>
@@ -72,7 +81,7 @@ internal sealed class SparseRefactor
         }
 
         var lStart = solveLowerStart;
-        var lower = solveLower;
+        var lower = CollectionsMarshal.AsSpan(solveLower);
         for (int r = 1; r < size; r++)
         {
             double sum = b[r];
@@ -82,7 +91,7 @@ internal sealed class SparseRefactor
         }
 
         var uStart = solveUpperStart;
-        var upper = solveUpper;
+        var upper = CollectionsMarshal.AsSpan(solveUpper);
         for (int r = size - 1; r >= 0; r--)
         {
             double sum = b[r];
@@ -90,6 +99,16 @@ internal sealed class SparseRefactor
             for (int e = uStart[r]; e < uStart[r + 1]; e++) sum -= a[rowBase + upper[e]] * b[upper[e]];
             b[r] = sum / a[rowBase + r];
         }
+    }
+
+    /// <summary>
+    /// Zeroes the replayed factors in <paramref name="a"/> (only while <see cref="Factored"/>): every other entry of the
+    /// storage is an exact zero already, so this leaves the storage as clearing all of it would, in a fraction of the stores.
+    /// </summary>
+    public void ClearFactors(double[] a)
+    {
+        var factors = CollectionsMarshal.AsSpan(factorPositions);
+        for (int t = 0; t < factors.Length; t++) a[factors[t]] = 0;
     }
 
     /// <summary>The storage no longer holds replayed factors (cleared, or factored dense).</summary>
@@ -113,8 +132,9 @@ internal sealed class SparseRefactor
         Factored = false;
         if (!recorded) return false;
         if (!analysed) Analyse();
-        var at = positions;
-        var keep = saved;
+        var at = CollectionsMarshal.AsSpan(positions);
+        var keep = CollectionsMarshal.AsSpan(saved);
+        var atColumn = CollectionsMarshal.AsSpan(positionColumn);
         for (int c = 0; c < n; c++) columnScale[c] = 0;
         for (int t = 0; t < at.Length; t++)
         {
@@ -122,23 +142,32 @@ internal sealed class SparseRefactor
             if (!double.IsFinite(v)) return false;
             keep[t] = v;
             double m = Math.Abs(v);
-            int c = positionColumn[t];
+            int c = atColumn[t];
             if (m > columnScale[c]) columnScale[c] = m;
         }
 
-        Array.Copy(rowFirst, savedFirst, n);
-        Array.Copy(rowLast, savedLast, n);
+        // The row extents are left as they are until the replay succeeds (then set to the factors'), so a replay given up
+        // leaves them as loaded without a copy to restore.
         var lStart = lowerStart;
-        var lRow = lowerRow;
-        var lStrict = lowerStrict;
+        var lRow = CollectionsMarshal.AsSpan(lowerRow);
+        var lStrict = CollectionsMarshal.AsSpan(lowerStrict);
         var uStart = upperStart;
-        var uColumn = upperColumn;
+        var uColumn = CollectionsMarshal.AsSpan(upperColumn);
+        var sStart = swapStart;
+        var sColumn = CollectionsMarshal.AsSpan(swapColumn);
         for (int k = 0; k < n; k++)
         {
             int p = pivotOf[k];
             if (p != k)
             {
-                Swap(a, k * n, p * n, n);
+                // The dense LU exchanges the whole rows; outside the pattern both hold exact zeros, so exchanging the
+                // pattern's columns of either row leaves the same bits.
+                int kBase = k * n, pBase = p * n;
+                for (int e = sStart[k]; e < sStart[k + 1]; e++)
+                {
+                    int c = sColumn[e];
+                    (a[kBase + c], a[pBase + c]) = (a[pBase + c], a[kBase + c]);
+                }
             }
 
             int pivotBase = k * n;
@@ -153,7 +182,7 @@ internal sealed class SparseRefactor
 
             if (!usable)
             {
-                Restore(a, rowFirst, rowLast);
+                Restore(a);
                 return false;
             }
 
@@ -175,12 +204,12 @@ internal sealed class SparseRefactor
         }
 
         // A value that overflowed on the way would have met zeros the dense LU multiplies and this one skips.
-        var factors = factorPositions;
+        var factors = CollectionsMarshal.AsSpan(factorPositions);
         for (int t = 0; t < factors.Length; t++)
         {
             if (!double.IsFinite(a[factors[t]]))
             {
-                Restore(a, rowFirst, rowLast);
+                Restore(a);
                 return false;
             }
         }
@@ -212,12 +241,10 @@ internal sealed class SparseRefactor
         for (int i = 0; i < length; i++) (array[first + i], array[second + i]) = (array[second + i], array[first + i]);
     }
 
-    private void Restore(double[] a, int[] rowFirst, int[] rowLast)
+    private void Restore(double[] a)
     {
         Array.Clear(a, 0, n * n);
-        for (int t = 0; t < positions.Length; t++) a[positions[t]] = saved[t];
-        Array.Copy(savedFirst, rowFirst, n);
-        Array.Copy(savedLast, rowLast, n);
+        for (int t = 0; t < positions.Count; t++) a[positions[t]] = saved[t];
         Fallbacks++;
         recorded = false;
         analysed = false;
@@ -228,16 +255,29 @@ internal sealed class SparseRefactor
     {
         int size = n;
         Array.Copy(loaded, structure, size * size);
-        var lStart = new int[size + 1];
-        var uStart = new int[size + 1];
-        var lRow = new List<int>();
-        var lStrict = new List<bool>();
-        var uColumn = new List<int>();
+        var lStart = lowerStart;
+        var uStart = upperStart;
+        var sStart = swapStart;
+        var lRow = lowerRow;
+        var lStrict = lowerStrict;
+        var uColumn = upperColumn;
+        var sColumn = swapColumn;
+        lRow.Clear();
+        lStrict.Clear();
+        uColumn.Clear();
+        sColumn.Clear();
         for (int k = 0; k < size; k++)
         {
             int p = pivotOf[k];
+            sStart[k] = sColumn.Count;
             if (p != k)
             {
+                // The columns either row may hold a non-zero in when they are exchanged (see TryFactor).
+                for (int c = 0; c < size; c++)
+                {
+                    if (structure[(k * size) + c] || structure[(p * size) + c]) sColumn.Add(c);
+                }
+
                 Swap(structure, k * size, p * size, size);
             }
 
@@ -263,18 +303,19 @@ internal sealed class SparseRefactor
 
         lStart[size] = lRow.Count;
         uStart[size] = uColumn.Count;
-        lowerStart = lStart;
-        upperStart = uStart;
-        lowerRow = [.. lRow];
-        lowerStrict = [.. lStrict];
-        upperColumn = [.. uColumn];
-        var at = new List<int>();
-        var atColumn = new List<int>();
-        var factors = new List<int>();
-        var sLowerStart = new int[size + 1];
-        var sUpperStart = new int[size + 1];
-        var sLower = new List<int>();
-        var sUpper = new List<int>();
+        sStart[size] = sColumn.Count;
+        var at = positions;
+        var atColumn = positionColumn;
+        var factors = factorPositions;
+        var sLower = solveLower;
+        var sUpper = solveUpper;
+        at.Clear();
+        atColumn.Clear();
+        factors.Clear();
+        sLower.Clear();
+        sUpper.Clear();
+        var sLowerStart = solveLowerStart;
+        var sUpperStart = solveUpperStart;
         for (int r = 0; r < size; r++)
         {
             factorFirst[r] = size;
@@ -300,14 +341,7 @@ internal sealed class SparseRefactor
 
         sLowerStart[size] = sLower.Count;
         sUpperStart[size] = sUpper.Count;
-        solveLowerStart = sLowerStart;
-        solveUpperStart = sUpperStart;
-        solveLower = [.. sLower];
-        solveUpper = [.. sUpper];
-        factorPositions = [.. factors];
-        positionColumn = [.. atColumn];
-        positions = [.. at];
-        saved = new double[positions.Length];
+        CollectionsMarshal.SetCount(saved, at.Count);
         analysed = true;
     }
 }
