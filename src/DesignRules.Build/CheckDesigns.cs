@@ -294,7 +294,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
                 ReportRoot = Full(call.ReportRoot),
                 CacheFolder = Full(call.CacheFolder),
                 BaselineFile = Full(call.BaselineFile),
-                HostAsErrors = hostAsError is null ? null : HostAsErrors(hostAsError),
+                HostAsErrors = hostAsError is null ? null : BuildCall.CodesTreatedAsErrors(hostAsError),
             };
         }
         catch (Exception ex) when (ex is ArgumentException or NotSupportedException or PathTooLongException)
@@ -303,25 +303,6 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
         }
 
         static string? Full(string? path) => Blank(path) is { } given ? Path.GetFullPath(given) : null;
-    }
-
-    /// <summary>
-    /// Every code of <see cref="BuildCall.AllCodes"/> the engine treats as an error, asked in a plain loop: the query's
-    /// iterators over <c>int</c> would be compiled just in time in the build's process on every build.
-    /// </summary>
-    private static List<string> HostAsErrors(Func<string, bool> hostAsError)
-    {
-        var codes = new List<string>();
-        for (var number = 0; number < 1000; number++)
-        {
-            var code = "DR" + number.ToString("000", CultureInfo.InvariantCulture);
-            if (hostAsError(code))
-            {
-                codes.Add(code);
-            }
-        }
-
-        return codes;
     }
 
     private BuildCall Call() => new()

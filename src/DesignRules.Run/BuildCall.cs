@@ -91,6 +91,24 @@ internal sealed record BuildCall
     /// <summary>The head start (<c>DesignRulesHeadStart</c>, during restore): only the results cache is filled.</summary>
     public bool HeadStart { get; init; }
 
-    /// <summary>Every code a DR diagnostic can have (DR000 to DR999): the ones the engine is asked about.</summary>
-    public static IEnumerable<string> AllCodes => Enumerable.Range(0, 1000).Select(n => "DR" + n.ToString("000", System.Globalization.CultureInfo.InvariantCulture));
+    /// <summary>
+    /// Of every code a DR diagnostic can have (DR000 to DR999), the ones <paramref name="treatsAsError"/> (the engine's
+    /// <c>-warnaserror</c> verdict) makes errors. A plain loop: query iterators over <c>int</c> would be compiled just in
+    /// time in the build's process on every build.
+    /// </summary>
+    public static List<string> CodesTreatedAsErrors(Func<string, bool> treatsAsError)
+    {
+        ArgumentNullException.ThrowIfNull(treatsAsError);
+        var codes = new List<string>();
+        for (var number = 0; number < 1000; number++)
+        {
+            var code = "DR" + number.ToString("000", System.Globalization.CultureInfo.InvariantCulture);
+            if (treatsAsError(code))
+            {
+                codes.Add(code);
+            }
+        }
+
+        return codes;
+    }
 }
