@@ -45,12 +45,17 @@ public class PackageBuildBenchmark
     }
 
     private static readonly TimeSpan Limit = TimeSpan.FromMinutes(30);
+
+    /// <summary>The unit of /proc/PID/stat's processor times (USER_HZ, 100 on every Linux the benchmark runs on).</summary>
+    private const int TicksPerSecond = 100;
     private string root = null!;
     private string packages = null!;
     private int edit;
     private readonly List<double> cpuSeconds = [];
     private readonly List<double> wallSeconds = [];
     private readonly List<double> settleSeconds = [];
+    private readonly List<double> serverDuringSeconds = [];
+    private readonly List<double> serverAfterSeconds = [];
 
     [ParamsSource(nameof(PackageChoices))]
     public string Package { get; set; } = "current";
@@ -95,6 +100,7 @@ public class PackageBuildBenchmark
     [GlobalCleanup]
     public void Cleanup()
     {
+        SettleServers();
         StopServers();
         if (cpuSeconds.Count > 1)
         {
@@ -104,7 +110,14 @@ public class PackageBuildBenchmark
                 $"// build processor time [{Package}, {Repository}, server {Server}]: median {timed[timed.Count / 2]:0.00} s of {timed.Count} ({string.Join(", ", timed.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})"));
             var walls = wallSeconds.Skip(2).Order().ToList();
             Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"// build wall time [{Package}, {Repository}, server {Server}]: median {walls[walls.Count / 2]:0.00} s of {walls.Count} ({string.Join(", ", walls.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))}); waited for the server to go quiet before the builds: {string.Join(", ", settleSeconds.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))} s"));
+                $"// build wall time [{Package}, {Repository}, server {Server}]: median {walls[walls.Count / 2]:0.00} s of {walls.Count} ({string.Join(", ", walls.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))}); waited for the server to go quiet before the builds and after the last: {string.Join(", ", settleSeconds.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))} s"));
+            if (Server == "on")
+            {
+                // The server's share, which the build's own processor time above leaves out: during each timed build, and
+                // after it until the server was quiet again (the next build's wait; the last build's is taken at cleanup).
+                Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"// evaluation server processor time [{Package}, {Repository}]: during the timed builds {Seconds(serverDuringSeconds.Skip(2))} s; after them until quiet {Seconds(serverAfterSeconds.Skip(2))} s"));
+            }
         }
     }
 
@@ -144,6 +157,7 @@ public class PackageBuildBenchmark
 
         var clock = Stopwatch.StartNew();
         var before = ServerTicks();
+        var first = before;
         while (before > 0 && clock.Elapsed < TimeSpan.FromSeconds(20))
         {
             Thread.Sleep(300);
@@ -157,6 +171,11 @@ public class PackageBuildBenchmark
         }
 
         settleSeconds.Add(clock.Elapsed.TotalSeconds);
+        if (wallSeconds.Count > 0)
+        {
+            // What the server did after the last build answered (the case's first settle follows no build of this case).
+            serverAfterSeconds.Add((before - first) / (double)TicksPerSecond);
+        }
     }
 
     /// <summary>The processor time (in clock ticks) used so far by every server listening in this case's folder; 0 when none runs.</summary>
@@ -205,6 +224,7 @@ public class PackageBuildBenchmark
 
         var environment = new Dictionary<string, string> { ["NUGET_PACKAGES"] = packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder };
         var before = ChildProcessorSeconds();
+        var serverBefore = ServerTicks();
         var wall = Stopwatch.StartNew();
         var (exitCode, output, error) = ChildProcess.Run("dotnet", ["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra], root, Limit, environment);
         if (exitCode != 0)
@@ -214,7 +234,17 @@ public class PackageBuildBenchmark
 
         wallSeconds.Add(wall.Elapsed.TotalSeconds);
         cpuSeconds.Add(ChildProcessorSeconds() - before);
+        // A server started by this build counts from zero.
+        serverDuringSeconds.Add((ServerTicks() - serverBefore) / (double)TicksPerSecond);
         return exitCode;
+    }
+
+    /// <summary>"median 0.42 (0.40, 0.41, 0.42, 0.45, 0.50)": the values in order, for the cleanup lines.</summary>
+    private static string Seconds(IEnumerable<double> values)
+    {
+        var ordered = values.Order().ToList();
+        return ordered.Count == 0 ? "none" : string.Create(CultureInfo.InvariantCulture,
+            $"median {ordered[ordered.Count / 2]:0.00} ({string.Join(", ", ordered.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})");
     }
 
     /// <summary>User plus system time of every child process this process has waited for (getrusage, RUSAGE_CHILDREN).</summary>
