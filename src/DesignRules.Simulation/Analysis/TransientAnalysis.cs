@@ -284,12 +284,14 @@ internal sealed class TransientAnalysis
         return scaled / ((options.LteRelativeTolerance * magnitude) + absoluteTolerance[k]);
     }
 
-    /// <summary>Loads the devices once at the accepted solution so the stored charges belong to it.</summary>
+    /// <summary>
+    /// Stores the devices' charges at the accepted solution (the last iteration loaded them at the guess before it), with
+    /// the iteration memory a load there would leave; nothing is stamped, the next iteration clears the system first.
+    /// </summary>
     private void EvaluateCharges()
     {
         var context = solver.Context;
-        context.System.Clear();
-        foreach (var device in circuit.Devices) device.Load(context);
+        foreach (var device in circuit.Devices) device.StoreCharges(context);
     }
 
     private List<double> CollectBreakpoints(double start, double stop, double separation)
