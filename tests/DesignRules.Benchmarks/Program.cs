@@ -9,6 +9,13 @@ internal static class Program
             return;
         }
 
+        // `design-loop REPOSITORY DESIGN [RUNS]`: the check of one design repeated in this process, its processor time per run.
+        if (args.Length > 2 && args[0] == "design-loop")
+        {
+            DesignRules.Benchmarks.OneDesignLoop.Run(args[1..]);
+            return;
+        }
+
         BenchmarkDotNet.Running.BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);
     }
 }

@@ -166,6 +166,55 @@ public sealed class SparseRefactorTests
     }
 
     [Fact]
+    public void A_replay_whose_factor_right_of_the_diagonal_overflows_is_left_to_the_dense_lu()
+    {
+        // IEEE 754 double precision: the largest finite value is about 1.8e308, so 1e308 + 1e308 overflows to infinity.
+        // The first load records its interchanges (none: 2 leads its column). The second ties the first column (1 against
+        // −1, where partial pivoting keeps the row it meets first, as recorded) and its elimination makes row 1's entry
+        // right of the diagonal 1e308 − (−1)·1e308 = +∞: neither a pivot nor a multiplier, so only the replay's final test
+        // can see it (the last pivot, 1e300, passes the singularity test against its column's 1e308). The replay must give
+        // that load up to the dense LU, and both solve it to the same bits.
+        const int n = 3;
+        var sparse = new DenseLu<double>(n) { PreferSparse = true };
+        var dense = new DenseLu<double>(n);
+        double[][] loads =
+        [
+            [2, 0, 1, -1, 1, 1, 0, 0, 1],
+            [1, 0, 1e308, -1, 1, 1e308, 0, 0, 1e300],
+        ];
+        for (int round = 0; round < loads.Length; round++)
+        {
+            foreach (var system in new[] { sparse, dense })
+            {
+                system.Clear();
+                for (int r = 0; r < n; r++)
+                {
+                    for (int c = 0; c < n; c++)
+                    {
+                        double v = loads[round][(r * n) + c];
+                        if (v != 0) system.Add(r, c, v);
+                    }
+                }
+
+                system.Rhs[0] = 1;
+                system.Rhs[1] = 2;
+                system.Rhs[2] = 3;
+            }
+
+            Assert.Equal(-1, sparse.Factor());
+            Assert.Equal(-1, dense.Factor());
+            sparse.Solve();
+            dense.Solve();
+            for (int i = 0; i < n; i++) Assert.Equal(BitConverter.DoubleToInt64Bits(dense.Rhs[i]), BitConverter.DoubleToInt64Bits(sparse.Rhs[i]));
+        }
+
+        // The overflow reached the solution (the dense LU factors it as it is); the replay gave the load up.
+        Assert.False(double.IsFinite(sparse.Rhs[0]));
+        Assert.Equal(0, sparse.Sparse!.Replayed);
+        Assert.Equal(1, sparse.Sparse.Fallbacks);
+    }
+
+    [Fact]
     public void A_load_outside_the_analysed_pattern_is_analysed_afresh_and_solved()
     {
         // Reference: MathNet.Numerics' dense LU solve. A coupling appears after the first factorisation (an element whose

@@ -189,6 +189,15 @@ internal sealed class AmplifierDevice(string id, AmplifierParameters parameters,
         context.AddRhs(n.Minus, -p.Model.InputBiasCurrentInverting * context.SourceScale);
     }
 
+    public override void StoreCharges(LoadContext context)
+    {
+        // The charges Load stores: τ·x (Evaluate's X is the drive unknown itself), τ2·y and m.
+        var n = Nodes;
+        context.Derivative(n.DriveState, Parameters.DriveTimeScale * context.X[n.Drive]);
+        if (n.SecondPole >= 0) context.Derivative(n.SecondPoleState, Parameters.SecondPoleTime * context.X[n.SecondPole]);
+        if (n.Memory >= 0) context.Derivative(n.MemoryState, context.X[n.Memory]);
+    }
+
     public override void LoadAc(AcLoadContext context)
     {
         var p = Parameters;

@@ -27,5 +27,7 @@ internal sealed class CapacitorDevice(string id, int a, int b, double capacitanc
         context.NonlinearBranch(a, b, current, context.Alpha * capacitance, v);
     }
 
+    public override void StoreCharges(LoadContext context) => context.Derivative(state, capacitance * (context.V(a) - context.V(b)));
+
     public override void LoadAc(AcLoadContext context) => context.Admittance(a, b, new Complex(0, context.Omega * capacitance));
 }

@@ -37,6 +37,10 @@ internal sealed class ControlledVoltageSourceDevice(string id, int outPlus, int 
         context.Add(branch, controlMinus, gain);
     }
 
+    public override void StoreCharges(LoadContext context)
+    {
+    }
+
     public override void LoadAc(AcLoadContext context)
     {
         context.Add(outPlus, branch, 1);

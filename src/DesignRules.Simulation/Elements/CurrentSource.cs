@@ -26,6 +26,10 @@ internal sealed class CurrentSourceDevice(string id, int from, int to, Waveform 
         context.AddRhs(to, current);
     }
 
+    public override void StoreCharges(LoadContext context)
+    {
+    }
+
     public override void LoadAc(AcLoadContext context)
     {
         var current = context.SourcePhasor(Id);

@@ -13,6 +13,14 @@ internal abstract class Device(string id)
     public abstract void Load(LoadContext context);
 
     /// <summary>
+    /// Stores the charge of each of the device's integrated states at the present guess and updates its iteration memory,
+    /// exactly as <see cref="Load"/> does, without stamping anything: a transient needs the charges of each accepted
+    /// solution, and loading every stamp once more only for them cost a tenth of its time (the system is cleared
+    /// before the next iteration reads it).
+    /// </summary>
+    public abstract void StoreCharges(LoadContext context);
+
+    /// <summary>
     /// True when the device's DC equations are linear in the unknowns, with a right-hand side that does not depend on them
     /// (resistors, sources, and capacitors and inductors, which are open and short in DC): a solve that knows this may
     /// load it once instead of at every iterate. False (the safe answer) for anything else.

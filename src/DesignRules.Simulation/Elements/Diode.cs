@@ -54,15 +54,7 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
     {
         Prepare(context.Temperature);
         if (junction != anode) context.Conductance(anode, junction, seriesConductance);
-        double v = context.V(junction) - context.V(cathode);
-        double limitedV = Limit(v, lastVoltage, out bool limited);
-        if (limited)
-        {
-            context.Limited = true;
-            context.LimitedBy = Id;
-        }
-
-        lastVoltage = limitedV;
+        double limitedV = LimitJunction(context);
         double current = Current(limitedV, context.JunctionShunt, out double g);
         LoadedJunctionConductance = g;
         context.NonlinearBranch(junction, cathode, current, g, limitedV);
@@ -75,6 +67,14 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
             // In DC (no charge current, no capacitive conductance) the branch would add only zeros: skipped.
             if (chargeCurrent != 0 || gc != 0) context.NonlinearBranch(junction, cathode, chargeCurrent, gc, limitedV);
         }
+    }
+
+    public override void StoreCharges(LoadContext context)
+    {
+        // The limiting too: it moves the junction memory the next iteration limits from, as a load would.
+        Prepare(context.Temperature);
+        double limitedV = LimitJunction(context);
+        if (state >= 0) context.Derivative(state, model.JunctionCapacitance * limitedV);
     }
 
     public override void LoadAc(AcLoadContext context)
@@ -144,6 +144,21 @@ internal sealed class DiodeDevice(string id, int anode, int junction, int cathod
         nvt = model.EmissionCoefficient * PhysicalConstants.ThermalVoltage(temperature);
         criticalForward = nvt * Math.Log(nvt / (Math.Sqrt(2) * model.SaturationCurrent));
         criticalBreakdown = nvt * Math.Log(nvt / (Math.Sqrt(2) * model.BreakdownCurrent));
+    }
+
+    /// <summary>The junction voltage at the present guess, limited from the last one (which it then replaces).</summary>
+    private double LimitJunction(LoadContext context)
+    {
+        double v = context.V(junction) - context.V(cathode);
+        double limitedV = Limit(v, lastVoltage, out bool limited);
+        if (limited)
+        {
+            context.Limited = true;
+            context.LimitedBy = Id;
+        }
+
+        lastVoltage = limitedV;
+        return limitedV;
     }
 
     private double Limit(double v, double previous, out bool limited)

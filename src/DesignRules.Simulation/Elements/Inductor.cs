@@ -37,6 +37,8 @@ internal sealed class InductorDevice(string id, int a, int b, int branch, double
         context.AddRhs(branch, derivative - (context.Alpha * inductance * current));
     }
 
+    public override void StoreCharges(LoadContext context) => context.Derivative(state, inductance * context.X[branch]);
+
     public override void LoadAc(AcLoadContext context)
     {
         context.Add(a, branch, 1);

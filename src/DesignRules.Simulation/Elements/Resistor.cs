@@ -32,5 +32,9 @@ internal sealed class ResistorDevice(string id, int a, int b, double conductance
 
     public override void Load(LoadContext context) => context.Conductance(a, b, conductance);
 
+    public override void StoreCharges(LoadContext context)
+    {
+    }
+
     public override void LoadAc(AcLoadContext context) => context.Admittance(a, b, conductance);
 }

@@ -37,6 +37,10 @@ internal sealed class VoltageSourceDevice(string id, int plus, int minus, int br
         context.AddRhs(branch, SourceValues.Value(context, Id, Waveform));
     }
 
+    public override void StoreCharges(LoadContext context)
+    {
+    }
+
     public override void LoadAc(AcLoadContext context)
     {
         context.Add(plus, branch, 1);

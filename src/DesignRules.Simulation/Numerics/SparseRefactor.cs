@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
 
 namespace DesignRules.Simulation.Numerics;
@@ -12,6 +13,9 @@ namespace DesignRules.Simulation.Numerics;
 /// singularity test; any entry not finite, a new position loaded, or a check failing restores the loaded matrix and
 /// leaves the factorisation to the dense LU, whose interchanges are then recorded afresh. So every system is factored
 /// exactly as the dense LU factors it, and only the time differs.
+/// <para>The replay and its solve index the storage through positions their analysis computed from the pattern, all
+/// within the n × n storage: checked once per call instead of at every entry (the per-entry bounds checks were a
+/// large share of a replay, which a transient runs at every Newton iteration).</para>
 /// </summary>
 internal sealed class SparseRefactor
 {
@@ -30,7 +34,7 @@ internal sealed class SparseRefactor
     private readonly int[] swapStart;
     private readonly int[] solveLowerStart;
     private readonly int[] solveUpperStart;
-    private readonly List<int> lowerRow = [];
+    private readonly List<int> lowerRowBase = [];
     private readonly List<bool> lowerStrict = [];
     private readonly List<int> upperColumn = [];
     private readonly List<int> swapColumn = [];
@@ -74,30 +78,46 @@ internal sealed class SparseRefactor
     public void Solve(double[] a, double[] b, int[] rowOfStep)
     {
         int size = n;
+        CheckLengths(a, b, rowOfStep);
         for (int k = 0; k < size; k++)
         {
             int p = rowOfStep[k];
             if (p != k) (b[k], b[p]) = (b[p], b[k]);
         }
 
-        var lStart = solveLowerStart;
-        var lower = CollectionsMarshal.AsSpan(solveLower);
+        // Columns below n and rows' bases below n·n (Analyse): within a and b, checked above.
+        ref double entry = ref MemoryMarshal.GetArrayDataReference(a);
+        ref double x = ref MemoryMarshal.GetArrayDataReference(b);
+        ref int lStart = ref MemoryMarshal.GetArrayDataReference(solveLowerStart);
+        ref int lower = ref MemoryMarshal.GetReference(CollectionsMarshal.AsSpan(solveLower));
         for (int r = 1; r < size; r++)
         {
-            double sum = b[r];
+            double sum = Unsafe.Add(ref x, r);
             int rowBase = r * size;
-            for (int e = lStart[r]; e < lStart[r + 1]; e++) sum -= a[rowBase + lower[e]] * b[lower[e]];
-            b[r] = sum;
+            int to = Unsafe.Add(ref lStart, r + 1);
+            for (int e = Unsafe.Add(ref lStart, r); e < to; e++)
+            {
+                int c = Unsafe.Add(ref lower, e);
+                sum -= Unsafe.Add(ref entry, rowBase + c) * Unsafe.Add(ref x, c);
+            }
+
+            Unsafe.Add(ref x, r) = sum;
         }
 
-        var uStart = solveUpperStart;
-        var upper = CollectionsMarshal.AsSpan(solveUpper);
+        ref int uStart = ref MemoryMarshal.GetArrayDataReference(solveUpperStart);
+        ref int upper = ref MemoryMarshal.GetReference(CollectionsMarshal.AsSpan(solveUpper));
         for (int r = size - 1; r >= 0; r--)
         {
-            double sum = b[r];
+            double sum = Unsafe.Add(ref x, r);
             int rowBase = r * size;
-            for (int e = uStart[r]; e < uStart[r + 1]; e++) sum -= a[rowBase + upper[e]] * b[upper[e]];
-            b[r] = sum / a[rowBase + r];
+            int to = Unsafe.Add(ref uStart, r + 1);
+            for (int e = Unsafe.Add(ref uStart, r); e < to; e++)
+            {
+                int c = Unsafe.Add(ref upper, e);
+                sum -= Unsafe.Add(ref entry, rowBase + c) * Unsafe.Add(ref x, c);
+            }
+
+            Unsafe.Add(ref x, r) = sum / Unsafe.Add(ref entry, rowBase + r);
         }
     }
 
@@ -132,29 +152,34 @@ internal sealed class SparseRefactor
         Factored = false;
         if (!recorded) return false;
         if (!analysed) Analyse();
+        CheckLengths(a, columnScale, rowOfStep);
+
+        // Every position and row base below was numbered by Analyse within the n × n storage (checked above).
+        ref double entry = ref MemoryMarshal.GetArrayDataReference(a);
+        ref double scale = ref MemoryMarshal.GetArrayDataReference(columnScale);
         var at = CollectionsMarshal.AsSpan(positions);
         var keep = CollectionsMarshal.AsSpan(saved);
         var atColumn = CollectionsMarshal.AsSpan(positionColumn);
-        for (int c = 0; c < n; c++) columnScale[c] = 0;
+        for (int c = 0; c < n; c++) Unsafe.Add(ref scale, c) = 0;
         for (int t = 0; t < at.Length; t++)
         {
-            double v = a[at[t]];
+            double v = Unsafe.Add(ref entry, at[t]);
             if (!double.IsFinite(v)) return false;
             keep[t] = v;
             double m = Math.Abs(v);
-            int c = atColumn[t];
-            if (m > columnScale[c]) columnScale[c] = m;
+            ref double columnMaximum = ref Unsafe.Add(ref scale, atColumn[t]);
+            if (m > columnMaximum) columnMaximum = m;
         }
 
         // The row extents are left as they are until the replay succeeds (then set to the factors'), so a replay given up
         // leaves them as loaded without a copy to restore.
         var lStart = lowerStart;
-        var lRow = CollectionsMarshal.AsSpan(lowerRow);
+        ref int lRowBase = ref MemoryMarshal.GetReference(CollectionsMarshal.AsSpan(lowerRowBase));
         var lStrict = CollectionsMarshal.AsSpan(lowerStrict);
         var uStart = upperStart;
-        var uColumn = CollectionsMarshal.AsSpan(upperColumn);
+        ref int uColumn = ref MemoryMarshal.GetReference(CollectionsMarshal.AsSpan(upperColumn));
         var sStart = swapStart;
-        var sColumn = CollectionsMarshal.AsSpan(swapColumn);
+        ref int sColumn = ref MemoryMarshal.GetReference(CollectionsMarshal.AsSpan(swapColumn));
         for (int k = 0; k < n; k++)
         {
             int p = pivotOf[k];
@@ -165,18 +190,21 @@ internal sealed class SparseRefactor
                 int kBase = k * n, pBase = p * n;
                 for (int e = sStart[k]; e < sStart[k + 1]; e++)
                 {
-                    int c = sColumn[e];
-                    (a[kBase + c], a[pBase + c]) = (a[pBase + c], a[kBase + c]);
+                    int c = Unsafe.Add(ref sColumn, e);
+                    ref double first = ref Unsafe.Add(ref entry, kBase + c);
+                    ref double second = ref Unsafe.Add(ref entry, pBase + c);
+                    (first, second) = (second, first);
                 }
             }
 
             int pivotBase = k * n;
-            double pivot = a[pivotBase + k];
+            double pivot = Unsafe.Add(ref entry, pivotBase + k);
             double magnitude = Math.Abs(pivot);
-            bool usable = magnitude > 1e-14 * columnScale[k] && double.IsFinite(magnitude);
-            for (int e = lStart[k]; usable && e < lStart[k + 1]; e++)
+            bool usable = magnitude > 1e-14 * Unsafe.Add(ref scale, k) && double.IsFinite(magnitude);
+            int lFrom = lStart[k], lTo = lStart[k + 1];
+            for (int e = lFrom; usable && e < lTo; e++)
             {
-                double m = Math.Abs(a[(lRow[e] * n) + k]);
+                double m = Math.Abs(Unsafe.Add(ref entry, Unsafe.Add(ref lRowBase, e) + k));
                 if (m > magnitude || (m == magnitude && lStrict[e]) || !double.IsFinite(m)) usable = false;
             }
 
@@ -188,29 +216,37 @@ internal sealed class SparseRefactor
 
             rowOfStep[k] = p;
             int uFrom = uStart[k], uTo = uStart[k + 1];
-            for (int e = lStart[k]; e < lStart[k + 1]; e++)
+            for (int e = lFrom; e < lTo; e++)
             {
-                int rowBase = lRow[e] * n;
-                double factor = a[rowBase + k];
+                int rowBase = Unsafe.Add(ref lRowBase, e);
+                ref double multiplier = ref Unsafe.Add(ref entry, rowBase + k);
+                double factor = multiplier;
                 if (factor == 0) continue;
                 factor /= pivot;
-                a[rowBase + k] = factor;
+                multiplier = factor;
                 for (int u = uFrom; u < uTo; u++)
                 {
-                    int c = uColumn[u];
-                    a[rowBase + c] -= factor * a[pivotBase + c];
+                    int c = Unsafe.Add(ref uColumn, u);
+                    Unsafe.Add(ref entry, rowBase + c) -= factor * Unsafe.Add(ref entry, pivotBase + c);
                 }
             }
         }
 
-        // A value that overflowed on the way would have met zeros the dense LU multiplies and this one skips.
-        var factors = CollectionsMarshal.AsSpan(factorPositions);
-        for (int t = 0; t < factors.Length; t++)
+        // A value that overflowed on the way would have met zeros the dense LU multiplies and this one skips. Only the
+        // factors right of the diagonal are looked at here: every multiplier and pivot passed the finite test of its step
+        // (a multiplier is at most 1 in size, as no candidate exceeds its pivot), and none changes after it.
+        var uStartSolve = solveUpperStart;
+        var upper = CollectionsMarshal.AsSpan(solveUpper);
+        for (int r = 0; r < n; r++)
         {
-            if (!double.IsFinite(a[factors[t]]))
+            int rowBase = r * n;
+            for (int e = uStartSolve[r]; e < uStartSolve[r + 1]; e++)
             {
-                Restore(a);
-                return false;
+                if (!double.IsFinite(Unsafe.Add(ref entry, rowBase + upper[e])))
+                {
+                    Restore(a);
+                    return false;
+                }
             }
         }
 
@@ -241,6 +277,12 @@ internal sealed class SparseRefactor
         for (int i = 0; i < length; i++) (array[first + i], array[second + i]) = (array[second + i], array[first + i]);
     }
 
+    /// <summary>The storage, the vector and the step list a replay or its solve indexes without a check per entry.</summary>
+    private void CheckLengths(double[] a, double[] vector, int[] rowOfStep)
+    {
+        if (a.Length < n * n || vector.Length < n || rowOfStep.Length < n) throw new ArgumentException("the system's arrays are smaller than its order");
+    }
+
     private void Restore(double[] a)
     {
         Array.Clear(a, 0, n * n);
@@ -258,11 +300,11 @@ internal sealed class SparseRefactor
         var lStart = lowerStart;
         var uStart = upperStart;
         var sStart = swapStart;
-        var lRow = lowerRow;
+        var lRowBase = lowerRowBase;
         var lStrict = lowerStrict;
         var uColumn = upperColumn;
         var sColumn = swapColumn;
-        lRow.Clear();
+        lRowBase.Clear();
         lStrict.Clear();
         uColumn.Clear();
         sColumn.Clear();
@@ -281,7 +323,7 @@ internal sealed class SparseRefactor
                 Swap(structure, k * size, p * size, size);
             }
 
-            lStart[k] = lRow.Count;
+            lStart[k] = lRowBase.Count;
             uStart[k] = uColumn.Count;
             for (int c = k + 1; c < size; c++)
             {
@@ -295,13 +337,13 @@ internal sealed class SparseRefactor
                 // Where the row stood when the dense LU searched the column (before the interchange): one met before the
                 // chosen row must be strictly smaller for the dense LU to pass it by.
                 int before = r == p ? k : r;
-                lRow.Add(r);
+                lRowBase.Add(r * size);
                 lStrict.Add(before < p);
                 for (int u = uStart[k]; u < uColumn.Count; u++) structure[(r * size) + uColumn[u]] = true;
             }
         }
 
-        lStart[size] = lRow.Count;
+        lStart[size] = lRowBase.Count;
         uStart[size] = uColumn.Count;
         sStart[size] = sColumn.Count;
         var at = positions;
