@@ -16,7 +16,10 @@ public sealed class PageReuse
     private readonly string stateFile;
     private readonly IReadOnlyDictionary<string, string> keys;
     private readonly Dictionary<string, StoredPage> stored;
-    private readonly Dictionary<string, StoredPage> next = new(StringComparer.Ordinal);
+    // What this run keeps and renders, by design id; written in the ids' order, whatever order the designs were looked at
+    // in (the pages of many designs are vouched for side by side).
+    private readonly SortedDictionary<string, StoredPage> next = new(StringComparer.Ordinal);
+    private readonly Lock gate = new();
 
     /// <summary>Page keys per design id, and the file (outside the pages folder) where what was written under them is kept.</summary>
     public PageReuse(string stateFile, IReadOnlyDictionary<string, string> keys)
@@ -55,7 +58,11 @@ public sealed class PageReuse
             stamps[relative] = stamp;
         }
 
-        next[designId] = page with { Stamps = stamps };
+        lock (gate)
+        {
+            next[designId] = page with { Stamps = stamps };
+        }
+
         return true;
     }
 
@@ -64,7 +71,11 @@ public sealed class PageReuse
     {
         if (keys.TryGetValue(designId, out var key))
         {
-            next[designId] = new StoredPage(key, contents.ToDictionary(c => c.Key, c => Hash(c.Value), StringComparer.Ordinal));
+            var page = new StoredPage(key, contents.ToDictionary(c => c.Key, c => Hash(c.Value), StringComparer.Ordinal));
+            lock (gate)
+            {
+                next[designId] = page;
+            }
         }
     }
 
@@ -90,7 +101,7 @@ public sealed class PageReuse
 
             Directory.CreateDirectory(Path.GetDirectoryName(Path.GetFullPath(stateFile))!);
             var temporary = stateFile + "." + Guid.NewGuid().ToString("N") + ".partial";
-            File.WriteAllBytes(temporary, JsonSerializer.SerializeToUtf8Bytes(next, PageReuseJson.Default.DictionaryStringStoredPage));
+            File.WriteAllBytes(temporary, JsonSerializer.SerializeToUtf8Bytes(next, PageReuseJson.Default.SortedDictionaryStringStoredPage));
             File.Move(temporary, stateFile, overwrite: true);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
@@ -136,4 +147,5 @@ public sealed class PageReuse
 
 /// <summary>The page state's JSON, generated at compile time: the build's process reads it on every build, cold.</summary>
 [JsonSerializable(typeof(Dictionary<string, PageReuse.StoredPage>))]
+[JsonSerializable(typeof(SortedDictionary<string, PageReuse.StoredPage>))]
 internal sealed partial class PageReuseJson : JsonSerializerContext;
