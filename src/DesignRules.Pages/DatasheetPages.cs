@@ -37,9 +37,10 @@ public static class DatasheetPages
             return new PageResult([], [], diagnostics);
         }
 
-        var output = new OutputFolder(options.OutputFolder);
+        var output = new OutputFolder(options.OutputFolder) { MaxParallel = options.MaxParallelDesigns ?? -1 };
+        var parallel = new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 };
         var pages = new List<(DesignSummary Summary, string Page)>();
-        var designs = new List<(DesignSummary Summary, string Name, string Page, List<string> Files, bool Keep)>();
+        var designs = new List<(DesignSummary Summary, string Name, string Page, List<string> Files)>();
         foreach (var summary in report.Designs.OrderBy(d => d.Design.Id.Value, StringComparer.Ordinal))
         {
             var name = OutputFolder.SafeName(summary.Design.Id.Value);
@@ -59,28 +60,75 @@ public static class DatasheetPages
                 }
             }
 
-            // A design whose page depends on nothing that changed keeps its page and plots as they are: no rendering.
-            designs.Add((summary, name, page, files, options.Reuse?.CanKeep(summary.Design.Id.Value, files, output) == true));
+            designs.Add((summary, name, page, files));
         }
 
-        // Each design's page and plots are rendered on their own (a full check of a large repository renders hundreds, and
-        // one at a time they would keep a second core idle); they are written below in the designs' order, so the folder,
-        // the manifest and the diagnostics come out the same whatever order the renderings finished in.
-        var rendered = new (Dictionary<string, string>? Contents, List<Diagnostic> Diagnostics)[designs.Count];
-        // One design per core at a time, as the check does (DesignCheck.Run), so no core ends holding a range of several.
-        var indices = Partitioner.Create(Enumerable.Range(0, designs.Count), EnumerablePartitionerOptions.NoBuffering);
-        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
+        // A design whose page depends on nothing that changed keeps its page and plots as they are: no rendering. Whether
+        // it may is one status call per file (a large repository's pages are thousands of files), so the designs are
+        // looked at side by side; each answer is its own design's, and they are used below in the designs' order.
+        var keep = new bool[designs.Count];
+        if (options.Reuse is { } reuse && designs.Count > 0)
         {
-            if (!designs[i].Keep)
+            Parallel.ForEach(Partitioner.Create(0, designs.Count, 16), parallel, range =>
             {
-                rendered[i] = RenderDesign(report, designs[i].Summary, designs[i].Name, designs[i].Page, templates, options);
+                for (var i = range.Item1; i < range.Item2; i++)
+                {
+                    keep[i] = reuse.CanKeep(designs[i].Summary.Design.Id.Value, designs[i].Files, output);
+                }
+            });
+        }
+
+        // Each design's page and each of its plots is rendered on its own (a full check of a large repository renders
+        // hundreds of pages, and a one-design change renders one page with a dozen plots: one at a time they would keep a
+        // second core idle), and so is the index, which is rendered meanwhile on the assumption that every page renders (it
+        // lists each design with a page; when a page's template fails, it is rendered again below without that page).
+        // Results are gathered in the designs' and plots' order, so the folder, the manifest and the diagnostics come out
+        // the same whatever order the renderings finished in.
+        var jobs = new List<(int Design, string File, Func<string> Render)>();
+        var pageTexts = new (string? Text, List<Diagnostic> Diagnostics)[designs.Count];
+        for (var i = 0; i < designs.Count; i++)
+        {
+            if (!keep[i])
+            {
+                var at = i;
+                jobs.Add((i, designs[i].Page, () =>
+                {
+                    var design = designs[at];
+                    pageTexts[at] = RenderPage(report, design.Summary, design.Name, templates, options);
+                    return string.Empty;
+                }));
+                jobs.AddRange(PlotJobs(designs[i].Summary, designs[i].Name).Select(p => (i, p.File, p.Render)));
             }
-        });
+        }
+
+        var assumed = designs.Select(d => (d.Summary, d.Page)).ToList();
+        var indexDiagnostics = new List<Diagnostic>();
+        string? index = null;
+        jobs.Add((-1, "index.md", () =>
+        {
+            index = Render(templates, "index", "index", PageModel.Index(report, assumed), indexDiagnostics);
+            return string.Empty;
+        }));
+        var texts = new string[jobs.Count];
+        // One job per core at a time, as the check takes one design at a time (DesignCheck.Run), so no core ends holding a
+        // range of several while the other idles.
+        var indices = Partitioner.Create(Enumerable.Range(0, jobs.Count), EnumerablePartitionerOptions.NoBuffering);
+        Parallel.ForEach(indices, parallel, j => texts[j] = jobs[j].Render());
+
+        var plotsOf = new Dictionary<int, List<(string File, string Text)>>();
+        for (var j = 0; j < jobs.Count; j++)
+        {
+            var (design, file, _) = jobs[j];
+            if (design >= 0 && file != designs[design].Page)
+            {
+                (plotsOf.TryGetValue(design, out var list) ? list : plotsOf[design] = []).Add((file, texts[j]));
+            }
+        }
 
         for (var i = 0; i < designs.Count; i++)
         {
-            var (summary, _, page, files, keep) = designs[i];
-            if (keep)
+            var (summary, _, page, files) = designs[i];
+            if (keep[i])
             {
                 foreach (var file in files)
                 {
@@ -91,10 +139,17 @@ public static class DatasheetPages
                 continue;
             }
 
-            diagnostics.AddRange(rendered[i].Diagnostics);
-            if (rendered[i].Contents is not { } contents)
+            diagnostics.AddRange(pageTexts[i].Diagnostics);
+            if (pageTexts[i].Text is not { } text)
             {
                 continue;
+            }
+
+            // The page first, then its plots in the order the stages list them: the order they were always gathered in.
+            var contents = new Dictionary<string, string>(StringComparer.Ordinal) { [page] = text };
+            foreach (var (file, plot) in plotsOf.GetValueOrDefault(i) ?? [])
+            {
+                contents[file] = plot;
             }
 
             foreach (var (file, content) in contents)
@@ -106,7 +161,14 @@ public static class DatasheetPages
             pages.Add((summary, page));
         }
 
-        var index = Render(templates, "index", "index", PageModel.Index(report, pages), diagnostics);
+        if (pages.Count != assumed.Count)
+        {
+            // A page's template failed: the index lists only the pages that were written.
+            indexDiagnostics.Clear();
+            index = Render(templates, "index", "index", PageModel.Index(report, pages), indexDiagnostics);
+        }
+
+        diagnostics.AddRange(indexDiagnostics);
         if (index is not null)
         {
             output.Write("index.md", index);
@@ -146,55 +208,55 @@ public static class DatasheetPages
         return new PageResult([], [], diagnostics);
     }
 
-    /// <summary>One design's page and plot files, by name; null contents when its template failed (said in the diagnostics).</summary>
-    private static (Dictionary<string, string>? Contents, List<Diagnostic> Diagnostics) RenderDesign(
-        CheckReport report, DesignSummary summary, string name, string page, TemplateSet templates, PageOptions options)
+    /// <summary>One design's page; null text when its template failed (said in the diagnostics).</summary>
+    private static (string? Text, List<Diagnostic> Diagnostics) RenderPage(
+        CheckReport report, DesignSummary summary, string name, TemplateSet templates, PageOptions options)
     {
         var diagnostics = new List<Diagnostic>();
         string? PlotPath(string stage, string kind) => $"plots/{name}/{OutputFolder.SafeName(stage)}-{kind}.svg";
         var model = PageModel.Design(report, summary, options.RepositoryRoot, PlotPath, id => HelpLink(id, options));
-        var text = Render(templates, "design", "design", model, diagnostics);
-        if (text is null)
-        {
-            return (null, diagnostics);
-        }
+        return (Render(templates, "design", "design", model, diagnostics), diagnostics);
+    }
 
-        var contents = new Dictionary<string, string>(StringComparer.Ordinal) { [page] = text };
+    /// <summary>One design's plot files, by name, each with the renderer that makes it, in the order the page's files were always gathered in.</summary>
+    private static List<(string File, Func<string> Render)> PlotJobs(DesignSummary summary, string name)
+    {
+        var jobs = new List<(string File, Func<string> Render)>();
         foreach (var plots in summary.Plots)
         {
             var stage = OutputFolder.SafeName(plots.StageId);
-            if (plots.Transient is not null)
+            if (plots.Transient is { } transient)
             {
-                contents[$"plots/{name}/{stage}-transient.svg"] = PlotRenderer.Transient(plots.StageId, plots.Transient);
+                jobs.Add(($"plots/{name}/{stage}-transient.svg", () => PlotRenderer.Transient(plots.StageId, transient)));
             }
 
-            if (plots.Bode is not null)
+            if (plots.Bode is { } bode)
             {
-                contents[$"plots/{name}/{stage}-response.svg"] = PlotRenderer.Response(plots.StageId, plots.Bode);
+                jobs.Add(($"plots/{name}/{stage}-response.svg", () => PlotRenderer.Response(plots.StageId, bode)));
             }
 
             foreach (var loop in plots.LoopGains)
             {
-                contents[LoopGainFile(name, stage, loop)] = StabilityPlotRenderer.LoopGain(plots.StageId, loop);
+                jobs.Add((LoopGainFile(name, stage, loop), () => StabilityPlotRenderer.LoopGain(plots.StageId, loop)));
             }
 
-            if (plots.Step is not null)
+            if (plots.Step is { } step)
             {
-                contents[StepFile(name, stage)] = StabilityPlotRenderer.Step(plots.StageId, plots.Step);
+                jobs.Add((StepFile(name, stage), () => StabilityPlotRenderer.Step(plots.StageId, step)));
             }
 
-            if (plots.Distribution is not null)
+            if (plots.Distribution is { } distribution)
             {
-                contents[$"plots/{name}/{stage}-monte-carlo.svg"] = PlotRenderer.Histogram(plots.StageId, plots.Distribution);
+                jobs.Add(($"plots/{name}/{stage}-monte-carlo.svg", () => PlotRenderer.Histogram(plots.StageId, distribution)));
             }
 
-            if (plots.Noise is not null)
+            if (plots.Noise is { } noise)
             {
-                contents[$"plots/{name}/{stage}-noise.svg"] = PlotRenderer.NoiseDensity(plots.StageId, plots.Noise);
+                jobs.Add(($"plots/{name}/{stage}-noise.svg", () => PlotRenderer.NoiseDensity(plots.StageId, noise)));
             }
         }
 
-        return (contents, diagnostics);
+        return jobs;
     }
 
     /// <summary>A rule's help link as a page in the pages folder's root writes it.</summary>

@@ -1,5 +1,7 @@
+using System.Collections.Concurrent;
 using System.Diagnostics;
 using System.Globalization;
+using System.IO.Enumeration;
 using System.Text;
 using DesignRules.Diagnostics;
 
@@ -24,18 +26,27 @@ internal sealed class OutputFolder
     private readonly TimeSpan lockWait;
     private readonly SortedDictionary<string, string> pending = new(StringComparer.Ordinal);
     private readonly SortedSet<string> kept = new(StringComparer.Ordinal);
-    private HashSet<string>? listedBefore;
+    private readonly Lazy<HashSet<string>> listedBefore;
 
     // Folders below the root already seen to be real folders, not links: a design's plots share one folder, and checking
     // it again for each of its files cost a directory lookup per file. Emptied when the commit starts, so that the
-    // commit checks every folder once more under the lock.
-    private readonly HashSet<string> linkFreeFolders = new(StringComparer.Ordinal);
+    // commit checks every folder once more under the lock. Concurrent: the pages of many designs are vouched for at once.
+    private readonly ConcurrentDictionary<string, bool> linkFreeFolders = new(StringComparer.Ordinal);
+
+    // The stamps of the plain files of each folder looked at before the commit (see StampsIn); never used by the commit.
+    private readonly ConcurrentDictionary<string, Lazy<Dictionary<string, string>>> folderStamps = new(StringComparer.Ordinal);
 
     public OutputFolder(string folder, TimeSpan? lockWait = null)
     {
         root = Path.TrimEndingDirectorySeparator(Path.GetFullPath(folder));
         this.lockWait = lockWait ?? TimeSpan.FromSeconds(60);
+        // Read once, on first need, by whichever thread asks first (the files of many designs are looked at side by side);
+        // a manifest that cannot be read throws to every caller, as it did to the one caller before.
+        listedBefore = new(() => Directory.Exists(root) ? ReadManifest() : [], LazyThreadSafetyMode.PublicationOnly);
     }
+
+    /// <summary>How many folders the commit looks at side by side (-1: one per core), as the run's designs are.</summary>
+    public int MaxParallel { get; init; } = -1;
 
     /// <summary>The files written, relative to the folder, once <see cref="Commit"/> has run.</summary>
     public IReadOnlyCollection<string> Written => pending.Keys.Concat(kept).Order(StringComparer.Ordinal).ToList();
@@ -57,9 +68,8 @@ internal sealed class OutputFolder
     {
         try
         {
-            listedBefore ??= Directory.Exists(root) ? ReadManifest() : [];
             var full = Inside(relative);
-            if (full is null || !listedBefore.Contains(relative) || LinkOnTheWay(relative) is not null || !File.Exists(full))
+            if (full is null || !listedBefore.Value.Contains(relative) || LinkOnTheWay(relative) is not null || !File.Exists(full))
             {
                 return null;
             }
@@ -81,17 +91,54 @@ internal sealed class OutputFolder
     {
         try
         {
-            listedBefore ??= Directory.Exists(root) ? ReadManifest() : [];
             var full = Inside(relative);
-            // The folders on the way are checked once per run (a design's plots share one); the file itself by one look
-            // at its own entry, which also says whether it is a link (never followed) and gives its size and time.
-            return full is null || !listedBefore.Contains(relative) || LinkOnTheWay(relative, foldersOnly: true) is not null ? null : StampOf(full);
+            // The folders on the way are checked once per run (a design's plots share one); the file itself by its entry
+            // in its folder's listing, read once per folder (see StampsIn).
+            return full is null || !listedBefore.Value.Contains(relative) || LinkOnTheWay(relative, foldersOnly: true) is not null
+                ? null
+                : StampsIn(Path.GetDirectoryName(full)!).GetValueOrDefault(Path.GetFileName(full));
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
             return null;
         }
     }
+
+    /// <summary>
+    /// The stamps of the plain files in <paramref name="folder"/>, by name, read once per run and folder (a design's plots
+    /// share one; every page shares the root). The listing's own entry types leave out folders and symbolic links without
+    /// a status call, and each file's size and time come from one status call on its entry (lstat on Unix: never through a
+    /// link), as <see cref="StampOf"/> gives them, without the file object, its full path and the attribute checks (which
+    /// cost a further system call per file) of a lookup per file: a large repository's pages are thousands of files, and
+    /// a warm server looks at every one on every run. A folder that cannot be listed has no stamps: its files are rendered again.
+    /// </summary>
+    private Dictionary<string, string> StampsIn(string folder) => folderStamps.GetOrAdd(folder, f => new Lazy<Dictionary<string, string>>(() =>
+    {
+        var stamps = new Dictionary<string, string>(StringComparer.Ordinal);
+        try
+        {
+            var options = new EnumerationOptions
+            {
+                AttributesToSkip = FileAttributes.Directory | FileAttributes.ReparsePoint,
+                IgnoreInaccessible = false,
+                MatchType = MatchType.Simple,
+                RecurseSubdirectories = false,
+            };
+            var entries = new FileSystemEnumerable<(string Name, string Stamp)>(f,
+                (ref FileSystemEntry entry) => (entry.FileName.ToString(),
+                    string.Create(CultureInfo.InvariantCulture, $"{entry.Length}:{entry.LastWriteTimeUtc.UtcDateTime.Ticks}")), options);
+            foreach (var (name, stamp) in entries)
+            {
+                stamps[name] = stamp;
+            }
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            stamps.Clear();
+        }
+
+        return stamps;
+    })).Value;
 
     /// <summary>The stamp of a file this run has just written (for the next run's <see cref="StampOfListedFile"/>); null when it is gone.</summary>
     public string? StampOfWrittenFile(string relative)
@@ -123,7 +170,7 @@ internal sealed class OutputFolder
     /// True when <paramref name="full"/> is, by its folder's listing (read once per folder into <paramref name="folders"/>),
     /// an entry that is neither a folder nor a symbolic link: what <see cref="PlainFile"/> says of its own status.
     /// </summary>
-    private static bool Listed(Dictionary<string, HashSet<string>> folders, string full)
+    private static bool Listed(ConcurrentDictionary<string, HashSet<string>> folders, string full)
     {
         var folder = Path.GetDirectoryName(full)!;
         if (!folders.TryGetValue(folder, out var names))
@@ -150,7 +197,8 @@ internal sealed class OutputFolder
                 // A folder that went away or cannot be listed keeps none of its files.
             }
 
-            folders[folder] = names;
+            // Two threads listing the same folder keep one listing; each is complete, and neither is changed after.
+            names = folders.GetOrAdd(folder, names);
         }
 
         return names.Contains(Path.GetFileName(full));
@@ -232,7 +280,19 @@ internal sealed class OutputFolder
         // A kept file that vanished since it was vouched for is not listed again (the next run renders it). Whether each is
         // still a plain file is read from its folder's listing, one per folder (a design's plots share one), rather than
         // from a status call per file: the listing tells a link and a folder from a file without another look.
-        var plainFiles = new Dictionary<string, HashSet<string>>(StringComparer.Ordinal);
+        var plainFiles = new ConcurrentDictionary<string, HashSet<string>>(StringComparer.Ordinal);
+        // The folders of the kept files, each looked at once (the folders on its way, then its listing) by a file of it,
+        // side by side: a large repository keeps hundreds of plot folders, and one at a time they leave a core idle. The
+        // test below then finds every answer already there.
+        var firstOfEachFolder = kept.GroupBy(k => k.LastIndexOf('/') is var slash and >= 0 ? k[..slash] : string.Empty, StringComparer.Ordinal)
+            .Select(g => g.First()).ToList();
+        Parallel.ForEach(firstOfEachFolder, new ParallelOptions { MaxDegreeOfParallelism = MaxParallel }, k =>
+        {
+            if (LinkOnTheWay(k, foldersOnly: true) is null && Inside(k) is { } full)
+            {
+                Listed(plainFiles, full);
+            }
+        });
         kept.RemoveWhere(k => !listed.Contains(k) || LinkOnTheWay(k, foldersOnly: true) is not null || Inside(k) is not { } full || !Listed(plainFiles, full));
         foreach (var relative in listed.Where(l => !pending.ContainsKey(l) && !kept.Contains(l)))
         {
@@ -278,25 +338,30 @@ internal sealed class OutputFolder
         {
             path = Path.Combine(path, parts[i]);
             var folder = i < parts.Length - 1;
-            if (folder && linkFreeFolders.Contains(path))
+            if (folder && linkFreeFolders.ContainsKey(path))
             {
                 continue;
             }
 
-            FileSystemInfo info = Directory.Exists(path) ? new DirectoryInfo(path) : new FileInfo(path);
-            if (info.LinkTarget is not null)
-            {
-                return path;
-            }
-
-            if (!info.Exists)
+            // One status call on the entry itself (lstat on Unix, never through a link) says whether anything is there,
+            // whether it is a folder and whether it is a reparse point; only a reparse point is asked for its link target
+            // (every symbolic link and junction is one, and LinkTarget is null for anything else), so a plain folder costs
+            // one call instead of three (exists, link target, exists again).
+            var info = new FileInfo(path);
+            var attributes = info.Attributes;
+            if ((int)attributes == -1)
             {
                 return null;
             }
 
-            if (folder && info is DirectoryInfo)
+            if ((attributes & FileAttributes.ReparsePoint) != 0 && info.LinkTarget is not null)
             {
-                linkFreeFolders.Add(path);
+                return path;
+            }
+
+            if (folder && (attributes & FileAttributes.Directory) != 0)
+            {
+                linkFreeFolders.TryAdd(path, true);
             }
         }
 

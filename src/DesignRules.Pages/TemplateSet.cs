@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using System.Globalization;
 using DesignRules.Diagnostics;
 using SourceSpan = Scriban.Parsing.SourceSpan;
@@ -43,7 +44,7 @@ internal sealed class TemplateSet : ITemplateLoader
                 path = $"templates/{file}";
             }
 
-            var template = Template.Parse(text, path);
+            var template = Parsed(text, path);
             if (template.HasErrors)
             {
                 foreach (var message in template.Messages.Where(m => m.Type == ParserMessageType.Error))
@@ -59,6 +60,39 @@ internal sealed class TemplateSet : ITemplateLoader
 
         return set;
     }
+
+    /// <summary>How many parsed templates a process keeps (the built-in three and a few repositories' own).</summary>
+    internal const int ParsedCapacity = 64;
+
+    // Templates this process parsed, by their path and exact text (compared in full): a warm server renders pages on every
+    // run from the same few templates, and parsing them was a share of every run. A parsed template is never changed by
+    // rendering (each rendering has its own context; the designs of one run already share one), so text that is exactly
+    // the same gets the template parsed from it then. A template with errors is parsed again, for its diagnostics.
+    private static readonly ConcurrentDictionary<(string Path, string Text), Template> ParsedTemplates = new();
+
+    private static Template Parsed(string text, string path)
+    {
+        if (ParsedTemplates.TryGetValue((path, text), out var known))
+        {
+            return known;
+        }
+
+        var template = Template.Parse(text, path);
+        if (!template.HasErrors)
+        {
+            if (ParsedTemplates.Count >= ParsedCapacity)
+            {
+                ParsedTemplates.Clear();
+            }
+
+            ParsedTemplates[(path, text)] = template;
+        }
+
+        return template;
+    }
+
+    /// <summary>How many parsed templates are kept now (tests).</summary>
+    internal static int ParsedCount => ParsedTemplates.Count;
 
     public bool IsComplete => templates.Count == Names.Length;
 

@@ -31,7 +31,7 @@ public static class DesignRun
     {
         var clock = new RunClock();
         // Disposed at the end: a design claimed but never kept (its check failed) is released for waiting runs.
-        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride) { HeadStart = request.HeadStart };
+        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride, request.MaxParallelDesigns) { HeadStart = request.HeadStart };
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
             Search = request.Search,

@@ -196,6 +196,25 @@ public sealed class ResultCacheTests : IDisposable
     }
 
     [Fact]
+    public void A_kept_plot_rewritten_with_other_bytes_of_the_same_size_is_rendered_again()
+    {
+        repo.Run();
+        // Its size is the one recorded, so only the time in its folder listing's stamp tells it apart, and then its content.
+        var plot = Directory.GetFiles(Path.Combine(repo.Pages, "plots", "door-impact-peak-hold"), "*.svg").Order(StringComparer.Ordinal).First();
+        var bytes = File.ReadAllBytes(plot);
+        var written = File.GetLastWriteTimeUtc(plot);
+        File.WriteAllBytes(plot, Flip(File.ReadAllBytes(plot), bytes.Length / 2));
+        File.SetLastWriteTimeUtc(plot, written.AddSeconds(5));
+
+        var (outcome, evaluated) = repo.Run();
+        Assert.Empty(evaluated);
+        var relative = Path.GetRelativePath(repo.Pages, plot).Replace('\\', '/');
+        Assert.DoesNotContain(relative, outcome.Pages!.Kept);
+        Assert.DoesNotContain("door-impact-peak-hold.md", outcome.Pages.Kept);
+        Assert.Equal(bytes, File.ReadAllBytes(plot));
+    }
+
+    [Fact]
     public void A_kept_plot_replaced_by_a_link_to_the_same_bytes_is_not_kept_and_never_written_through()
     {
         repo.Run();

@@ -56,44 +56,56 @@ internal static class SourceFile
                 string.Create(CultureInfo.InvariantCulture, $"{limits.MaxFileBytes} bytes"));
         }
 
-        var bytes = ReadAtMost(target.FullName, limits.MaxFileBytes, shown);
-        return Decode(path, bytes);
+        var (bytes, length) = ReadAtMost(target.FullName, limits.MaxFileBytes, (int)target.Length, shown);
+        return Decode(path, bytes.AsSpan(0, length));
     }
 
     private static bool IsDeviceFolder(string full) =>
         OperatingSystem.IsLinux() && (full.StartsWith("/dev/", StringComparison.Ordinal)
             || full.StartsWith("/proc/", StringComparison.Ordinal) || full.StartsWith("/sys/", StringComparison.Ordinal));
 
-    private static byte[] ReadAtMost(string full, int maxBytes, string shown)
+    /// <summary>The file's bytes: the first <c>Length</c> of <c>Bytes</c>.</summary>
+    private static (byte[] Bytes, int Length) ReadAtMost(string full, int maxBytes, int statedBytes, string shown)
     {
         using var stream = new FileStream(full, FileMode.Open, FileAccess.Read, FileShare.Read, bufferSize: 1, FileOptions.SequentialScan);
-        var buffer = new byte[Math.Min(maxBytes + 1, 64 * 1024)];
-        using var content = new MemoryStream();
+        // Read straight into an array of the stated size and one byte more (a warm server reads every design of a large
+        // repository on every run; a 64 KB buffer and a growing copy per file were most of what reading allocated). The
+        // spare byte tells a file that grew since its size was read; it is then read on in steps, counted against the bound.
+        var buffer = new byte[Math.Min(maxBytes, statedBytes) + 1];
+        var length = 0;
         int read;
-        while ((read = stream.Read(buffer, 0, buffer.Length)) > 0)
+        while ((read = stream.Read(buffer, length, buffer.Length - length)) > 0)
         {
-            content.Write(buffer, 0, read);
-            if (content.Length > maxBytes)
+            length += read;
+            if (length > maxBytes)
             {
                 // The size on disk said otherwise: the file grew, or is not what it claims. Stop at the bound either way.
                 throw new RefusedFileException(DesignFileDiagnostics.SizeLimit, null,
                     $"The file {shown} (more than its stated size)",
                     string.Create(CultureInfo.InvariantCulture, $"{maxBytes} bytes"));
             }
+
+            if (length == buffer.Length)
+            {
+                Array.Resize(ref buffer, (int)Math.Min((long)maxBytes + 1, buffer.Length + Math.Max(buffer.Length, 64L * 1024)));
+            }
         }
 
-        return content.ToArray();
+        return (buffer, length);
     }
 
     /// <summary>Decodes file bytes strictly: UTF-8 (an optional byte-order mark skipped) or UTF-16 with its mark.</summary>
-    public static string Decode(string path, byte[] bytes)
+    public static string Decode(string path, byte[] bytes) => Decode(path, bytes.AsSpan());
+
+    /// <summary>Decodes file bytes strictly: UTF-8 (an optional byte-order mark skipped) or UTF-16 with its mark.</summary>
+    public static string Decode(string path, ReadOnlySpan<byte> bytes)
     {
         if (bytes.Length >= 2 && ((bytes[0] == 0xFF && bytes[1] == 0xFE) || (bytes[0] == 0xFE && bytes[1] == 0xFF)))
         {
             var encoding = bytes[0] == 0xFF ? new UnicodeEncoding(false, true, true) : new UnicodeEncoding(true, true, true);
             try
             {
-                return encoding.GetString(bytes, 2, bytes.Length - 2);
+                return encoding.GetString(bytes[2..]);
             }
             catch (DecoderFallbackException ex)
             {
@@ -103,7 +115,7 @@ internal static class SourceFile
         }
 
         var start = bytes.Length >= 3 && bytes[0] == 0xEF && bytes[1] == 0xBB && bytes[2] == 0xBF ? 3 : 0;
-        var span = bytes.AsSpan(start);
+        var span = bytes[start..];
         var chars = new char[span.Length];
         var status = Utf8.ToUtf16(span, chars, out var bytesRead, out var written, replaceInvalidSequences: false);
         if (status == OperationStatus.Done)
