@@ -49,9 +49,10 @@ internal static class BuildCheck
 
             var noWarn = new CodeList(call.NoWarn);
             var notAsErrors = new CodeList(call.WarningsNotAsErrors);
+            var helpBase = HelpBase(call);
             foreach (var finding in StampedFindings.Read(FindingsFile(stamp)))
             {
-                LogFinding(call, counting, finding, noWarn, notAsErrors);
+                LogFinding(call, counting, finding, noWarn, notAsErrors, helpBase);
             }
 
             counting.Write(new BuildLogEntry(BuildLogKind.Message,
@@ -157,9 +158,10 @@ internal static class BuildCheck
 
         var noWarn = new CodeList(call.NoWarn);
         var notAsErrors = new CodeList(call.WarningsNotAsErrors);
+        var helpBase = HelpBase(call);
         foreach (var finding in outcome.Report.Findings)
         {
-            LogFinding(call, log, finding, noWarn, notAsErrors);
+            LogFinding(call, log, finding, noWarn, notAsErrors, helpBase);
         }
 
         log.Write(new BuildLogEntry(BuildLogKind.Message, "DesignRules: " + outcome.Summary) { Importance = BuildLogImportance.High });
@@ -177,7 +179,7 @@ internal static class BuildCheck
         WriteStamp(call.StampFile, outcome.Summary, outcome.Report.Findings);
     }
 
-    private static void LogFinding(BuildCall call, CountingLog log, Finding f, CodeList noWarn, CodeList notAsErrors)
+    private static void LogFinding(BuildCall call, CountingLog log, Finding f, CodeList noWarn, CodeList notAsErrors, string? helpBase)
     {
         // A file name can hold a newline too; the log line shows it escaped, like the message.
         var s = f.Span with { File = DiagnosticText.Escape(f.Span.File) };
@@ -190,7 +192,7 @@ internal static class BuildCheck
             EndLine = call.EndPositions ? s.EndLine : 0,
             EndColumn = call.EndPositions ? s.EndColumn : 0,
         };
-        var help = HelpFor(call, f.RuleId);
+        var help = HelpLinks.For(f.RuleId, helpBase);
         if (f.IsWaived)
         {
             log.Write(entry with { Message = $"{f.Message} (waived: {f.Waiver})", Importance = BuildLogImportance.Low });
@@ -231,14 +233,17 @@ internal static class BuildCheck
     /// Where a diagnostic's help link points: the configured base; else the copy of the page in the pages folder (pages
     /// copy every help page they link to), a file of the repository rather than of a package cache; else the folder given.
     /// </summary>
-    private static string? HelpFor(BuildCall call, string ruleId)
-    {
-        var helpBase = !string.IsNullOrWhiteSpace(call.HelpUriBase) ? call.HelpUriBase
+    private static string? HelpFor(BuildCall call, string ruleId) => HelpLinks.For(ruleId, HelpBase(call));
+
+    /// <summary>
+    /// The base of every help link of one call, made once per call rather than once per finding: a folder's base is a full
+    /// path turned into a <c>file://</c> address, which would otherwise be made again for each of hundreds of findings.
+    /// </summary>
+    private static string? HelpBase(BuildCall call) =>
+        !string.IsNullOrWhiteSpace(call.HelpUriBase) ? call.HelpUriBase
             : !string.IsNullOrWhiteSpace(call.PagesFolder) ? HelpLinks.FolderUri(Path.Combine(Path.GetFullPath(call.PagesFolder), DatasheetPages.HelpFolder))
             : !string.IsNullOrWhiteSpace(call.HelpFolder) ? HelpLinks.FolderUri(call.HelpFolder)
             : null;
-        return HelpLinks.For(ruleId, helpBase);
-    }
 
     private static string FindingsFile(string stamp) => stamp + ".findings.json";
 
