@@ -127,7 +127,7 @@ internal static class BuildCheck
             return;
         }
 
-        WriteLoadedFiles(call.LoadedFilesFile, outcome.Report.LoadedFiles);
+        WriteLoadedFiles(call.LoadedFilesFile, outcome.Report.LoadedFiles, call.Files);
         foreach (var problem in outcome.Problems)
         {
             log.Write(new BuildLogEntry(BuildLogKind.Error, problem.ForBuild) { File = call.TaskProjectFile });
@@ -258,7 +258,13 @@ internal static class BuildCheck
         }
     }
 
-    private static void WriteLoadedFiles(string? loadedFilesFile, IReadOnlyList<string> loaded)
+    /// <summary>
+    /// Lists the loaded files that are not among the files the build handed over (<paramref name="given"/>: the design and
+    /// parts items, which are inputs of the check target in any case): the rule-set file and parts files named under
+    /// <c>libraries:</c> outside the items. Listing the given files again would only make every build read, item and
+    /// de-duplicate a second copy of the whole repository's file list (twice: the head start during restore, and the check).
+    /// </summary>
+    private static void WriteLoadedFiles(string? loadedFilesFile, IReadOnlyList<string> loaded, IReadOnlyCollection<string> given)
     {
         if (string.IsNullOrWhiteSpace(loadedFilesFile))
         {
@@ -266,7 +272,8 @@ internal static class BuildCheck
         }
 
         var full = Path.GetFullPath(loadedFilesFile);
-        var text = string.Concat(loaded.Select(f => f + "\n"));
+        var items = given.ToHashSet(StringComparer.Ordinal);
+        var text = string.Concat(loaded.Where(f => !items.Contains(f)).Select(f => f + "\n"));
         if (File.Exists(full) && File.ReadAllText(full) == text)
         {
             return;
