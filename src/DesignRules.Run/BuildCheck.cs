@@ -49,9 +49,10 @@ internal static class BuildCheck
 
             var noWarn = new CodeList(call.NoWarn);
             var notAsErrors = new CodeList(call.WarningsNotAsErrors);
+            var helpBase = HelpBase(call);
             foreach (var finding in StampedFindings.Read(FindingsFile(stamp)))
             {
-                LogFinding(call, counting, finding, noWarn, notAsErrors);
+                LogFinding(call, counting, finding, noWarn, notAsErrors, helpBase);
             }
 
             counting.Write(new BuildLogEntry(BuildLogKind.Message,
@@ -126,7 +127,7 @@ internal static class BuildCheck
             return;
         }
 
-        WriteLoadedFiles(call.LoadedFilesFile, outcome.Report.LoadedFiles);
+        WriteLoadedFiles(call.LoadedFilesFile, outcome.Report.LoadedFiles, call.Files);
         foreach (var problem in outcome.Problems)
         {
             log.Write(new BuildLogEntry(BuildLogKind.Error, problem.ForBuild) { File = call.TaskProjectFile });
@@ -157,9 +158,10 @@ internal static class BuildCheck
 
         var noWarn = new CodeList(call.NoWarn);
         var notAsErrors = new CodeList(call.WarningsNotAsErrors);
+        var helpBase = HelpBase(call);
         foreach (var finding in outcome.Report.Findings)
         {
-            LogFinding(call, log, finding, noWarn, notAsErrors);
+            LogFinding(call, log, finding, noWarn, notAsErrors, helpBase);
         }
 
         log.Write(new BuildLogEntry(BuildLogKind.Message, "DesignRules: " + outcome.Summary) { Importance = BuildLogImportance.High });
@@ -177,7 +179,7 @@ internal static class BuildCheck
         WriteStamp(call.StampFile, outcome.Summary, outcome.Report.Findings);
     }
 
-    private static void LogFinding(BuildCall call, CountingLog log, Finding f, CodeList noWarn, CodeList notAsErrors)
+    private static void LogFinding(BuildCall call, CountingLog log, Finding f, CodeList noWarn, CodeList notAsErrors, string? helpBase)
     {
         // A file name can hold a newline too; the log line shows it escaped, like the message.
         var s = f.Span with { File = DiagnosticText.Escape(f.Span.File) };
@@ -190,7 +192,7 @@ internal static class BuildCheck
             EndLine = call.EndPositions ? s.EndLine : 0,
             EndColumn = call.EndPositions ? s.EndColumn : 0,
         };
-        var help = HelpFor(call, f.RuleId);
+        var help = HelpLinks.For(f.RuleId, helpBase);
         if (f.IsWaived)
         {
             log.Write(entry with { Message = $"{f.Message} (waived: {f.Waiver})", Importance = BuildLogImportance.Low });
@@ -231,14 +233,17 @@ internal static class BuildCheck
     /// Where a diagnostic's help link points: the configured base; else the copy of the page in the pages folder (pages
     /// copy every help page they link to), a file of the repository rather than of a package cache; else the folder given.
     /// </summary>
-    private static string? HelpFor(BuildCall call, string ruleId)
-    {
-        var helpBase = !string.IsNullOrWhiteSpace(call.HelpUriBase) ? call.HelpUriBase
+    private static string? HelpFor(BuildCall call, string ruleId) => HelpLinks.For(ruleId, HelpBase(call));
+
+    /// <summary>
+    /// The base of every help link of one call, made once per call rather than once per finding: a folder's base is a full
+    /// path turned into a <c>file://</c> address, which would otherwise be made again for each of hundreds of findings.
+    /// </summary>
+    private static string? HelpBase(BuildCall call) =>
+        !string.IsNullOrWhiteSpace(call.HelpUriBase) ? call.HelpUriBase
             : !string.IsNullOrWhiteSpace(call.PagesFolder) ? HelpLinks.FolderUri(Path.Combine(Path.GetFullPath(call.PagesFolder), DatasheetPages.HelpFolder))
             : !string.IsNullOrWhiteSpace(call.HelpFolder) ? HelpLinks.FolderUri(call.HelpFolder)
             : null;
-        return HelpLinks.For(ruleId, helpBase);
-    }
 
     private static string FindingsFile(string stamp) => stamp + ".findings.json";
 
@@ -253,7 +258,13 @@ internal static class BuildCheck
         }
     }
 
-    private static void WriteLoadedFiles(string? loadedFilesFile, IReadOnlyList<string> loaded)
+    /// <summary>
+    /// Lists the loaded files that are not among the files the build handed over (<paramref name="given"/>: the design and
+    /// parts items, which are inputs of the check target in any case): the rule-set file and parts files named under
+    /// <c>libraries:</c> outside the items. Listing the given files again would only make every build read, item and
+    /// de-duplicate a second copy of the whole repository's file list (twice: the head start during restore, and the check).
+    /// </summary>
+    private static void WriteLoadedFiles(string? loadedFilesFile, IReadOnlyList<string> loaded, IReadOnlyCollection<string> given)
     {
         if (string.IsNullOrWhiteSpace(loadedFilesFile))
         {
@@ -261,7 +272,8 @@ internal static class BuildCheck
         }
 
         var full = Path.GetFullPath(loadedFilesFile);
-        var text = string.Concat(loaded.Select(f => f + "\n"));
+        var items = given.ToHashSet(StringComparer.Ordinal);
+        var text = string.Concat(loaded.Where(f => !items.Contains(f)).Select(f => f + "\n"));
         if (File.Exists(full) && File.ReadAllText(full) == text)
         {
             return;

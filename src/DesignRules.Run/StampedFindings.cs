@@ -21,10 +21,23 @@ internal static class StampedFindings
         File.Move(temporary, file, overwrite: true);
     }
 
-    public static IEnumerable<Finding> Read(string file) =>
-        (JsonSerializer.Deserialize(File.ReadAllText(file), StampedFindingsJson.Default.ListStored) ?? []).Select(s => new Finding(
+    /// <summary>
+    /// Reads the findings back, streaming the file through the serializer's pooled buffers: the whole file as one string
+    /// (half a megabyte for 750 findings, a megabyte of characters, and the reader's copies) was over a fifth of a replay's
+    /// time, most of it the build process touching fresh memory.
+    /// </summary>
+    public static IEnumerable<Finding> Read(string file)
+    {
+        List<Stored>? stored;
+        using (var stream = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.Read, bufferSize: 1, FileOptions.SequentialScan))
+        {
+            stored = JsonSerializer.Deserialize(stream, StampedFindingsJson.Default.ListStored);
+        }
+
+        return (stored ?? []).Select(s => new Finding(
             s.RuleId, s.Title, Enum.Parse<Severity>(s.Severity), s.Message,
             new SourceSpan(s.File, s.Line, s.Column, s.EndLine, s.EndColumn), s.HelpPage, null, null, s.Waiver, []));
+    }
 
     internal sealed record Stored(
         string RuleId, string Title, string Severity, string Message, string File, int Line, int Column, int EndLine,

@@ -146,6 +146,13 @@ public sealed class EndToEndTests(PackedFeed feed)
         AssertPassed(repo.Build());
         Assert.Contains(Skipped, repo.Build().Output, StringComparison.Ordinal);
 
+        // The loaded-files list names the loaded files that are not design or parts items (the items are inputs of the
+        // check anyway, and listing them again would make every build read and item the whole file list twice): the
+        // library outside the glob is in it, the design is not.
+        var loaded = File.ReadAllLines(Directory.GetFiles(Path.Combine(repo.Root, "obj"), "loaded.files", SearchOption.AllDirectories).Single());
+        Assert.Contains(Path.GetFullPath(vendor), loaded);
+        Assert.DoesNotContain(loaded, line => line.EndsWith("line-driver.yaml", StringComparison.Ordinal));
+
         // The library changes so that the part the design names is gone: the check must run again and fail, never
         // replay the last green.
         File.WriteAllText(vendor, SharedParts("renamed-amplifier"));
