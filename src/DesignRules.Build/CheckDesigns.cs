@@ -249,6 +249,21 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
     /// </summary>
     private void HandOver(BuildCall call, TaskStart started, CancellationToken cancellation)
     {
+        // The head start target runs at two steps of a restore (the entry project's first and each project's own) in two
+        // instances of the same project; the second hand-over of one restore would only make the server hash every file
+        // again while it evaluates.
+        if (BuildEngine is IBuildEngine4 engine)
+        {
+            var key = "DesignRules.HeadStart|" + ProjectFile + "|" + CacheFolder;
+            if (engine.GetRegisteredTaskObject(key, RegisteredTaskObjectLifetime.Build) is not null)
+            {
+                Log.LogMessage(MessageImportance.Low, "DesignRules: head start: handed over earlier in this restore.");
+                return;
+            }
+
+            engine.RegisterTaskObject(key, new object(), RegisteredTaskObjectLifetime.Build, allowEarlyCollection: false);
+        }
+
         var why = !Server ? "the evaluation server is off (DesignRulesServer=false)"
             : string.IsNullOrWhiteSpace(CacheFolder) ? "the results cache is off (DesignRulesCache=false)"
             : null;

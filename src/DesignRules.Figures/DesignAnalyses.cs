@@ -33,6 +33,15 @@ internal interface IAnalysisFailures
 /// </summary>
 internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarlo, IAnalysisFailures failures)
 {
+    /// <summary>
+    /// How many threads the runs inside this design may use at once (band ends, tolerance corners, worst-case and Monte
+    /// Carlo samples); -1 for one per core. Each run writes its own slot, so the results do not depend on it.
+    /// </summary>
+    public int MaxDegreeOfParallelism { get; init; } = -1;
+
+    /// <summary>The options every parallel loop of this design's analyses runs with.</summary>
+    internal ParallelOptions Parallelism => new() { MaxDegreeOfParallelism = MaxDegreeOfParallelism };
+
     private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
     private readonly Dictionary<BandEnd, ElaboratedChain> settledChains = [];
     private readonly Dictionary<BandEnd, SettledTransient> transients = [];
@@ -244,12 +253,12 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     /// </summary>
     public WorstCaseAnalysis WorstCase(StageProbe stage) =>
         worstCases.TryGetValue(stage.StageId, out var w) ? w
-        : worstCases[stage.StageId] = WorstCaseAnalysis.Run(Design, Chain(BandEnd.Top), stage, HoldDeviation(stage));
+        : worstCases[stage.StageId] = WorstCaseAnalysis.Run(Design, Chain(BandEnd.Top), stage, HoldDeviation(stage), MaxDegreeOfParallelism);
 
     /// <summary>The seeded Monte Carlo of a stage's DC transfer with the rule-set's settings.</summary>
     public MonteCarloYield MonteCarloOf(StageProbe stage) =>
         monteCarlos.TryGetValue(stage.StageId, out var m) ? m
-        : monteCarlos[stage.StageId] = MonteCarloYield.Run(WorstCase(stage), MonteCarlo);
+        : monteCarlos[stage.StageId] = MonteCarloYield.Run(WorstCase(stage), MonteCarlo, MaxDegreeOfParallelism);
 
     /// <summary>The band ends a time-domain rule should look at: both ends of a band, or the single frequency once.</summary>
     public IReadOnlyList<BandEnd> BandEnds =>
@@ -310,7 +319,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
         }
         else
         {
-            Parallel.For(0, ends.Count, i => results[i] = PeriodicSteadyState.Run(raws[i], SteadyStateLimits.Default));
+            Parallel.For(0, ends.Count, Parallelism, i => results[i] = PeriodicSteadyState.Run(raws[i], SteadyStateLimits.Default));
         }
 
         for (int i = 0; i < ends.Count; i++)

@@ -22,8 +22,11 @@ public sealed record CheckOptions(string? RuleSetFile, DateOnly Today)
     /// <summary>Told how many designs loaded, before any is evaluated (for hosts that show how far a long run has come).</summary>
     public Action<int>? DesignsLoaded { get; init; }
 
-    /// <summary>How many designs are evaluated at once; null for one per core (benchmarks compare 1 and 2 cores).</summary>
-    public int? MaxParallelDesigns { get; init; }
+    /// <summary>
+    /// How many threads the check uses at once, for designs side by side and for the runs inside each design; null for one
+    /// per core. The findings do not depend on it (every parallel run writes its own slot).
+    /// </summary>
+    public int? MaxDegreeOfParallelism { get; init; }
 }
 
 /// <summary>

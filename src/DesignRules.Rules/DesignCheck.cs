@@ -55,7 +55,7 @@ public static class DesignCheck
         // end one core could still hold several designs while the other idles; taking the next design only when the last
         // is done leaves at most one design's time at the end with a core idle.
         var indices = Partitioner.Create(Enumerable.Range(0, loaded.Designs.Count), EnumerablePartitionerOptions.NoBuffering);
-        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 }, i =>
+        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism ?? -1 }, i =>
         {
             var started = System.Diagnostics.Stopwatch.GetTimestamp();
             var design = loaded.Designs[i];
@@ -66,7 +66,7 @@ public static class DesignCheck
             }
             else
             {
-                perDesign[i] = Evaluate(design, ruleSet, options.Today);
+                perDesign[i] = Evaluate(design, ruleSet, options.Today, options.MaxDegreeOfParallelism ?? -1);
                 options.Results?.Keep(design, ruleSet, options.Today, new DesignResult(perDesign[i].Findings, perDesign[i].Summary));
             }
 
@@ -100,9 +100,9 @@ public static class DesignCheck
         };
     }
 
-    internal static (List<Finding> Findings, DesignSummary Summary) Evaluate(Design design, RuleSet ruleSet, DateOnly today)
+    internal static (List<Finding> Findings, DesignSummary Summary) Evaluate(Design design, RuleSet ruleSet, DateOnly today, int maxDegreeOfParallelism = -1)
     {
-        var evaluation = new DesignEvaluation(design, ruleSet);
+        var evaluation = new DesignEvaluation(design, ruleSet, maxDegreeOfParallelism);
         foreach (var rule in RuleRegistry.All)
         {
             rule.Evaluate(evaluation);

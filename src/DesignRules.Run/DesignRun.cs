@@ -31,12 +31,12 @@ public static class DesignRun
     {
         var clock = new RunClock();
         // Disposed at the end: a design claimed but never kept (its check failed) is released for waiting runs.
-        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride, request.MaxParallelDesigns) { HeadStart = request.HeadStart };
+        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride, request.MaxDegreeOfParallelism) { HeadStart = request.HeadStart };
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
             Search = request.Search,
             Results = cache,
-            MaxParallelDesigns = request.MaxParallelDesigns,
+            MaxDegreeOfParallelism = request.MaxDegreeOfParallelism,
         };
 
         clock.Lap(RunPhase.Inputs);
@@ -104,7 +104,7 @@ public static class DesignRun
             {
                 HelpUriBase = request.HelpUriBase,
                 Reuse = cache?.PageReuse(report, request),
-                MaxParallelDesigns = request.MaxParallelDesigns,
+                MaxParallelDesigns = request.MaxDegreeOfParallelism,
             });
             if (!pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
             {

@@ -35,6 +35,10 @@ public sealed partial class ServerPackageTests(PackedFeed feed)
             var served = repo.Build("-p:DesignRulesToday=2026-12-01", "-p:DesignRulesJsonFile=out/designrules.json", "-v:d");
             Assert.True(served.ExitCode == 0, served.ToString());
             Assert.Contains("DesignRules: head start: the evaluation server checks the designs", served.Output, StringComparison.Ordinal);
+            // The head start target runs at two steps of the restore (the entry project's first, and the project's own);
+            // the server is handed the check once.
+            Assert.Single(Regex.Matches(served.Output, "DesignRules: head start: the evaluation server checks the designs"));
+            Assert.Contains("DesignRules: head start: handed over earlier in this restore.", served.Output, StringComparison.Ordinal);
             var server = ServerProcess(served);
             started.Add(server);
             var actual = Outputs(repo.Root);

@@ -20,8 +20,8 @@ public sealed class ExampleRepositoryTests
         var root = Path.Combine(RuleFixture.RepositoryRoot(), "example-design");
         var files = RepositoryFiles.Find([root], out _);
         var options = new CheckOptions(Path.Combine(root, RuleSetLoader.DefaultFileName), new DateOnly(2026, 12, 1));
-        var alone = DesignCheck.Run(files, options with { MaxParallelDesigns = 1 });
-        var side = DesignCheck.Run(files, options with { MaxParallelDesigns = 2 });
+        var alone = DesignCheck.Run(files, options with { MaxDegreeOfParallelism = 1 });
+        var side = DesignCheck.Run(files, options with { MaxDegreeOfParallelism = 2 });
         Assert.True(alone.Designs.Count > 2);
 
         // File order (by path), whichever design finished first.

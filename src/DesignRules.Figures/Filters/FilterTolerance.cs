@@ -56,12 +56,12 @@ internal sealed record FilterTolerance(
         }
 
         double[] temperatures = range is { } r ? [r.Low, (r.Low + r.High) / 2, r.High] : [TemperatureBehaviour.Reference];
-        var spreads = temperatures.Select(t => Spread(nominal, parts, u => At(u, t), t)).ToArray();
+        var spreads = temperatures.Select(t => Spread(nominal, parts, u => At(u, t), t, analyses.Parallelism)).ToArray();
 
         var settings = analyses.MonteCarlo;
         int count = Math.Max(0, settings.Samples);
         var samples = new (double, double, double)[count];
-        Parallel.For(0, count, i =>
+        Parallel.For(0, count, analyses.Parallelism, i =>
         {
             var random = SampleDraws.For(settings.Seed, stage.StageId, i);
             var u = parts.Select(_ => SampleDraws.Unit(random, settings.Distribution)).ToArray();
@@ -78,7 +78,7 @@ internal sealed record FilterTolerance(
     }
 
     /// <summary>The corners of the tolerance box at one temperature, measured in parallel, with the nominal figures.</summary>
-    private static FilterSpreadAt Spread(MeasuredFilter nominal, FilterPart[] parts, Func<double[], MeasuredFilter?> at, double celsius)
+    private static FilterSpreadAt Spread(MeasuredFilter nominal, FilterPart[] parts, Func<double[], MeasuredFilter?> at, double celsius, ParallelOptions parallelism)
     {
         var corners = new List<double[]>();
         if (parts.Length <= MaxEnumerated)
@@ -106,7 +106,7 @@ internal sealed record FilterTolerance(
         }
 
         var measured = new MeasuredFilter?[corners.Count];
-        Parallel.For(0, corners.Count, i => measured[i] = at(corners[i]));
+        Parallel.For(0, corners.Count, parallelism, i => measured[i] = at(corners[i]));
         var solved = measured.Where(m => m is not null).Select(m => m!).Append(nominal).ToList();
         static Interval Range(IEnumerable<double> xs) => new(xs.Min(), xs.Max());
         return new FilterSpreadAt(celsius, Range(solved.Select(m => m.F0)), Range(solved.Select(m => m.Q)), Range(solved.Select(m => m.PassbandGain)), corners.Count);

@@ -69,7 +69,7 @@ internal static class ToleranceCorners
             .ThenBy(i => i)
             .ToList();
         var order = Partitioner.Create(started, EnumerablePartitionerOptions.NoBuffering);
-        Parallel.ForEach(order, i =>
+        Parallel.ForEach(order, analyses.Parallelism, i =>
         {
             var (corner, end) = jobs[i];
             var options = baseline[end] with { Values = corner.Values };

@@ -20,11 +20,11 @@ internal sealed class DesignEvaluation : IAnalysisFailures
     private readonly List<YieldEstimate> yields = [];
     private readonly RuleSet ruleSet;
 
-    public DesignEvaluation(Design design, RuleSet ruleSet)
+    public DesignEvaluation(Design design, RuleSet ruleSet, int maxDegreeOfParallelism = -1)
     {
         Design = design;
         this.ruleSet = ruleSet;
-        Analyses = new DesignAnalyses(design, ruleSet.MonteCarlo, this);
+        Analyses = new DesignAnalyses(design, ruleSet.MonteCarlo, this) { MaxDegreeOfParallelism = maxDegreeOfParallelism };
     }
 
     public Design Design { get; }
@@ -39,7 +39,7 @@ internal sealed class DesignEvaluation : IAnalysisFailures
     public DesignEvaluation Refit(Design design)
     {
         // A re-run judges one rule, which may need one band end's transient only: run each as asked, not all together.
-        var refit = new DesignEvaluation(design, ruleSet) { ConfirmsHint = true };
+        var refit = new DesignEvaluation(design, ruleSet, Analyses.MaxDegreeOfParallelism) { ConfirmsHint = true };
         refit.Analyses.BandEndsTogether = false;
         return refit;
     }

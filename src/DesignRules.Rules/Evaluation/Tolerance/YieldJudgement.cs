@@ -72,7 +72,7 @@ internal sealed record YieldJudgement(YieldEstimate Estimate, MonteCarloYield Mo
             }
 
             var more = MonteCarloYield.Run(analysis, settings,
-                monteCarlo.Samples, Math.Min(batch, cap - monteCarlo.Samples));
+                monteCarlo.Samples, Math.Min(batch, cap - monteCarlo.Samples), evaluation.Analyses.MaxDegreeOfParallelism);
             monteCarlo = monteCarlo.Append(more);
         }
 
