@@ -105,6 +105,19 @@ internal sealed class OutputFolder
     }
 
     /// <summary>
+    /// A folder's plain files, listed without a status call per entry: skipping links and folders needs none, the directory
+    /// entry's own type says so (on a file system that does not give the type, the runtime looks at the entry itself, never
+    /// through a link). Errors are not skipped: a folder that cannot be listed is the caller's to handle.
+    /// </summary>
+    private static readonly EnumerationOptions PlainFiles = new()
+    {
+        AttributesToSkip = FileAttributes.Directory | FileAttributes.ReparsePoint,
+        IgnoreInaccessible = false,
+        MatchType = MatchType.Simple,
+        RecurseSubdirectories = false,
+    };
+
+    /// <summary>
     /// The stamps of the plain files in <paramref name="folder"/>, by name, read once per run and folder (a design's plots
     /// share one; every page shares the root). The listing's own entry types leave out folders and symbolic links without
     /// a status call, and each file's size and time come from one status call on its entry (lstat on Unix: never through a
@@ -117,16 +130,9 @@ internal sealed class OutputFolder
         var stamps = new Dictionary<string, string>(StringComparer.Ordinal);
         try
         {
-            var options = new EnumerationOptions
-            {
-                AttributesToSkip = FileAttributes.Directory | FileAttributes.ReparsePoint,
-                IgnoreInaccessible = false,
-                MatchType = MatchType.Simple,
-                RecurseSubdirectories = false,
-            };
             var entries = new FileSystemEnumerable<(string Name, string Stamp)>(f,
                 (ref FileSystemEntry entry) => (entry.FileName.ToString(),
-                    string.Create(CultureInfo.InvariantCulture, $"{entry.Length}:{entry.LastWriteTimeUtc.UtcDateTime.Ticks}")), options);
+                    string.Create(CultureInfo.InvariantCulture, $"{entry.Length}:{entry.LastWriteTimeUtc.UtcDateTime.Ticks}")), PlainFiles);
             foreach (var (name, stamp) in entries)
             {
                 stamps[name] = stamp;
@@ -178,16 +184,7 @@ internal sealed class OutputFolder
             names = new HashSet<string>(StringComparer.Ordinal);
             try
             {
-                // Skipping links and folders needs no status call: the directory entry's own type says so (on a file
-                // system that does not give the type, the runtime looks at the entry itself, never through a link).
-                var options = new EnumerationOptions
-                {
-                    AttributesToSkip = FileAttributes.Directory | FileAttributes.ReparsePoint,
-                    IgnoreInaccessible = false,
-                    MatchType = MatchType.Simple,
-                    RecurseSubdirectories = false,
-                };
-                foreach (var file in Directory.EnumerateFiles(folder, "*", options))
+                foreach (var file in Directory.EnumerateFiles(folder, "*", PlainFiles))
                 {
                     names.Add(Path.GetFileName(file));
                 }
