@@ -39,12 +39,8 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     /// </summary>
     public int MaxDegreeOfParallelism { get; init; } = -1;
 
-    /// <summary>
-    /// The options every parallel loop of this design's analyses runs with: at most <see cref="MaxDegreeOfParallelism"/>
-    /// threads, on the scheduler the check runs on (a parallel loop whose options name no scheduler runs on the default one,
-    /// and a build's head start runs its check on a scheduler of its own, which lets one thread work while the build restores).
-    /// </summary>
-    internal ParallelOptions Parallelism => new() { MaxDegreeOfParallelism = MaxDegreeOfParallelism, TaskScheduler = TaskScheduler.Current };
+    /// <summary>The options every parallel loop of this design's analyses runs with.</summary>
+    internal ParallelOptions Parallelism => new() { MaxDegreeOfParallelism = MaxDegreeOfParallelism };
 
     private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
     private readonly Dictionary<BandEnd, ElaboratedChain> settledChains = [];

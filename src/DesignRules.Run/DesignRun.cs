@@ -17,18 +17,6 @@ public static class DesignRun
     public static RunOutcome Execute(RunRequest request, IRunProgress? progress = null)
     {
         ArgumentNullException.ThrowIfNull(request);
-        if (request.HeadStart)
-        {
-            // One thread while the build restores, every core once the build's own check has begun (HeadStartGate).
-            return HeadStartGate.Run(() => ExecuteSafely(request, progress));
-        }
-
-        HeadStartGate.RaiseAll();
-        return ExecuteSafely(request, progress);
-    }
-
-    private static RunOutcome ExecuteSafely(RunRequest request, IRunProgress? progress)
-    {
         try
         {
             return ExecuteOrThrow(request, progress);

@@ -45,7 +45,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         // (taken before) disagree with the content after the check, and the entry is not written. Each file's hash is its
         // own, so they are taken side by side (a large repository's hundreds of files lie on a served run's critical path:
         // a build's head start hashes them before it can start evaluating the changed design).
-        Parallel.ForEach(files, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1, TaskScheduler = TaskScheduler.Current }, file =>
+        Parallel.ForEach(files, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, file =>
             contentHashes[Path.GetFullPath(file)] = HashFile(file));
     }
 

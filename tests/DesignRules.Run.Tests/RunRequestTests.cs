@@ -60,6 +60,16 @@ public sealed class RunRequestTests : IDisposable
     }
 
     [Fact]
+    public void A_head_start_checks_on_one_thread_and_the_build_s_own_check_on_every_core()
+    {
+        BuildInputs Inputs(bool headStart) => new([repo.Design("motor-current-monitor")]) { RepositoryRoot = repo.Root, Today = "2026-12-01", HeadStart = headStart };
+
+        // The head start overlaps the build's restore, which keeps one core busy; the build's own check waits for nothing.
+        Assert.Equal(1, RunRequest.FromBuild(Inputs(headStart: true)).Request!.MaxDegreeOfParallelism);
+        Assert.Null(RunRequest.FromBuild(Inputs(headStart: false)).Request!.MaxDegreeOfParallelism);
+    }
+
+    [Fact]
     public void The_build_props_default_to_the_same_globs_and_folders_as_the_repository_conventions()
     {
         // MSBuild needs the defaults before any task runs, so the props file repeats them; this keeps the copy in step.
