@@ -23,8 +23,9 @@ public sealed record CheckOptions(string? RuleSetFile, DateOnly Today)
     public Action<int>? DesignsLoaded { get; init; }
 
     /// <summary>
-    /// How many threads the check uses at once, for designs side by side and for the runs inside each design; null for one
-    /// per core. The findings do not depend on it (every parallel run writes its own slot).
+    /// The most threads each parallel loop of the check uses: the designs side by side, and the runs inside each design
+    /// (band ends, tolerance corners, samples), so 1 runs the whole check on one thread; null for one per core. The
+    /// findings do not depend on it (every parallel run writes its own slot).
     /// </summary>
     public int? MaxDegreeOfParallelism { get; init; }
 }

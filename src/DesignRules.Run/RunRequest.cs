@@ -52,7 +52,7 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
     /// </summary>
     public string? CacheFolder { get; init; }
 
-    /// <summary>How many threads the run uses at once (designs, the runs inside a design, pages); null for one per core.</summary>
+    /// <summary>The most threads each parallel loop of the run uses (designs, the runs inside a design, pages): 1 runs it on one thread; null for one per core.</summary>
     public int? MaxDegreeOfParallelism { get; init; }
 
     /// <summary>
