@@ -96,16 +96,20 @@ public static class DesignRun
         clock.Lap(RunPhase.Reports);
         PageResult? pages = null;
         string? pagesLine = null;
-        if (request.PagesFolder is not null)
+        if (request.PagesFolder is not null && request.HeadStart)
+        {
+            // A head start writes no page (the build's own check does, once the build gets there): it renders the pages of
+            // the designs it evaluated meanwhile, so that the check writes them without rendering them on its critical path.
+            if (cache is not null)
+            {
+                DatasheetPages.Prepare(report, PageOptionsOf(request, cache.PageReuse(report, request)), cache.Stored);
+            }
+        }
+        else if (request.PagesFolder is not null)
         {
             // Pages show the levels the rule set and the level changes gave, not a build's warning promotion: the
             // committed datasheets do not change with -warnaserror.
-            pages = DatasheetPages.Write(report, new PageOptions(request.PagesFolder, request.TemplateFolder, request.Root)
-            {
-                HelpUriBase = request.HelpUriBase,
-                Reuse = cache?.PageReuse(report, request),
-                MaxParallelDesigns = request.MaxDegreeOfParallelism,
-            });
+            pages = DatasheetPages.Write(report, PageOptionsOf(request, cache?.PageReuse(report, request)));
             if (!pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
             {
                 var kept = pages.Kept.Count > 0 ? string.Create(CultureInfo.InvariantCulture, $" ({pages.Kept.Count} unchanged, kept)") : string.Empty;
@@ -126,6 +130,13 @@ public static class DesignRun
             Timings = clock.Stop(RunPhase.Pages),
         };
     }
+
+    private static PageOptions PageOptionsOf(RunRequest request, PageReuse? reuse) => new(request.PagesFolder!, request.TemplateFolder, request.Root)
+    {
+        HelpUriBase = request.HelpUriBase,
+        Reuse = reuse,
+        MaxParallelDesigns = request.MaxDegreeOfParallelism,
+    };
 
     /// <summary>Writes one report to its file, or returns its bytes when it goes to standard output.</summary>
     private static byte[]? WriteReport(string? target, Func<byte[]> bytes, Action toFile)

@@ -33,6 +33,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     // Each file's content hash taken again after loading, once per run (a parts file is shared by many designs).
     private readonly ConcurrentDictionary<string, Lazy<string?>> loadedHashes = new(StringComparer.Ordinal);
     private readonly ConcurrentBag<string> designFiles = [];
+    private readonly ConcurrentBag<string> stored = [];
     private readonly ConcurrentDictionary<string, EvaluationClaims.Claim> claims = new(StringComparer.Ordinal);
     private int hits;
 
@@ -54,6 +55,9 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     /// evaluates are remembered so that the check's progress says where their results came from.
     /// </summary>
     public bool HeadStart { get; init; }
+
+    /// <summary>The ids of the designs this run evaluated and kept an entry for.</summary>
+    public IReadOnlyCollection<string> Stored => stored.ToArray();
 
     /// <summary>How many designs came from the cache.</summary>
     public int Hits => hits;
@@ -176,9 +180,13 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     {
         try
         {
-            if (Store(design, ruleSet, today, result) is { } key && HeadStart)
+            if (Store(design, ruleSet, today, result) is { } key)
             {
-                EvaluationClaims.EvaluatedByHeadStart(key);
+                stored.Add(design.Id.Value);
+                if (HeadStart)
+                {
+                    EvaluationClaims.EvaluatedByHeadStart(key);
+                }
             }
         }
         finally
