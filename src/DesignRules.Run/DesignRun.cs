@@ -31,7 +31,10 @@ public static class DesignRun
     {
         var clock = new RunClock();
         // Disposed at the end: a design claimed but never kept (its check failed) is released for waiting runs.
-        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, request.Files, request.ToolIdentityOverride, request.MaxDegreeOfParallelism) { HeadStart = request.HeadStart };
+        // The rule set is hashed with the given files, before anything is read: a head start's check is kept for the build's
+        // only when every file it read was (HeadStartChecks).
+        var hashed = request.RuleSetFile is null ? request.Files : request.Files.Append(request.RuleSetFile);
+        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, hashed, request.ToolIdentityOverride, request.MaxDegreeOfParallelism) { HeadStart = request.HeadStart };
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
             Search = request.Search,
@@ -41,16 +44,47 @@ public static class DesignRun
 
         clock.Lap(RunPhase.Inputs);
         CheckReport check;
+        var tookHeadStart = false;
         using (var watch = progress is null ? null : new LongRunWatch(progress))
         {
-            check = DesignCheck.Run(request.Files, options with
+            if (cache is not null && !request.HeadStart && HeadStartChecks.Take(request, cache) is { } ahead)
             {
-                DesignsLoaded = count =>
+                // The build's head start checked exactly these files: its check stands, and each design is told as read from
+                // the results cache, as a run that looked each up would tell it (evaluated by the head start, or unchanged).
+                check = ahead.Check;
+                tookHeadStart = true;
+                clock.Lap(RunPhase.Loading);
+                watch?.DesignsLoaded(ahead.Progress.Count);
+                foreach (var design in ahead.Progress)
                 {
-                    clock.Lap(RunPhase.Loading);
-                    watch?.DesignsLoaded(count);
-                },
-            }, watch is null ? null : watch.DesignChecked);
+                    watch?.DesignChecked(design with
+                    {
+                        FromStore = true,
+                        JustEvaluated = cache.KeyOf(design.DesignId) is { } key && EvaluationClaims.TakeEvaluatedByHeadStart(key),
+                        Elapsed = TimeSpan.Zero,
+                    });
+                }
+            }
+            else
+            {
+                var told = request.HeadStart ? new List<DesignProgress>() : null;
+                check = DesignCheck.Run(request.Files, options with
+                {
+                    DesignsLoaded = count =>
+                    {
+                        clock.Lap(RunPhase.Loading);
+                        watch?.DesignsLoaded(count);
+                    },
+                }, design =>
+                {
+                    told?.Add(design);
+                    watch?.DesignChecked(design);
+                });
+                if (told is not null && cache is not null)
+                {
+                    HeadStartChecks.Put(request, cache, check, [.. told.OrderBy(d => d.File, StringComparer.Ordinal).Select((d, i) => d with { Completed = i + 1 })]);
+                }
+            }
         }
 
         cache?.RemoveEntriesOfMissingDesigns();
@@ -127,6 +161,7 @@ public static class DesignRun
             PagesLine = pagesLine,
             BaselineLine = baselineLine,
             FromCache = cache?.Hits ?? 0,
+            TookHeadStartCheck = tookHeadStart,
             Timings = clock.Stop(RunPhase.Pages),
         };
     }

@@ -34,7 +34,11 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     private readonly ConcurrentDictionary<string, Lazy<string?>> loadedHashes = new(StringComparer.Ordinal);
     private readonly ConcurrentBag<string> designFiles = [];
     private readonly ConcurrentBag<string> stored = [];
+    private readonly ConcurrentBag<string> found = [];
     private readonly ConcurrentDictionary<string, EvaluationClaims.Claim> claims = new(StringComparer.Ordinal);
+    // The hashes taken in the constructor, before anything was read (contentHashes also gains hashes taken later).
+    private readonly Dictionary<string, string?> hashedFirst;
+    private readonly int? maxParallel;
     private int hits;
 
     /// <summary>A cache in <paramref name="folder"/>; <paramref name="files"/> are hashed now, before they are loaded.</summary>
@@ -48,6 +52,8 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         // a build's head start hashes them before it can start evaluating the changed design).
         Parallel.ForEach(files, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, file =>
             contentHashes[Path.GetFullPath(file)] = HashFile(file));
+        hashedFirst = new Dictionary<string, string?>(contentHashes, StringComparer.Ordinal);
+        this.maxParallel = maxParallel;
     }
 
     /// <summary>
@@ -58,6 +64,75 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
 
     /// <summary>The ids of the designs this run evaluated and kept an entry for.</summary>
     public IReadOnlyCollection<string> Stored => stored.ToArray();
+
+    /// <summary>
+    /// The content hashes, taken before anything was read, of <paramref name="files"/>; null when one of them was not
+    /// hashed then (a file the check found on its way, such as a parts library outside the given files) or cannot be read.
+    /// </summary>
+    public IReadOnlyDictionary<string, string>? HashesBeforeLoading(IEnumerable<string> files)
+    {
+        var hashes = new Dictionary<string, string>(StringComparer.Ordinal);
+        foreach (var file in files.Select(Path.GetFullPath).Distinct(StringComparer.Ordinal))
+        {
+            if (hashedFirst.GetValueOrDefault(file) is not { } hash)
+            {
+                return null;
+            }
+
+            hashes[file] = hash;
+        }
+
+        return hashes;
+    }
+
+    /// <summary>True when every file still has the content hashed: taken again now, side by side.</summary>
+    public bool StillTheSame(IReadOnlyDictionary<string, string> hashes)
+    {
+        var same = true;
+        Parallel.ForEach(hashes, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, pair =>
+        {
+            if (HashFile(pair.Key) != pair.Value)
+            {
+                same = false;
+            }
+        });
+        return same;
+    }
+
+    /// <summary>True when every file of <paramref name="hashes"/> had exactly that content when this run hashed it, before reading anything.</summary>
+    public bool HasHashes(IReadOnlyDictionary<string, string> hashes) =>
+        hashes.All(pair => hashedFirst.TryGetValue(pair.Key, out var hash) && hash == pair.Value);
+
+    /// <summary>
+    /// True when every design of <paramref name="check"/> (each id once) has a result this run found or wrote under its key;
+    /// <paramref name="results"/> then holds what a later run that looks them all up would hold.
+    /// </summary>
+    public bool EveryDesignHasAResult(CheckReport check, out Results results)
+    {
+        var ids = check.Designs.Select(d => d.Design.Id.Value).ToList();
+        var withResult = found.Concat(stored).ToHashSet(StringComparer.Ordinal);
+        results = new Results(new Dictionary<string, string>(keys, StringComparer.Ordinal), [.. designFiles.Distinct(StringComparer.Ordinal)], ids.Count);
+        return ids.Distinct(StringComparer.Ordinal).Count() == ids.Count && ids.All(id => withResult.Contains(id) && keys.ContainsKey(id));
+    }
+
+    /// <summary>Holds the keys, design files and hits of a run that looked up every design and found each (see <see cref="HeadStartChecks"/>).</summary>
+    public void Adopt(Results results)
+    {
+        foreach (var (id, key) in results.Keys)
+        {
+            keys[id] = key;
+        }
+
+        foreach (var file in results.DesignFiles)
+        {
+            designFiles.Add(file);
+        }
+
+        hits = results.Hits;
+    }
+
+    /// <summary>The result key of a design this run found or wrote; null for none.</summary>
+    public string? KeyOf(string designId) => keys.GetValueOrDefault(designId);
 
     /// <summary>How many designs came from the cache.</summary>
     public int Hits => hits;
@@ -83,6 +158,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         EvaluationClaims.WaitFor(key, EvaluationClaims.WaitLimit);
         if (Read(entry, key, design) is { } result)
         {
+            found.Add(design.Id.Value);
             Interlocked.Increment(ref hits);
             return result with { JustEvaluated = !HeadStart && EvaluationClaims.TakeEvaluatedByHeadStart(key) };
         }
@@ -107,6 +183,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
                 mine.Release();
             }
 
+            found.Add(design.Id.Value);
             Interlocked.Increment(ref hits);
             return written with { JustEvaluated = !HeadStart && EvaluationClaims.TakeEvaluatedByHeadStart(key) };
         }
@@ -385,6 +462,9 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         text.Append("tool\n").Append(tool);
         return Hash(text.ToString());
     }
+
+    /// <summary>What a run that looked up every design holds: each design's result key by id, the design files, and the hits.</summary>
+    internal sealed record Results(IReadOnlyDictionary<string, string> Keys, IReadOnlyList<string> DesignFiles, int Hits);
 
     /// <summary>Where the entry of a design file is kept: one entry per design file, named by a hash of its full path.</summary>
     private string EntryPath(string designFile) =>

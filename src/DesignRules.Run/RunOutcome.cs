@@ -45,6 +45,9 @@ public sealed record RunOutcome
     /// <summary>How many designs came from the results cache rather than evaluation.</summary>
     public int FromCache { get; init; }
 
+    /// <summary>True when the run took the check its build's head start made of exactly the same files (nothing loaded or looked up again).</summary>
+    public bool TookHeadStartCheck { get; init; }
+
     /// <summary>Where the run's wall time went, phase by phase (for a detailed log line; never part of a report).</summary>
     public RunTimings Timings { get; init; } = RunTimings.None;
 

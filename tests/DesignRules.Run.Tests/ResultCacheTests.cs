@@ -83,9 +83,13 @@ public sealed class ResultCacheTests : IDisposable
         Assert.Equal(["door-impact-peak-hold"], repo.Run(null, cacheOnly: true, out _).Evaluated);
         Assert.Equal(before, Snapshot(repo.Pages));
 
-        // The check then writes them without rendering: the page and every one of its plots, nothing of another design.
-        var (outcome, evaluated) = repo.Run();
+        // The check then takes the head start's check of the same files and writes the pages without rendering: the page
+        // and every one of its plots, nothing of another design.
+        var (outcome, evaluated) = repo.Run(null, cacheOnly: false, out var justEvaluated);
         Assert.Empty(evaluated);
+        Assert.True(outcome.TookHeadStartCheck);
+        Assert.Equal(["door-impact-peak-hold"], justEvaluated);
+        Assert.Equal(4, outcome.FromCache);
         var prepared = outcome.Pages!.Prepared;
         Assert.Contains("door-impact-peak-hold.md", prepared);
         Assert.Contains(prepared, f => f.StartsWith("plots/door-impact-peak-hold/", StringComparison.Ordinal));
@@ -99,8 +103,51 @@ public sealed class ResultCacheTests : IDisposable
         Directory.Delete(repo.Pages, recursive: true);
         var (full, _) = repo.Run();
         Assert.Empty(full.Pages!.Prepared);
+        Assert.False(full.TookHeadStartCheck);
         Assert.Equal(json, File.ReadAllBytes(repo.Json));
         Assert.Equal(pages, Snapshot(repo.Pages));
+    }
+
+    [Fact]
+    public void A_design_saved_after_the_head_start_checked_it_is_checked_again_by_the_build_not_taken_from_the_head_start()
+    {
+        repo.Run();
+        var edited = repo.Design("motor-current-monitor");
+        File.AppendAllText(edited, "\n# edited\n");
+        repo.Run(null, cacheOnly: true, out _);
+
+        // Saved again between the head start and the build's check: the head start's check is of the other content.
+        File.WriteAllText(edited, File.ReadAllText(edited).Replace("\n# edited\n", "\n# edited twice\n", StringComparison.Ordinal));
+        var (outcome, evaluated) = repo.Run();
+        Assert.False(outcome.TookHeadStartCheck);
+        Assert.Equal(["motor-current-monitor"], evaluated);
+    }
+
+    [Fact]
+    public void A_rule_set_changed_after_the_head_start_checked_is_read_again_by_the_build()
+    {
+        repo.Run();
+        File.AppendAllText(repo.Design("motor-current-monitor"), "\n# edited\n");
+        repo.Run(null, cacheOnly: true, out _);
+
+        // The motor monitor's DR303 level is the rule set's own section: changed after the head start, it is judged afresh.
+        File.WriteAllText(repo.RuleSet, ExampleCopy.RuleSetText("warning"));
+        var (outcome, evaluated) = repo.Run();
+        Assert.False(outcome.TookHeadStartCheck);
+        Assert.Equal(["motor-current-monitor"], evaluated);
+    }
+
+    [Fact]
+    public void A_head_start_check_with_an_error_is_not_kept_for_the_build()
+    {
+        repo.Run();
+        // A parts library the design names that is not there: an error the head start finds, and no hash stands for.
+        var edited = repo.Design("motor-current-monitor");
+        File.WriteAllText(edited, "libraries: [../parts/not-there-yet.yaml]\n" + File.ReadAllText(edited));
+        repo.Run(null, cacheOnly: true, out _);
+        var (outcome, _) = repo.Run();
+        Assert.False(outcome.TookHeadStartCheck);
+        Assert.True(outcome.Report!.ErrorCount > 0);
     }
 
     [Fact]
