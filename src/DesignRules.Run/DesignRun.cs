@@ -34,7 +34,13 @@ public static class DesignRun
         // The rule set is hashed with the given files, before anything is read: a head start's check is kept for the build's
         // only when every file it read was (HeadStartChecks).
         var hashed = request.RuleSetFile is null ? request.Files : request.Files.Append(request.RuleSetFile);
-        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, hashed, request.ToolIdentityOverride, request.MaxDegreeOfParallelism) { HeadStart = request.HeadStart };
+        // A head start is marked under way until its check is kept (or not): a build's check that arrives meanwhile may wait for it.
+        using var pending = request.HeadStart && request.CacheFolder is not null ? HeadStartChecks.Begin(request) : null;
+        using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, hashed, request.ToolIdentityOverride, request.MaxDegreeOfParallelism)
+        {
+            HeadStart = request.HeadStart,
+            Claimed = pending is null ? null : pending.Claimed,
+        };
         var options = new CheckOptions(request.RuleSetFile, request.Today)
         {
             Search = request.Search,
@@ -84,6 +90,8 @@ public static class DesignRun
                 {
                     HeadStartChecks.Put(request, cache, check, [.. told.OrderBy(d => d.File, StringComparer.Ordinal).Select((d, i) => d with { Completed = i + 1 })]);
                 }
+
+                pending?.Dispose();
             }
         }
 

@@ -27,6 +27,9 @@ internal static class HeadStartChecks
 
     private static readonly ConcurrentDictionary<string, Entry> Entries = new(StringComparer.Ordinal);
 
+    // Head starts under way, by fingerprint: a build's check that arrives meanwhile may wait for one (see Take).
+    private static readonly ConcurrentDictionary<string, Pending> Running = new(StringComparer.Ordinal);
+
     /// <summary>How many checks wait to be taken now (tests).</summary>
     internal static int Count => Entries.Count;
 
@@ -59,15 +62,38 @@ internal static class HeadStartChecks
     /// The head start's check of exactly this request and content, removed from the store, with the cache made to hold
     /// what a run that checked would hold; null when there is none.
     /// </summary>
+    /// <remarks>
+    /// A head start of the same request still under way is waited for while it finishes what it was doing when this run
+    /// came: the design it was evaluating, or evaluates first (this run would wait for that design's claim too), and its
+    /// lookups of the others
+    /// (which this run would otherwise make itself). Once it claims another design, this run stops waiting and checks as
+    /// before, sharing the remaining designs with it, so a head start with many designs to evaluate never holds a build
+    /// back to one core. At most <see cref="EvaluationClaims.WaitLimit"/>.
+    /// </remarks>
     public static Entry? Take(RunRequest request, ResultCache cache)
     {
-        if (!Entries.TryRemove(Fingerprint(request), out var entry) || !cache.HasHashes(entry.Hashes))
+        var fingerprint = Fingerprint(request);
+        if (Running.TryGetValue(fingerprint, out var running))
+        {
+            running.WaitWhileOnItsCurrentDesign(EvaluationClaims.WaitLimit);
+        }
+
+        if (!Entries.TryRemove(fingerprint, out var entry) || !cache.HasHashes(entry.Hashes))
         {
             return null;
         }
 
         cache.Adopt(entry.Results);
         return entry;
+    }
+
+    /// <summary>Marks a head start of <paramref name="request"/> as under way until the returned mark is disposed (after <see cref="Put"/>).</summary>
+    public static Pending Begin(RunRequest request)
+    {
+        var fingerprint = Fingerprint(request);
+        var pending = new Pending(fingerprint);
+        Running[fingerprint] = pending;
+        return pending;
     }
 
     /// <summary>Everything of a request the check's findings and figures depend on besides the files' content.</summary>
@@ -85,6 +111,33 @@ internal static class HeadStartChecks
         }
 
         return text.ToString();
+    }
+
+    /// <summary>A head start under way: how many designs it has claimed for evaluation, and whether it is done.</summary>
+    internal sealed class Pending(string fingerprint) : IDisposable
+    {
+        private readonly ManualResetEventSlim done = new(false);
+        private int claimed;
+
+        /// <summary>The head start claimed a design to evaluate it.</summary>
+        public void Claimed() => Interlocked.Increment(ref claimed);
+
+        /// <summary>Waits until the head start is done or claims a design after the design it held when the wait began.</summary>
+        public void WaitWhileOnItsCurrentDesign(TimeSpan limit)
+        {
+            var atArrival = Volatile.Read(ref claimed);
+            var clock = System.Diagnostics.Stopwatch.StartNew();
+            // Polled: the head start's next claim has no event of its own, and a few milliseconds are nothing beside a design.
+            while (!done.Wait(5) && Volatile.Read(ref claimed) <= Math.Max(atArrival, 1) && clock.Elapsed < limit)
+            {
+            }
+        }
+
+        public void Dispose()
+        {
+            Running.TryRemove(new KeyValuePair<string, Pending>(fingerprint, this));
+            done.Set();
+        }
     }
 
     /// <summary>A kept check: the report, each file's content hash, each design's result key and file, and each design's progress.</summary>

@@ -62,6 +62,9 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     /// </summary>
     public bool HeadStart { get; init; }
 
+    /// <summary>Told each time this run claims a design to evaluate it (a head start's progress, see <see cref="HeadStartChecks"/>).</summary>
+    public Action? Claimed { get; init; }
+
     /// <summary>The ids of the designs this run evaluated and kept an entry for.</summary>
     public IReadOnlyCollection<string> Stored => stored.ToArray();
 
@@ -173,6 +176,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         else
         {
             claims[ClaimName(design)] = claim;
+            Claimed?.Invoke();
         }
 
         // Once more: the other run may have written its entry and left between the first look and now.

@@ -51,6 +51,9 @@ public sealed class ResultCacheTests : IDisposable
 
         var (outcome, evaluated) = repo.Run(null, cacheOnly: false, out var justEvaluated);
         headStart.Join();
+        // It came while the head start held the one design it had to evaluate: it waited for the head start to finish and
+        // took its check of the same files rather than load and look up every design again.
+        Assert.True(outcome.TookHeadStartCheck);
         Assert.Equal(["compressor-vibration-envelope"], headStartEvaluated);
         Assert.Empty(evaluated);
         Assert.Equal(["compressor-vibration-envelope"], justEvaluated);
