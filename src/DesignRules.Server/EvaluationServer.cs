@@ -175,15 +175,12 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
                 channel.Send(new ServerFrame(ServerFrame.Accepted) { ProcessId = Environment.ProcessId, Identity = address.Identity });
                 var call = request.Call;
                 var log = new CollectingLog(channel);
-                BuildCheckResult Check()
+                var run = Task.Run(() =>
                 {
                     CultureInfo.CurrentCulture = CultureInfo.InvariantCulture;
                     CultureInfo.CurrentUICulture = CultureInfo.InvariantCulture;
                     return BuildCheck.Execute(call, log, hostAsError: null);
-                }
-
-                // A head start works beside the build's restore: on its own thread at a lower priority, so the build is not slowed.
-                var run = call.HeadStart ? BackgroundPriority.Run(Check) : Task.Run(Check);
+                });
                 // A heartbeat while the run goes on; once the task has gone (a cancelled build), sends fail and the run's
                 // result is abandoned, but the run itself finishes its writes, so no output is left half-written.
                 while (!run.Wait(ServerSettings.Heartbeat))
