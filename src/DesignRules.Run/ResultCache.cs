@@ -379,23 +379,33 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
             }
         }
 
-        var pageKeys = new Dictionary<string, string>(StringComparer.Ordinal);
         // Each design's findings in the report's order, gathered in one pass (not a scan of every finding per design).
         var byDesign = report.Findings.Where(f => f.DesignId is not null).ToLookup(f => f.DesignId!, StringComparer.Ordinal);
-        foreach (var summary in report.Designs)
+        var templateText = templates.ToString();
+        // Each design's key is its own (encoding and hashing its findings): taken side by side, on the build's critical path.
+        var made = new string?[report.Designs.Count];
+        Parallel.For(0, report.Designs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, i =>
         {
-            var id = summary.Design.Id.Value;
-            if (!keys.TryGetValue(id, out var key))
+            var id = report.Designs[i].Design.Id.Value;
+            if (keys.TryGetValue(id, out var key))
             {
-                continue;
+                var text = new StringBuilder("result ").Append(key).Append('\n')
+                    .Append("root ").Append(request.Root).Append('\n')
+                    .Append("help ").Append(request.HelpUriBase).Append('\n')
+                    .Append("templates\n").Append(templateText)
+                    .Append("findings ").Append(Convert.ToHexString(SHA256.HashData(ResultCodec.EncodeFindings(byDesign[id])))).Append('\n');
+                made[i] = Hash(text.ToString());
             }
+        });
 
-            var text = new StringBuilder("result ").Append(key).Append('\n')
-                .Append("root ").Append(request.Root).Append('\n')
-                .Append("help ").Append(request.HelpUriBase).Append('\n')
-                .Append("templates\n").Append(templates)
-                .Append("findings ").Append(Convert.ToHexString(SHA256.HashData(ResultCodec.EncodeFindings(byDesign[id])))).Append('\n');
-            pageKeys[id] = Hash(text.ToString());
+        var pageKeys = new Dictionary<string, string>(StringComparer.Ordinal);
+        for (var i = 0; i < made.Length; i++)
+        {
+            if (made[i] is { } pageKey)
+            {
+                // In the designs' order, as before: of two designs with one id (DR909), the later one's key stands.
+                pageKeys[report.Designs[i].Design.Id.Value] = pageKey;
+            }
         }
 
         return new PageReuse(Path.Combine(folder, "pages.state"), pageKeys);

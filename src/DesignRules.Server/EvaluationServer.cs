@@ -30,8 +30,15 @@ internal enum ServerExit
 internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : IDisposable
 {
     private readonly CancellationTokenSource stopping = new();
+    private readonly TaskCompletionSource listening = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private long lastActivity = Environment.TickCount64;
     private int active;
+
+    /// <summary>
+    /// Completes once the socket accepts connections (tests: its file appears at the bind, a moment before the listen, and a
+    /// connection in between is refused; the task's client retries until it is accepted).
+    /// </summary>
+    internal Task Listening => listening.Task;
 
     /// <summary>Listens until idle for <c>idle</c>, stopped, or its socket file or task folder is gone.</summary>
     public ServerExit Run()
@@ -67,6 +74,7 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
                 }
 
                 listener.Listen(32);
+                listening.TrySetResult();
             }
             catch (Exception ex) when (ex is SocketException or IOException or UnauthorizedAccessException)
             {

@@ -44,12 +44,13 @@ public sealed class EvaluationServerTests : IDisposable
         var server = new EvaluationServer(address, idle ?? TimeSpan.FromMinutes(5));
         var run = Task.Factory.StartNew(server.Run, TaskCreationOptions.LongRunning);
         var waited = System.Diagnostics.Stopwatch.StartNew();
-        while (!File.Exists(address.SocketPath) && !run.IsCompleted && waited.Elapsed < Bound)
+        // Listening, not only bound: the socket file appears at the bind, and a connection before the listen is refused.
+        while (!server.Listening.IsCompleted && !run.IsCompleted && waited.Elapsed < Bound)
         {
             Thread.Sleep(20);
         }
 
-        Assert.True(File.Exists(address.SocketPath), $"the server did not listen: {(run.IsCompleted ? run.Result.ToString() : "still starting")}");
+        Assert.True(server.Listening.IsCompleted && File.Exists(address.SocketPath), $"the server did not listen: {(run.IsCompleted ? run.Result.ToString() : "still starting")}");
         servers.Add((server, run));
         return (server, run);
     }
