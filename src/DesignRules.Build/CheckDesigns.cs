@@ -271,7 +271,7 @@ public sealed class CheckDesigns : Microsoft.Build.Utilities.Task, ICancelableTa
         {
             var headStart = served with
             {
-                SarifFile = null, JsonFile = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
+                SarifFile = null, JsonFile = null, PagesFolder = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
             };
             var handed = ServerClient.TryRun(headStart, new TaskLog(Log), new ServerOptions(TaskFolder, ServerIdleSeconds, Blank(ServerSalt), ServerSocketFolder), started,
                 handOverOnly: true, cancellation, out why);

@@ -86,20 +86,11 @@ public static class DatasheetPages
         // the same whatever order the renderings finished in.
         var jobs = new List<(int Design, string File, Func<string> Render)>();
         var pageTexts = new (string? Text, List<Diagnostic> Diagnostics)[designs.Count];
-        // A design whose page and plots a build's head start rendered under the same key: written as they are.
-        var prepared = new IReadOnlyList<KeyValuePair<string, string>>?[designs.Count];
         for (var i = 0; i < designs.Count; i++)
         {
             if (!keep[i])
             {
                 var at = i;
-                if (TakePrepared(designs[i].Summary, designs[i].Page, designs[i].Files, options) is { } ahead)
-                {
-                    prepared[i] = ahead;
-                    pageTexts[i] = (ahead[0].Value, []);
-                    continue;
-                }
-
                 jobs.Add((i, designs[i].Page, () =>
                 {
                     var design = designs[at];
@@ -156,7 +147,7 @@ public static class DatasheetPages
 
             // The page first, then its plots in the order the stages list them: the order they were always gathered in.
             var contents = new Dictionary<string, string>(StringComparer.Ordinal) { [page] = text };
-            foreach (var (file, plot) in prepared[i] is { } ahead ? ahead.Skip(1).Select(t => (t.Key, t.Value)) : plotsOf.GetValueOrDefault(i) ?? [])
+            foreach (var (file, plot) in plotsOf.GetValueOrDefault(i) ?? [])
             {
                 contents[file] = plot;
             }
@@ -201,11 +192,7 @@ public static class DatasheetPages
         {
             var removed = output.Commit(diagnostics);
             options.Reuse?.Save(output);
-            return new PageResult(output.Written.ToList(), removed, diagnostics)
-            {
-                Kept = output.Kept.ToList(),
-                Prepared = prepared.Where(p => p is not null).SelectMany(p => p!.Select(f => f.Key)).Order(StringComparer.Ordinal).ToList(),
-            };
+            return new PageResult(output.Written.ToList(), removed, diagnostics) { Kept = output.Kept.ToList() };
         }
         catch (PagesFolderException ex)
         {
@@ -219,68 +206,6 @@ public static class DatasheetPages
         }
 
         return new PageResult([], [], diagnostics);
-    }
-
-    /// <summary>
-    /// Renders the pages and plots of the designs named into this process's store of prepared pages, and writes nothing: a
-    /// later <see cref="Write"/> in this process of a design under the same page key and options writes those texts instead
-    /// of rendering them (a build's head start renders the designs it evaluated while the build restores). A design
-    /// without a page key (<see cref="PageOptions.Reuse"/>), or whose template fails, is left to that run to render.
-    /// </summary>
-    public static void Prepare(CheckReport report, PageOptions options, IReadOnlyCollection<string> designIds)
-    {
-        ArgumentNullException.ThrowIfNull(report);
-        ArgumentNullException.ThrowIfNull(options);
-        ArgumentNullException.ThrowIfNull(designIds);
-        if (designIds.Count == 0 || options.Reuse is null)
-        {
-            return;
-        }
-
-        var templates = TemplateSet.Load(options.TemplateFolder, []);
-        if (!templates.IsComplete)
-        {
-            return;
-        }
-
-        var parallel = new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 };
-        var wanted = designIds.ToHashSet(StringComparer.Ordinal);
-        foreach (var summary in report.Designs.Where(d => wanted.Contains(d.Design.Id.Value)))
-        {
-            var name = OutputFolder.SafeName(summary.Design.Id.Value);
-            var page = $"{name}.md";
-            if (PreparedPages.KeyOf(options.Reuse, summary.Design.Id.Value, summary.Design.File, page, options) is not { } key)
-            {
-                continue;
-            }
-
-            var (text, problems) = RenderPage(report, summary, name, templates, options);
-            if (text is null || problems.Count > 0)
-            {
-                continue;
-            }
-
-            var plots = PlotJobs(summary, name);
-            var texts = new string[plots.Count];
-            Parallel.For(0, plots.Count, parallel, j => texts[j] = plots[j].Render());
-            var files = new List<KeyValuePair<string, string>>(plots.Count + 1) { new(page, text) };
-            files.AddRange(plots.Select((p, j) => new KeyValuePair<string, string>(p.File, texts[j])));
-            PreparedPages.Put(key, files);
-        }
-    }
-
-    /// <summary>The prepared texts of a design's page and plots when there are texts under its key for exactly its files.</summary>
-    private static IReadOnlyList<KeyValuePair<string, string>>? TakePrepared(DesignSummary summary, string page, List<string> files, PageOptions options)
-    {
-        if (PreparedPages.KeyOf(options.Reuse, summary.Design.Id.Value, summary.Design.File, page, options) is not { } key
-            || PreparedPages.Take(key) is not { } texts)
-        {
-            return null;
-        }
-
-        // The same key names the same report, so the same files; anything else is rendered here, never trusted.
-        return texts.Count == files.Count && texts[0].Key == page && texts.Select(t => t.Key).ToHashSet(StringComparer.Ordinal).SetEquals(files)
-            ? texts : null;
     }
 
     /// <summary>One design's page; null text when its template failed (said in the diagnostics).</summary>

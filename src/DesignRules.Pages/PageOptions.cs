@@ -27,10 +27,4 @@ public sealed record PageResult(IReadOnlyList<string> Written, IReadOnlyList<str
 {
     /// <summary>The files among <see cref="Written"/> that were kept as they were (their design did not change), not written again.</summary>
     public IReadOnlyList<string> Kept { get; init; } = [];
-
-    /// <summary>
-    /// The files among <see cref="Written"/> whose texts were rendered ahead in this process (<see cref="DatasheetPages.Prepare"/>,
-    /// a build's head start) under the same page key, and written as they were rendered.
-    /// </summary>
-    public IReadOnlyList<string> Prepared { get; init; } = [];
 }

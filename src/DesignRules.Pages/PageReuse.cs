@@ -39,9 +39,6 @@ public sealed class PageReuse
         stored = Read(stateFile);
     }
 
-    /// <summary>The page key of a design; null when it has none (its page is always rendered).</summary>
-    internal string? KeyOf(string designId) => keys.GetValueOrDefault(designId);
-
     /// <summary>True when the design's files may be kept as they are; they are then remembered for the next run.</summary>
     internal bool CanKeep(string designId, IReadOnlyCollection<string> files, OutputFolder output)
     {

@@ -138,16 +138,7 @@ public static class DesignRun
         clock.Lap(RunPhase.Reports);
         PageResult? pages = null;
         string? pagesLine = null;
-        if (request.PagesFolder is not null && request.HeadStart)
-        {
-            // A head start writes no page (the build's own check does, once the build gets there): it renders the pages of
-            // the designs it evaluated meanwhile, so that the check writes them without rendering them on its critical path.
-            if (cache is not null)
-            {
-                DatasheetPages.Prepare(report, PageOptionsOf(request, cache.PageReuse(report, request)), cache.Stored);
-            }
-        }
-        else if (request.PagesFolder is not null)
+        if (request.PagesFolder is not null)
         {
             // Pages show the levels the rule set and the level changes gave, not a build's warning promotion: the
             // committed datasheets do not change with -warnaserror.

@@ -65,9 +65,6 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     /// <summary>Told each time this run claims a design to evaluate it (a head start's progress, see <see cref="HeadStartChecks"/>).</summary>
     public Action? Claimed { get; init; }
 
-    /// <summary>The ids of the designs this run evaluated and kept an entry for.</summary>
-    public IReadOnlyCollection<string> Stored => stored.ToArray();
-
     /// <summary>
     /// The content hashes, taken before anything was read, of <paramref name="files"/>; null when one of them was not
     /// hashed then (a file the check found on its way, such as a parts library outside the given files) or cannot be read.

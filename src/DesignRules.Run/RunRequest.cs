@@ -69,8 +69,7 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
 
     /// <summary>
     /// A build's head start (<c>DesignRulesHeadStart</c>): a run that only fills the results cache while the build restores,
-    /// ahead of the build's own check, and renders the pages of the designs it evaluated into this process's memory for that
-    /// check to write (<see cref="PagesFolder"/> names where they will go; nothing is written there).
+    /// ahead of the build's own check.
     /// </summary>
     public bool HeadStart { get; init; }
 

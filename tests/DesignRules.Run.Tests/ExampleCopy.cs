@@ -33,9 +33,6 @@ internal sealed class ExampleCopy : IDisposable
 
     public string Json => Path.Combine(Root, "out", "report.json");
 
-    /// <summary>The repository's own page templates; null for the built-in ones.</summary>
-    public string? TemplateFolder { get; set; }
-
     public static string RepositoryRoot =>
         typeof(ExampleCopy).Assembly.GetCustomAttributes<AssemblyMetadataAttribute>().Single(a => a.Key == "RepositoryRoot").Value!;
 
@@ -51,7 +48,7 @@ internal sealed class ExampleCopy : IDisposable
 
     /// <summary>
     /// As <see cref="Run(string?)"/>; <paramref name="cacheOnly"/> writes only the cache (no pages, no JSON, as a build's
-    /// head start runs, which renders the pages of the designs it evaluated into memory), and <paramref name="justEvaluated"/> lists the designs read from the cache because another run
+    /// head start runs), and <paramref name="justEvaluated"/> lists the designs read from the cache because another run
     /// had just evaluated them.
     /// </summary>
     public (RunOutcome Outcome, IReadOnlyList<string> Evaluated) Run(string? toolIdentity, bool cacheOnly, out IReadOnlyList<string> justEvaluated)
@@ -62,9 +59,7 @@ internal sealed class ExampleCopy : IDisposable
             RuleSetFile = RuleSet,
             ReportRoot = Root,
             JsonFile = cacheOnly ? null : Json,
-            // A head start names the pages folder (it renders the evaluated designs' pages for the check to write) but writes nothing.
-            PagesFolder = Pages,
-            TemplateFolder = TemplateFolder,
+            PagesFolder = cacheOnly ? null : Pages,
             CacheFolder = Cache,
             ToolIdentityOverride = toolIdentity,
             HeadStart = cacheOnly,

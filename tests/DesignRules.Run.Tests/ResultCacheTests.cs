@@ -76,36 +76,30 @@ public sealed class ResultCacheTests : IDisposable
     }
 
     [Fact]
-    public void The_pages_a_head_start_rendered_are_written_by_the_next_run_as_a_run_renders_them_and_the_head_start_writes_none()
+    public void A_check_after_its_head_start_takes_the_head_starts_check_and_writes_what_a_full_run_writes()
     {
         repo.Run();
         var before = Snapshot(repo.Pages);
         File.AppendAllText(repo.Design("door-impact-peak-hold"), "\n# edited\n");
 
-        // The head start evaluates the edited design and renders its page and plots into memory only.
+        // The head start evaluates the edited design and writes only its cache entry.
         Assert.Equal(["door-impact-peak-hold"], repo.Run(null, cacheOnly: true, out _).Evaluated);
         Assert.Equal(before, Snapshot(repo.Pages));
 
-        // The check then takes the head start's check of the same files and writes the pages without rendering: the page
-        // and every one of its plots, nothing of another design.
+        // The check of the same files then takes the head start's check: nothing evaluated, loaded or looked up again, and
+        // each design told as a run that looked it up would tell it.
         var (outcome, evaluated) = repo.Run(null, cacheOnly: false, out var justEvaluated);
         Assert.Empty(evaluated);
         Assert.True(outcome.TookHeadStartCheck);
         Assert.Equal(["door-impact-peak-hold"], justEvaluated);
         Assert.Equal(4, outcome.FromCache);
-        var prepared = outcome.Pages!.Prepared;
-        Assert.Contains("door-impact-peak-hold.md", prepared);
-        Assert.Contains(prepared, f => f.StartsWith("plots/door-impact-peak-hold/", StringComparison.Ordinal));
-        Assert.All(prepared, f => Assert.True(f == "door-impact-peak-hold.md" || f.StartsWith("plots/door-impact-peak-hold/", StringComparison.Ordinal), f));
-        Assert.Equal(prepared.Count, Directory.GetFiles(Path.Combine(repo.Pages, "plots", "door-impact-peak-hold")).Length + 1);
 
-        // The same bytes as a run that rendered everything itself.
+        // The same bytes as a run that evaluated everything itself.
         var json = File.ReadAllBytes(repo.Json);
         var pages = Snapshot(repo.Pages);
         Directory.Delete(repo.Cache, recursive: true);
         Directory.Delete(repo.Pages, recursive: true);
         var (full, _) = repo.Run();
-        Assert.Empty(full.Pages!.Prepared);
         Assert.False(full.TookHeadStartCheck);
         Assert.Equal(json, File.ReadAllBytes(repo.Json));
         Assert.Equal(pages, Snapshot(repo.Pages));
@@ -151,26 +145,6 @@ public sealed class ResultCacheTests : IDisposable
         var (outcome, _) = repo.Run();
         Assert.False(outcome.TookHeadStartCheck);
         Assert.True(outcome.Report!.ErrorCount > 0);
-    }
-
-    [Fact]
-    public void A_page_a_head_start_rendered_before_its_template_changed_is_rendered_again_with_the_new_template()
-    {
-        var templates = Path.Combine(repo.Root, "page-templates");
-        Directory.CreateDirectory(templates);
-        // The repository's own design template: the built-in one's text, then one line more.
-        var design = File.ReadAllText(Path.Combine(ExampleCopy.RepositoryRoot, "templates", "design.md.sbn"));
-        File.WriteAllText(Path.Combine(templates, "design.md.sbn"), design);
-        repo.TemplateFolder = templates;
-        repo.Run();
-        File.AppendAllText(repo.Design("door-impact-peak-hold"), "\n# edited\n");
-        repo.Run(null, cacheOnly: true, out _);
-
-        // Saved after the head start rendered the page: its text must not stand for the page the template now makes.
-        File.WriteAllText(Path.Combine(templates, "design.md.sbn"), design + "\nA line the new template adds.\n");
-        var (outcome, _) = repo.Run();
-        Assert.Empty(outcome.Pages!.Prepared);
-        Assert.Contains("A line the new template adds.", File.ReadAllText(Path.Combine(repo.Pages, "door-impact-peak-hold.md")), StringComparison.Ordinal);
     }
 
     [Fact]
