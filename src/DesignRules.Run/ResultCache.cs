@@ -85,13 +85,18 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         return hashes;
     }
 
-    /// <summary>True when every file still has the content hashed: taken again now, side by side.</summary>
+    /// <summary>
+    /// True when every file had, after the check read it, the content hashed before: the hash this run took after loading
+    /// where it took one (every design's file and parts files, once each, see <see cref="SameAsBefore"/>), else one taken now,
+    /// side by side. Either is taken after the file was read, so the check read exactly the content hashed before.
+    /// </summary>
     public bool StillTheSame(IReadOnlyDictionary<string, string> hashes)
     {
         var same = true;
         Parallel.ForEach(hashes, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, pair =>
         {
-            if (HashFile(pair.Key) != pair.Value)
+            var after = loadedHashes.TryGetValue(pair.Key, out var loaded) ? loaded.Value : HashFile(pair.Key);
+            if (after != pair.Value)
             {
                 same = false;
             }
