@@ -142,7 +142,12 @@ public static class DesignRun
         {
             // Pages show the levels the rule set and the level changes gave, not a build's warning promotion: the
             // committed datasheets do not change with -warnaserror.
-            pages = DatasheetPages.Write(report, PageOptionsOf(request, cache?.PageReuse(report, request)));
+            pages = DatasheetPages.Write(report, new PageOptions(request.PagesFolder, request.TemplateFolder, request.Root)
+            {
+                HelpUriBase = request.HelpUriBase,
+                Reuse = cache?.PageReuse(report, request),
+                MaxParallelDesigns = request.MaxDegreeOfParallelism,
+            });
             if (!pages.Diagnostics.Any(d => d.Id == DatasheetPages.FolderProblemId))
             {
                 var kept = pages.Kept.Count > 0 ? string.Create(CultureInfo.InvariantCulture, $" ({pages.Kept.Count} unchanged, kept)") : string.Empty;
@@ -164,13 +169,6 @@ public static class DesignRun
             Timings = clock.Stop(RunPhase.Pages),
         };
     }
-
-    private static PageOptions PageOptionsOf(RunRequest request, PageReuse? reuse) => new(request.PagesFolder!, request.TemplateFolder, request.Root)
-    {
-        HelpUriBase = request.HelpUriBase,
-        Reuse = reuse,
-        MaxParallelDesigns = request.MaxDegreeOfParallelism,
-    };
 
     /// <summary>Writes one report to its file, or returns its bytes when it goes to standard output.</summary>
     private static byte[]? WriteReport(string? target, Func<byte[]> bytes, Action toFile)

@@ -13,10 +13,10 @@ namespace DesignRules.Run;
 /// <para>
 /// Kept only when nothing is in doubt: the check found no error (an error may be a file it could not read, which no
 /// hash stands for), every file it read was hashed before it was read (the design and parts items and the rule set; a
-/// check that read any other file, such as a parts library outside the items, is not kept), every one still has that
-/// content when the check is done, and every design's result has a key the head start found or wrote in the results
-/// cache. Taken only by a run of the same request (files, rule set, date, search,
-/// tool) whose own hashes, taken before it reads anything, are exactly those: the check then is the check of exactly the
+/// check that read any other file, such as a parts library outside the items, is not kept), every one had that content
+/// after the check read it (the hash its run took after loading, or one taken when the check is done), and every design's
+/// result has a key the head start found or wrote in the results cache. Taken only by a run of the same request (files,
+/// rule set, date, search, tool) whose own hashes, taken before it reads anything, are exactly those: the check then is the check of exactly the
 /// files on disk, as the results cache's entries are. Each check is taken once; anything else checks as before.
 /// </para>
 /// </summary>
@@ -29,9 +29,6 @@ internal static class HeadStartChecks
 
     // Head starts under way, by fingerprint: a build's check that arrives meanwhile may wait for one (see Take).
     private static readonly ConcurrentDictionary<string, Pending> Running = new(StringComparer.Ordinal);
-
-    /// <summary>How many checks wait to be taken now (tests).</summary>
-    internal static int Count => Entries.Count;
 
     /// <summary>Keeps a head start's check when nothing about it is in doubt (see the class).</summary>
     public static void Put(RunRequest request, ResultCache cache, CheckReport check, IReadOnlyList<DesignProgress> progress)
@@ -65,8 +62,7 @@ internal static class HeadStartChecks
     /// <remarks>
     /// A head start of the same request still under way is waited for while it finishes what it was doing when this run
     /// came: the design it was evaluating, or evaluates first (this run would wait for that design's claim too), and its
-    /// lookups of the others
-    /// (which this run would otherwise make itself). Once it claims another design, this run stops waiting and checks as
+    /// lookups of the others (which this run would otherwise make itself). Once it claims another design, this run stops waiting and checks as
     /// before, sharing the remaining designs with it, so a head start with many designs to evaluate never holds a build
     /// back to one core. At most <see cref="EvaluationClaims.WaitLimit"/>.
     /// </remarks>
