@@ -40,7 +40,7 @@ internal sealed class DesignAnalyses(Design design, MonteCarloSettings monteCarl
     public int MaxDegreeOfParallelism { get; init; } = -1;
 
     /// <summary>The options every parallel loop of this design's analyses runs with.</summary>
-    internal ParallelOptions Parallelism => new() { MaxDegreeOfParallelism = MaxDegreeOfParallelism };
+    internal ParallelOptions Parallelism => new() { MaxDegreeOfParallelism = MaxDegreeOfParallelism, TaskScheduler = TaskScheduler.Current };
 
     private readonly Dictionary<BandEnd, ElaboratedChain> chains = [];
     private readonly Dictionary<BandEnd, ElaboratedChain> settledChains = [];

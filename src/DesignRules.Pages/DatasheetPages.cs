@@ -38,7 +38,7 @@ public static class DatasheetPages
         }
 
         var output = new OutputFolder(options.OutputFolder) { MaxParallel = options.MaxParallelDesigns ?? -1 };
-        var parallel = new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1 };
+        var parallel = new ParallelOptions { MaxDegreeOfParallelism = options.MaxParallelDesigns ?? -1, TaskScheduler = TaskScheduler.Current };
         var pages = new List<(DesignSummary Summary, string Page)>();
         var designs = new List<(DesignSummary Summary, string Name, string Page, List<string> Files)>();
         foreach (var summary in report.Designs.OrderBy(d => d.Design.Id.Value, StringComparer.Ordinal))

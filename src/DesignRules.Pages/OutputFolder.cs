@@ -283,7 +283,7 @@ internal sealed class OutputFolder
         // test below then finds every answer already there.
         var firstOfEachFolder = kept.GroupBy(k => k.LastIndexOf('/') is var slash and >= 0 ? k[..slash] : string.Empty, StringComparer.Ordinal)
             .Select(g => g.First()).ToList();
-        Parallel.ForEach(firstOfEachFolder, new ParallelOptions { MaxDegreeOfParallelism = MaxParallel }, k =>
+        Parallel.ForEach(firstOfEachFolder, new ParallelOptions { MaxDegreeOfParallelism = MaxParallel, TaskScheduler = TaskScheduler.Current }, k =>
         {
             if (LinkOnTheWay(k, foldersOnly: true) is null && Inside(k) is { } full)
             {

@@ -55,7 +55,7 @@ public static class DesignCheck
         // end one core could still hold several designs while the other idles; taking the next design only when the last
         // is done leaves at most one design's time at the end with a core idle.
         var indices = Partitioner.Create(Enumerable.Range(0, loaded.Designs.Count), EnumerablePartitionerOptions.NoBuffering);
-        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism ?? -1 }, i =>
+        Parallel.ForEach(indices, new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism ?? -1, TaskScheduler = TaskScheduler.Current }, i =>
         {
             var started = System.Diagnostics.Stopwatch.GetTimestamp();
             var design = loaded.Designs[i];

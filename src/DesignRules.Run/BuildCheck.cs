@@ -121,7 +121,7 @@ internal static class BuildCheck
         // Where a build's time goes (detailed verbosity): the run, and how much of it the process spent compiling code
         // just in time, which the package's ReadyToRun images (and the warm evaluation server) are there to avoid.
         log.Write(new BuildLogEntry(BuildLogKind.Message, "DesignRules: " + cost.Stop(outcome.Timings)
-            + (outcome.TookHeadStartCheck ? " The head start's check of the same files was taken." : string.Empty)) { Importance = BuildLogImportance.Low });
+            + (outcome.TookHeadStartCheck ? $" The head start's check of the same files was taken ({outcome.HeadStartAccount})." : string.Empty)) { Importance = BuildLogImportance.Low });
         if (outcome.Fault is not null)
         {
             LogFault(call, log, outcome.Fault, outcome.FaultDetail);

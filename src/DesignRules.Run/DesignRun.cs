@@ -19,7 +19,8 @@ public static class DesignRun
         ArgumentNullException.ThrowIfNull(request);
         try
         {
-            return ExecuteOrThrow(request, progress);
+            // A head start works on one core while the build restores, on every core once the build's check waits for it.
+            return request.HeadStart ? HeadStartCores.Run(cores => ExecuteOrThrow(request, progress, cores)) : ExecuteOrThrow(request, progress, null);
         }
         catch (Exception ex) when (ex is not (OutOfMemoryException or StackOverflowException or AccessViolationException))
         {
@@ -27,7 +28,7 @@ public static class DesignRun
         }
     }
 
-    private static RunOutcome ExecuteOrThrow(RunRequest request, IRunProgress? progress)
+    private static RunOutcome ExecuteOrThrow(RunRequest request, IRunProgress? progress, HeadStartCores? cores)
     {
         var clock = new RunClock();
         // Disposed at the end: a design claimed but never kept (its check failed) is released for waiting runs.
@@ -35,7 +36,7 @@ public static class DesignRun
         // only when every file it read was (HeadStartChecks).
         var hashed = request.RuleSetFile is null ? request.Files : request.Files.Append(request.RuleSetFile);
         // A head start is marked under way until its check is kept (or not): a build's check that arrives meanwhile may wait for it.
-        using var pending = request.HeadStart && request.CacheFolder is not null ? HeadStartChecks.Begin(request) : null;
+        using var pending = request.HeadStart && request.CacheFolder is not null ? HeadStartChecks.Begin(request, cores) : null;
         using var cache = request.CacheFolder is null ? null : new ResultCache(request.CacheFolder, hashed, request.ToolIdentityOverride, request.MaxDegreeOfParallelism)
         {
             HeadStart = request.HeadStart,
@@ -51,6 +52,7 @@ public static class DesignRun
         clock.Lap(RunPhase.Inputs);
         CheckReport check;
         var tookHeadStart = false;
+        string? headStartAccount = null;
         using (var watch = progress is null ? null : new LongRunWatch(progress))
         {
             if (cache is not null && !request.HeadStart && HeadStartChecks.Take(request, cache) is { } ahead)
@@ -59,6 +61,7 @@ public static class DesignRun
                 // the results cache, as a run that looked each up would tell it (evaluated by the head start, or unchanged).
                 check = ahead.Check;
                 tookHeadStart = true;
+                headStartAccount = ahead.Account;
                 clock.Lap(RunPhase.Loading);
                 watch?.DesignsLoaded(ahead.Progress.Count);
                 foreach (var design in ahead.Progress)
@@ -88,7 +91,8 @@ public static class DesignRun
                 });
                 if (told is not null && cache is not null)
                 {
-                    HeadStartChecks.Put(request, cache, check, [.. told.OrderBy(d => d.File, StringComparer.Ordinal).Select((d, i) => d with { Completed = i + 1 })]);
+                    HeadStartChecks.Put(request, cache, check, [.. told.OrderBy(d => d.File, StringComparer.Ordinal).Select((d, i) => d with { Completed = i + 1 })],
+                        clock.Account(RunPhase.Designs));
                 }
 
                 pending?.Dispose();
@@ -166,6 +170,7 @@ public static class DesignRun
             BaselineLine = baselineLine,
             FromCache = cache?.Hits ?? 0,
             TookHeadStartCheck = tookHeadStart,
+            HeadStartAccount = headStartAccount,
             Timings = clock.Stop(RunPhase.Pages),
         };
     }

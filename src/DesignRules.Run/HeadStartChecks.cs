@@ -31,7 +31,7 @@ internal static class HeadStartChecks
     private static readonly ConcurrentDictionary<string, Pending> Running = new(StringComparer.Ordinal);
 
     /// <summary>Keeps a head start's check when nothing about it is in doubt (see the class).</summary>
-    public static void Put(RunRequest request, ResultCache cache, CheckReport check, IReadOnlyList<DesignProgress> progress)
+    public static void Put(RunRequest request, ResultCache cache, CheckReport check, IReadOnlyList<DesignProgress> progress, Func<string> account)
     {
         // A check with an error is not kept: one of its errors may be a file it could not read (a parts library not there
         // yet), which no hash stands for.
@@ -52,7 +52,7 @@ internal static class HeadStartChecks
             Entries.Clear();
         }
 
-        Entries[Fingerprint(request)] = new Entry(check, hashes, results, progress);
+        Entries[Fingerprint(request)] = new Entry(check, hashes, results, progress, account);
     }
 
     /// <summary>
@@ -84,10 +84,10 @@ internal static class HeadStartChecks
     }
 
     /// <summary>Marks a head start of <paramref name="request"/> as under way until the returned mark is disposed (after <see cref="Put"/>).</summary>
-    public static Pending Begin(RunRequest request)
+    public static Pending Begin(RunRequest request, HeadStartCores? cores)
     {
         var fingerprint = Fingerprint(request);
-        var pending = new Pending(fingerprint);
+        var pending = new Pending(fingerprint, cores);
         Running[fingerprint] = pending;
         return pending;
     }
@@ -110,7 +110,7 @@ internal static class HeadStartChecks
     }
 
     /// <summary>A head start under way: how many designs it has claimed for evaluation, and whether it is done.</summary>
-    internal sealed class Pending(string fingerprint) : IDisposable
+    internal sealed class Pending(string fingerprint, HeadStartCores? cores) : IDisposable
     {
         private readonly ManualResetEventSlim done = new(false);
         private int claimed;
@@ -118,9 +118,14 @@ internal static class HeadStartChecks
         /// <summary>The head start claimed a design to evaluate it.</summary>
         public void Claimed() => Interlocked.Increment(ref claimed);
 
-        /// <summary>Waits until the head start is done or claims a design after the design it held when the wait began.</summary>
+        /// <summary>
+        /// Gives the head start every core, then waits until it is done or claims a design after the design it held when
+        /// the wait began.
+        /// </summary>
         public void WaitWhileOnItsCurrentDesign(TimeSpan limit)
         {
+            // The build now waits: its cores are the head start's (HeadStartCores).
+            cores?.Widen();
             var atArrival = Volatile.Read(ref claimed);
             var clock = System.Diagnostics.Stopwatch.StartNew();
             // Polled: the head start's next claim has no event of its own, and a few milliseconds are nothing beside a design.
@@ -137,5 +142,9 @@ internal static class HeadStartChecks
     }
 
     /// <summary>A kept check: the report, each file's content hash, each design's result key and file, and each design's progress.</summary>
-    internal sealed record Entry(CheckReport Check, IReadOnlyDictionary<string, string> Hashes, ResultCache.Results Results, IReadOnlyList<DesignProgress> Progress);
+    internal sealed record Entry(CheckReport Check, IReadOnlyDictionary<string, string> Hashes, ResultCache.Results Results, IReadOnlyList<DesignProgress> Progress, Func<string> Told)
+    {
+        /// <summary>The head start's own account of its run (phases, processor time, how long ago it ended), for the detailed log.</summary>
+        public string Account => "the head start: " + Told();
+    }
 }

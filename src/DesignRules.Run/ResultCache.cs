@@ -50,7 +50,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         // (taken before) disagree with the content after the check, and the entry is not written. Each file's hash is its
         // own, so they are taken side by side (a large repository's hundreds of files lie on a served run's critical path:
         // a build's head start hashes them before it can start evaluating the changed design).
-        Parallel.ForEach(files, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, file =>
+        Parallel.ForEach(files, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1, TaskScheduler = TaskScheduler.Current }, file =>
             contentHashes[Path.GetFullPath(file)] = HashFile(file));
         hashedFirst = new Dictionary<string, string?>(contentHashes, StringComparer.Ordinal);
         this.maxParallel = maxParallel;
@@ -93,7 +93,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
     public bool StillTheSame(IReadOnlyDictionary<string, string> hashes)
     {
         var same = true;
-        Parallel.ForEach(hashes, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, pair =>
+        Parallel.ForEach(hashes, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1, TaskScheduler = TaskScheduler.Current }, pair =>
         {
             var after = loadedHashes.TryGetValue(pair.Key, out var loaded) ? loaded.Value : HashFile(pair.Key);
             if (after != pair.Value)
@@ -386,7 +386,7 @@ internal sealed class ResultCache : IDesignResultStore, IDisposable
         var templateText = templates.ToString();
         // Each design's key is its own (encoding and hashing its findings): taken side by side, on the build's critical path.
         var made = new string?[report.Designs.Count];
-        Parallel.For(0, report.Designs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1 }, i =>
+        Parallel.For(0, report.Designs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxParallel ?? -1, TaskScheduler = TaskScheduler.Current }, i =>
         {
             var id = report.Designs[i].Design.Id.Value;
             if (keys.TryGetValue(id, out var key))

@@ -48,6 +48,9 @@ public sealed record RunOutcome
     /// <summary>True when the run took the check its build's head start made of exactly the same files (nothing loaded or looked up again).</summary>
     public bool TookHeadStartCheck { get; init; }
 
+    /// <summary>When <see cref="TookHeadStartCheck"/>: the head start's own account (its phases, what it waited for), for the detailed log.</summary>
+    public string? HeadStartAccount { get; init; }
+
     /// <summary>Where the run's wall time went, phase by phase (for a detailed log line; never part of a report).</summary>
     public RunTimings Timings { get; init; } = RunTimings.None;
 

@@ -198,10 +198,6 @@ public sealed record RunRequest(IReadOnlyList<string> Files, string Root, DateOn
             Baseline = baseline,
             NewOnly = inputs.NewOnly,
             HeadStart = inputs.HeadStart,
-            // A head start runs while the build restores, and the build's own process keeps one core busy then: on one
-            // thread the head start leaves that core to the build instead of slowing its restore, and it is still done
-            // about when the build's check asks for its results (measured: README, "What the check costs a build").
-            MaxDegreeOfParallelism = inputs.HeadStart ? 1 : null,
         };
         return new RequestParse(request, []);
     }

@@ -32,7 +32,7 @@ internal static class OneDesignLoop
             .Where(f => !Path.GetFullPath(f).StartsWith(designs, StringComparison.Ordinal) || Path.GetFullPath(f) == design)
             .ToList();
         var ruleSet = Path.Combine(root, RuleSetLoader.DefaultFileName);
-        // DESIGNRULES_THREADS=1 checks on one thread, as the build's head start does.
+        // DESIGNRULES_THREADS=1 checks on one thread, as the build's head start does while the build restores.
         var threads = int.TryParse(Environment.GetEnvironmentVariable("DESIGNRULES_THREADS"), NumberStyles.None, CultureInfo.InvariantCulture, out var t) ? t : -1;
         var options = new CheckOptions(File.Exists(ruleSet) ? ruleSet : null, new DateOnly(2026, 12, 1)) { MaxDegreeOfParallelism = threads };
         var transient = args.Length > 3 && args[3] == "transient";

@@ -84,14 +84,18 @@ internal static class ServedRunLoop
                 SyntheticRepository.TouchOne(root, run + (Environment.ProcessId * 1000));
             }
 
+            var headStartLine = string.Empty;
             if (headStart)
             {
-                // As the task hands it over while the build restores (CheckDesigns.HandOver), untimed: the run timed below is
-                // then the build's own check, which takes the head start's check when nothing is in doubt.
+                // As the task hands it over while the build restores (CheckDesigns.HandOver), apart from the run timed below:
+                // that is then the build's own check, which takes the head start's check when nothing is in doubt.
+                var (headProcessor, headStarted) = (Process.GetCurrentProcess().TotalProcessorTime, Stopwatch.GetTimestamp());
                 BuildCheck.Execute(call with
                 {
                     SarifFile = null, JsonFile = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
                 }, new Collecting(), hostAsError: null);
+                headStartLine = string.Create(CultureInfo.InvariantCulture,
+                    $" | head start {Stopwatch.GetElapsedTime(headStarted).TotalSeconds:0.000} s (cpu {(Process.GetCurrentProcess().TotalProcessorTime - headProcessor).TotalSeconds:0.00} s)");
             }
 
             var log = new Collecting();
@@ -118,7 +122,7 @@ internal static class ServedRunLoop
             var collections = $"GC {GC.CollectionCount(0) - gen0}/{GC.CollectionCount(1) - gen1}/{GC.CollectionCount(2) - gen2} paused {(GC.GetTotalPauseDuration() - paused).TotalMilliseconds:0} ms, {(GC.GetTotalAllocatedBytes() - allocated) / 1e6:0} MB";
             var jit = $"jit {System.Runtime.JitInfo.GetCompiledMethodCount() - jitted} in {(System.Runtime.JitInfo.GetCompilationTime() - jitTime).TotalSeconds:0.00} s";
             Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{run}: {took.TotalSeconds:0.000} s (cpu {processor.TotalSeconds:0.00} s), {collections}, {jit} | {line}"));
+                $"{run}: {took.TotalSeconds:0.000} s (cpu {processor.TotalSeconds:0.00} s), {collections}, {jit} | {line}{headStartLine}"));
         }
     }
 

@@ -60,12 +60,13 @@ public sealed class RunRequestTests : IDisposable
     }
 
     [Fact]
-    public void A_head_start_checks_on_one_thread_and_the_build_s_own_check_on_every_core()
+    public void A_head_start_and_the_build_s_own_check_leave_the_cores_to_the_run_layer()
     {
         BuildInputs Inputs(bool headStart) => new([repo.Design("motor-current-monitor")]) { RepositoryRoot = repo.Root, Today = "2026-12-01", HeadStart = headStart };
 
-        // The head start overlaps the build's restore, which keeps one core busy; the build's own check waits for nothing.
-        Assert.Equal(1, RunRequest.FromBuild(Inputs(headStart: true)).Request!.MaxDegreeOfParallelism);
+        // The head start's cores are the run layer's to give (HeadStartCores: one during the restore, every core once the
+        // build's check waits); neither request caps its loops.
+        Assert.Null(RunRequest.FromBuild(Inputs(headStart: true)).Request!.MaxDegreeOfParallelism);
         Assert.Null(RunRequest.FromBuild(Inputs(headStart: false)).Request!.MaxDegreeOfParallelism);
     }
 

@@ -123,7 +123,7 @@ internal sealed record MonteCarloYield(int Samples, int Seed, ToleranceDistribut
         int samples = Math.Max(0, count);
         var errors = new double[samples];
         var gains = new double[samples];
-        Parallel.For(0, samples, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, i =>
+        Parallel.For(0, samples, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism, TaskScheduler = TaskScheduler.Current }, i =>
         {
             var v = SampleDraws.Draw(worstCase, settings, first + i);
             var transfer = worstCase.Circuit.Measure(v);

@@ -420,7 +420,7 @@ internal sealed class WorstCaseAnalysis
     internal static DcTransfer[] Evaluate(ToleranceCircuit circuit, IReadOnlyList<Variation> runs, int maxDegreeOfParallelism)
     {
         var results = new DcTransfer[runs.Count];
-        Parallel.For(0, runs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism },
+        Parallel.For(0, runs.Count, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism, TaskScheduler = TaskScheduler.Current },
             i => results[i] = IsNominal(runs[i]) ? circuit.Nominal : circuit.Measure(runs[i]));
         return results;
     }

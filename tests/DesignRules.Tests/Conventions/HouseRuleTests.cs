@@ -69,6 +69,35 @@ public sealed class HouseRuleTests
         Assert.Equal("Unknown key '{0}{1}' in the {design}. Accepted keys: a, b.", d.Message);
     }
 
+    [Fact]
+    public void Every_parallel_loop_runs_on_the_scheduler_of_the_task_it_is_in()
+    {
+        // ParallelOptions name TaskScheduler.Default unless told otherwise: a loop inside a build's head start would then
+        // take every core while the build restores, instead of the one core HeadStartCores gives it until the build waits.
+        var root = FixtureFiles.RepositoryRoot();
+        var offenders = new List<string>();
+        foreach (var source in Directory.EnumerateFiles(Path.Combine(root, "src"), "*.cs", SearchOption.AllDirectories)
+                     .Where(f => !f.Contains($"{Path.DirectorySeparatorChar}obj{Path.DirectorySeparatorChar}", StringComparison.Ordinal))
+                     .Order(StringComparer.Ordinal))
+        {
+            var lines = File.ReadAllLines(source);
+            for (var i = 0; i < lines.Length; i++)
+            {
+                var line = lines[i];
+                var makesOptions = line.Contains("new ParallelOptions", StringComparison.Ordinal) ||
+                    (line.Contains("ParallelOptions ", StringComparison.Ordinal) && line.Contains("=> new()", StringComparison.Ordinal));
+                var loopWithoutOptions = System.Text.RegularExpressions.Regex.IsMatch(line, @"Parallel\.For\([^,]+,[^,]+,\s*\w+\s*=>|Parallel\.ForEach\([^,]+,\s*\w+\s*=>") ||
+                    line.Contains("Parallel.Invoke", StringComparison.Ordinal) || line.Contains(".AsParallel()", StringComparison.Ordinal);
+                if ((makesOptions && !line.Contains("TaskScheduler = TaskScheduler.Current", StringComparison.Ordinal)) || loopWithoutOptions)
+                {
+                    offenders.Add($"{Path.GetRelativePath(root, source)}({i + 1}): {line.Trim()}");
+                }
+            }
+        }
+
+        Assert.True(offenders.Count == 0, string.Join('\n', offenders));
+    }
+
     private static bool IsRecord(Type t) =>
         t.GetMethod("<Clone>$") is not null || t.GetCustomAttributes<CompilerGeneratedAttribute>().Any();
 }
