@@ -87,12 +87,12 @@ internal static class ServedRunLoop
             var headStartLine = string.Empty;
             if (headStart)
             {
-                // As the task hands it over while the build restores (CheckDesigns.HandOver), apart from the run timed below:
+                // As the task hands it over while the build restores (CheckDesigns.HandOver: no reports, pages or stamp), apart from the run timed below:
                 // that is then the build's own check, which takes the head start's check when nothing is in doubt.
                 var (headProcessor, headStarted) = (Process.GetCurrentProcess().TotalProcessorTime, Stopwatch.GetTimestamp());
                 BuildCheck.Execute(call with
                 {
-                    SarifFile = null, JsonFile = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
+                    SarifFile = null, JsonFile = null, PagesFolder = null, StampFile = null, LoadedFilesFile = null, BaselineFile = null, NewOnly = false, HeadStart = true,
                 }, new Collecting(), hostAsError: null);
                 headStartLine = string.Create(CultureInfo.InvariantCulture,
                     $" | head start {Stopwatch.GetElapsedTime(headStarted).TotalSeconds:0.000} s (cpu {(Process.GetCurrentProcess().TotalProcessorTime - headProcessor).TotalSeconds:0.00} s)");
