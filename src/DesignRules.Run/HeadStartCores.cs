@@ -11,8 +11,8 @@ namespace DesignRules.Run;
 /// still has to evaluate (a design's tolerance corners, band ends, samples) is then shared out as a check's is.
 /// </para>
 /// <para>
-/// The head start runs as a task of this scheduler, so every parallel loop inside it (whose options name no scheduler)
-/// hands its further workers to this scheduler. Until <see cref="Widen"/>, those workers are only queued: the loop's
+/// The head start runs as a task of this scheduler, so every parallel loop inside it (whose options name the scheduler of
+/// the task they are in, <see cref="TaskScheduler.Current"/>: a house rule) hands its further workers to this scheduler. Until <see cref="Widen"/>, those workers are only queued: the loop's
 /// first worker, on the head start's own thread, takes the loop's items one by one, and each queued worker is run on that
 /// thread when the loop waits for it (by then no items are left for it). After <see cref="Widen"/>, queued workers run on
 /// threads of their own and take the remaining items side by side. Which worker evaluates which item never changes an item's

@@ -62,7 +62,7 @@ internal sealed class RunClock
 {
     private readonly TimeSpan[] phases = new TimeSpan[Enum.GetValues<RunPhase>().Length];
     private long last = Stopwatch.GetTimestamp();
-    private readonly TimeSpan startProcessor = Process.GetCurrentProcess().TotalProcessorTime;
+    private readonly TimeSpan startProcessor = Environment.CpuUsage.TotalTime;
 
     /// <summary>Ends <paramref name="phase"/> now (time is added, so a phase may be entered twice).</summary>
     public void Lap(RunPhase phase)
@@ -73,7 +73,7 @@ internal sealed class RunClock
     }
 
     /// <summary>
-    /// "inputs 0.01 s, loading 0.05 s, designs 0.40 s; processor 0.55 s, 1.2 s ago": the phases up to
+    /// "inputs 0.01 s, loading 0.05 s, designs 0.40 s; processor 0.55 s, ended 1.20 s before": the phases up to
     /// <paramref name="phase"/> (ended now), the process's processor time over them (every thread, this run's and any other
     /// run's beside it), and the time since they ended, when the text is read — for a head start's run, told by the build's.
     /// </summary>
@@ -83,7 +83,7 @@ internal sealed class RunClock
         var through = (int)phase;
         var text = string.Join(", ", Enum.GetValues<RunPhase>().Where(p => (int)p <= through)
             .Select(p => p.ToString().ToLowerInvariant() + " " + phases[(int)p].TotalSeconds.ToString("0.00", CultureInfo.InvariantCulture) + " s"));
-        var processor = (Process.GetCurrentProcess().TotalProcessorTime - startProcessor).TotalSeconds;
+        var processor = (Environment.CpuUsage.TotalTime - startProcessor).TotalSeconds;
         var ended = Stopwatch.GetTimestamp();
         return () => string.Create(CultureInfo.InvariantCulture,
             $"{text}; processor {processor:0.00} s, ended {Stopwatch.GetElapsedTime(ended).TotalSeconds:0.00} s before");
