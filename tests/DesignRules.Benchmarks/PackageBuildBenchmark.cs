@@ -29,6 +29,11 @@ namespace DesignRules.Benchmarks;
 /// build's own process), comma-separated; default <c>on,off</c>. Each case has its own server folder, deleted (which stops
 /// its servers) before the case's first build and after its last, so no case meets another's warm server.
 /// </para>
+/// <para>
+/// Each "nothing changed" and "one design changed" build follows an "off" build of its own, run in the iteration's setup
+/// (outside the timed build); the case's cleanup prints the median of each timed build over its "off" build: the ratio
+/// with the host's drift between cases taken out.
+/// </para>
 /// </summary>
 [Config(typeof(ProcessConfig))]
 public class PackageBuildBenchmark
@@ -56,6 +61,11 @@ public class PackageBuildBenchmark
     private readonly List<double> settleSeconds = [];
     private readonly List<double> serverDuringSeconds = [];
     private readonly List<double> serverAfterSeconds = [];
+
+    // Each "nothing changed" and "one design changed" build with the "off" build run just before it (see PairWithOff).
+    private readonly List<(double Timed, double Off)> pairs = [];
+    private double? pairedOff;
+    private string? pairedCase;
 
     [ParamsSource(nameof(PackageChoices))]
     public string Package { get; set; } = "current";
@@ -111,6 +121,15 @@ public class PackageBuildBenchmark
             var walls = wallSeconds.Skip(2).Order().ToList();
             Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"// build wall time [{Package}, {Repository}, server {Server}]: median {walls[walls.Count / 2]:0.00} s of {walls.Count} ({string.Join(", ", walls.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))}); waited for the server to go quiet before the builds and after the last: {string.Join(", ", settleSeconds.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))} s"));
+            if (pairs.Count > 1)
+            {
+                // The first pair is the warm-up's.
+                var ratios = pairs.Skip(1).Select(p => p.Timed / p.Off).Order().ToList();
+                var offs = pairs.Skip(1).Select(p => p.Off).Order().ToList();
+                Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"// paired with an \"off\" build just before each [{Package}, {Repository}, server {Server}, {pairedCase}]: the pairs' ratio median {ratios[ratios.Count / 2]:0.00} ({string.Join(", ", ratios.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))}); those \"off\" builds median {offs[offs.Count / 2]:0.00} s ({string.Join(", ", offs.Select(t => t.ToString("0.00", CultureInfo.InvariantCulture)))})"));
+            }
+
             if (Server == "on")
             {
                 // The server's share, which the build's own processor time above leaves out: during each timed build, and
@@ -126,10 +145,43 @@ public class PackageBuildBenchmark
     {
         SyntheticRepository.TouchOne(root, ++edit + Environment.ProcessId * 1000);
         SettleServers();
+        PairWithOff("one design changed");
+        SettleServers(count: false);
     }
 
-    [IterationSetup(Targets = [nameof(SwitchedOff), nameof(NothingChanged)])]
+    [IterationSetup(Target = nameof(NothingChanged))]
+    public void PairBeforeBuild()
+    {
+        SettleServers();
+        PairWithOff("nothing changed");
+        SettleServers(count: false);
+    }
+
+    [IterationSetup(Target = nameof(SwitchedOff))]
     public void SettleBeforeBuild() => SettleServers();
+
+    /// <summary>
+    /// Runs an untimed-by-the-benchmark build with the check switched off just before the timed one and keeps its wall
+    /// time, so that each timed build has an "off" build of the same minute beside it. The ratio column compares cases
+    /// that run a minute or more apart, and a shared host that slows in between moves it (the README's runs show the
+    /// builds' own processor time, which the check's server does not enter, rising by a quarter in some cases); the
+    /// median of the pairs' ratios is the same question with that drift taken out. The "off" build does not check, so it
+    /// leaves the server and the edited design as they were; the server is quiet before it (the settle before it counts
+    /// the server's work after the last timed build) and after it.
+    /// </summary>
+    private void PairWithOff(string timedCase)
+    {
+        var clock = Stopwatch.StartNew();
+        var (exitCode, output, error) = ChildProcess.Run("dotnet", ["build", "-nodeReuse:false", "-tl:off", "-v:m", "-p:DesignRulesEnabled=false"], root, Limit,
+            new Dictionary<string, string> { ["NUGET_PACKAGES"] = packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder });
+        if (exitCode != 0)
+        {
+            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output}\n{error}");
+        }
+
+        pairedOff = clock.Elapsed.TotalSeconds;
+        pairedCase = timedCase;
+    }
 
     [Benchmark(Baseline = true, Description = "check switched off")]
     public int SwitchedOff() => Build("-p:DesignRulesEnabled=false");
@@ -148,7 +200,8 @@ public class PackageBuildBenchmark
     /// before the next build; builds timed back to back would instead count it in the next build, whichever case that is.
     /// Quiet means no processor time used in 0.3 s; the wait is bounded (20 s) and printed at the end.
     /// </summary>
-    private void SettleServers()
+    /// <param name="count">False for a settle that follows an "off" build: nothing of a timed build is left to count.</param>
+    private void SettleServers(bool count = true)
     {
         if (!OperatingSystem.IsLinux())
         {
@@ -168,6 +221,11 @@ public class PackageBuildBenchmark
             }
 
             before = now;
+        }
+
+        if (!count)
+        {
+            return;
         }
 
         settleSeconds.Add(clock.Elapsed.TotalSeconds);
@@ -233,6 +291,12 @@ public class PackageBuildBenchmark
         }
 
         wallSeconds.Add(wall.Elapsed.TotalSeconds);
+        if (pairedOff is { } off)
+        {
+            pairs.Add((wall.Elapsed.TotalSeconds, off));
+            pairedOff = null;
+        }
+
         cpuSeconds.Add(ChildProcessorSeconds() - before);
         // A server started by this build counts from zero.
         serverDuringSeconds.Add((ServerTicks() - serverBefore) / (double)TicksPerSecond);
