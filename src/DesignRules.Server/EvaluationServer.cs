@@ -27,9 +27,14 @@ internal enum ServerExit
 /// served concurrently; the results cache and the pages folder take turns through their own file locks, which hold
 /// between two runs of one process as between two processes. No check logic lives here.
 /// </summary>
-internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : IDisposable
+internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle, bool warmUp = false) : IDisposable
 {
+    /// <summary>How long after its first run a server waits before its warm-up: the build that started it is still ending.</summary>
+    internal static readonly TimeSpan WarmUpDelay = TimeSpan.FromSeconds(1);
+
     private readonly CancellationTokenSource stopping = new();
+    private readonly TaskCompletionSource<string?> warmedUp = new(TaskCreationOptions.RunContinuationsAsynchronously);
+    private int warmUpStarted;
     private readonly TaskCompletionSource listening = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private long lastActivity = Environment.TickCount64;
     private int active;
@@ -39,6 +44,9 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
     /// connection in between is refused; the task's client retries until it is accepted).
     /// </summary>
     internal Task Listening => listening.Task;
+
+    /// <summary>Completes when the warm-up after the first build's own check has ended, with the design file it checked (tests).</summary>
+    internal Task<string?> WarmedUp => warmedUp.Task;
 
     /// <summary>Listens until idle for <c>idle</c>, stopped, or its socket file or task folder is gone.</summary>
     public ServerExit Run()
@@ -147,6 +155,38 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
         return exit;
     }
 
+    /// <summary>
+    /// Once, after the first build's own check: <see cref="ServerWarmUp"/> on a thread of its own, counted as a run under way so that a
+    /// stopping server waits for it (it stops between its checks); it does not count as activity for the idle time.
+    /// </summary>
+    private void StartWarmUp(BuildCall call)
+    {
+        Interlocked.Increment(ref active);
+        new Thread(() =>
+        {
+            string? checkedFile = null;
+            try
+            {
+                CultureInfo.CurrentCulture = CultureInfo.InvariantCulture;
+                CultureInfo.CurrentUICulture = CultureInfo.InvariantCulture;
+                if (!stopping.Token.WaitHandle.WaitOne(WarmUpDelay))
+                {
+                    checkedFile = ServerWarmUp.Run(call, stopping.Token);
+                }
+            }
+            catch (Exception ex) when (ex is not (OutOfMemoryException or StackOverflowException or AccessViolationException))
+            {
+                // A warm-up that fails leaves the server as cold as it was; every build's run reports its own failures.
+            }
+            finally
+            {
+                Interlocked.Decrement(ref active);
+                warmedUp.TrySetResult(checkedFile);
+            }
+        })
+        { IsBackground = true, Name = "DesignRules warm-up" }.Start();
+    }
+
     private void Touch() => Interlocked.Exchange(ref lastActivity, Environment.TickCount64);
 
     private void Serve(Socket connection)
@@ -197,6 +237,11 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle) : I
                 }
 
                 channel.Send(new ServerFrame(ServerFrame.Done) { Entries = log.Entries, Result = run.Result });
+                // After a build's own check, not a head start's: the build that handed over a head start is still under way.
+                if (warmUp && !call.HeadStart && Interlocked.Exchange(ref warmUpStarted, 1) == 0)
+                {
+                    StartWarmUp(call);
+                }
             }
         }
         catch (Exception ex) when (ex is IOException or SocketException or OperationCanceledException or ObjectDisposedException)

@@ -47,7 +47,8 @@ internal static class Program
             address = address with { SocketFolder = Path.GetFullPath(socketFolder) };
         }
 
-        using var server = new EvaluationServer(address, idle);
+        // Warmed up once after its first run (ServerWarmUp): a build's server serves the developer's next edits.
+        using var server = new EvaluationServer(address, idle, warmUp: true);
         return (int)server.Run();
     }
 }

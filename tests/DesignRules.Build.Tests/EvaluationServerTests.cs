@@ -38,10 +38,10 @@ public sealed class EvaluationServerTests : IDisposable
     private ServerAddress Address(string salt) => ServerAddress.For(CheckDesigns.TaskFolder, salt) with { SocketFolder = sockets };
 
     /// <summary>Starts a server of <paramref name="salt"/>'s address in this process and waits until it listens.</summary>
-    private (EvaluationServer Server, Task<ServerExit> Run) Serve(string salt, TimeSpan? idle = null)
+    private (EvaluationServer Server, Task<ServerExit> Run) Serve(string salt, TimeSpan? idle = null, bool warmUp = false)
     {
         var address = Address(salt);
-        var server = new EvaluationServer(address, idle ?? TimeSpan.FromMinutes(5));
+        var server = new EvaluationServer(address, idle ?? TimeSpan.FromMinutes(5), warmUp);
         var run = Task.Factory.StartNew(server.Run, TaskCreationOptions.LongRunning);
         var waited = System.Diagnostics.Stopwatch.StartNew();
         // Listening, not only bound: the socket file appears at the bind, and a connection before the listen is refused.
@@ -156,6 +156,30 @@ public sealed class EvaluationServerTests : IDisposable
         {
             Assert.True(bytes.AsSpan().SequenceEqual(actual[file]), $"{file} differs between the served and the in-process check");
         }
+    }
+
+    [Fact]
+    public async Task A_new_server_warms_up_once_after_the_first_check_and_leaves_every_output_of_it_and_of_the_next_check_as_they_were()
+    {
+        var (server, _) = Serve("served", warmUp: true);
+        SampleRepository.Write(root, SampleRepository.Design());
+        var (first, firstEngine) = CheckTask(served: true);
+        Assert.True(first.Execute(), Log(firstEngine));
+        Assert.Equal(Path.GetFullPath(Path.Combine(root, SampleRepository.DesignPath)), await server.WarmedUp.WaitAsync(Bound));
+        var afterFirst = Outputs();
+
+        var (second, secondEngine) = CheckTask(served: true);
+        Assert.True(second.Execute(), Log(secondEngine));
+
+        Assert.Contains(secondEngine.Messages, m => m.Message!.Contains("checked by the evaluation server", StringComparison.Ordinal));
+        var afterSecond = Outputs();
+        Assert.Equal(afterFirst.Keys, afterSecond.Keys);
+        foreach (var (file, bytes) in afterFirst)
+        {
+            Assert.True(bytes.AsSpan().SequenceEqual(afterSecond[file]), $"{file} differs between the check before the warm-up and the one after it");
+        }
+
+        Assert.Empty(Directory.GetDirectories(Path.GetTempPath(), $"designrules-warm-up-{Environment.ProcessId}-*"));
     }
 
     [Fact]
