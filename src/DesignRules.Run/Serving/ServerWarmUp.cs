@@ -3,16 +3,17 @@ using DesignRules.Loading;
 namespace DesignRules.Run.Serving;
 
 /// <summary>
-/// What a new evaluation server does once, after its first run: it checks one design of that run again, twice, on one
-/// core, into a scratch folder of its own that it then deletes, so that the runtime has compiled the check's code
-/// optimised before the developer's first edit reaches it.
+/// What a new evaluation server does once, after the first build's own check it serves: it checks one design of that
+/// check again, twice, on one core, into a scratch folder of its own that it then deletes, so that the runtime has
+/// compiled the check's code optimised before the next build's check reaches it.
 /// <para>
 /// The server's code is ReadyToRun, but the runtime still recompiles the hottest methods optimised (tiered compilation)
 /// once each has been called thirty times and calls pause: measured on the 500-design repository (2026-12-04), a new
 /// server's first edited design took its head start 2.0 s of processor time and its second 1.2 s, against 0.7 s from the
-/// third on; the first two one-change builds took 2.7 s and 2.1 s against 1.7–1.8 s. Two checks of one design reach that
-/// third state before the first edit. The whole repository's files are loaded first, as a build's run loads them, so the
-/// loader is warm too (and a warm server keeps each file's parsed tree while its text is unchanged).
+/// third on; the one-change builds after the one that started the server took 2.1 s and then 1.7–1.8 s. The build that
+/// starts a server meets it cold whatever it does; two checks of one design bring the next build's to the third state.
+/// The whole check's files are loaded first, as a build's run loads them, so the loader is warm too (and a warm server
+/// keeps each file's parsed tree while its text is unchanged).
 /// </para>
 /// <para>
 /// It writes nothing a build writes or reads: no stamp, no loaded-files list, no results cache and nothing in the
