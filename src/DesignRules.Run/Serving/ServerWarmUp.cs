@@ -4,8 +4,9 @@ namespace DesignRules.Run.Serving;
 
 /// <summary>
 /// What a new evaluation server does once, after the first build's own check it serves: it checks one design of that
-/// check again, twice, on one core, into a scratch folder of its own that it then deletes, so that the runtime has
-/// compiled the check's code optimised before the next build's check reaches it.
+/// check again, twice (once when the first check took <see cref="RepeatOnlyUnder"/> or more), on one core, into a
+/// scratch folder of its own that it then deletes, so that the runtime has compiled the check's code optimised before
+/// the next build's check reaches it.
 /// <para>
 /// The server's code is ReadyToRun, but the runtime still recompiles the hottest methods optimised (tiered compilation)
 /// once each has been called thirty times and calls pause: measured on the 500-design repository (2026-12-04), a new
@@ -24,8 +25,14 @@ namespace DesignRules.Run.Serving;
 /// </summary>
 internal static class ServerWarmUp
 {
-    /// <summary>How many times the design is checked: the second check still ran partly on code not yet recompiled.</summary>
+    /// <summary>How many times the design is checked at most: the second check still ran partly on code not yet recompiled.</summary>
     internal const int Checks = 2;
+
+    /// <summary>
+    /// A first check this long is not repeated: its hot code has run far more than thirty times already (a design with
+    /// many Monte Carlo samples, say), and a second would only keep a core busy as long again.
+    /// </summary>
+    internal static readonly TimeSpan RepeatOnlyUnder = TimeSpan.FromSeconds(3);
 
     /// <summary>
     /// Checks the design of <paramref name="call"/> whose file comes first (ordinal order) <see cref="Checks"/> times, as
@@ -57,8 +64,10 @@ internal static class ServerWarmUp
         var scratch = Path.Combine(Path.GetTempPath(), $"designrules-warm-up-{Environment.ProcessId}-{Guid.NewGuid():N}");
         try
         {
-            for (var check = 0; check < Checks && !stop.IsCancellationRequested; check++)
+            var clock = System.Diagnostics.Stopwatch.StartNew();
+            for (var check = 0; check < Checks && !stop.IsCancellationRequested && clock.Elapsed < RepeatOnlyUnder; check++)
             {
+                clock.Restart();
                 BuildCheck.Execute(new BuildCall
                 {
                     Files = files,
