@@ -33,11 +33,11 @@ internal sealed class EvaluationServer(ServerAddress address, TimeSpan idle, boo
     internal static readonly TimeSpan WarmUpDelay = TimeSpan.FromSeconds(1);
 
     private readonly CancellationTokenSource stopping = new();
-    private readonly TaskCompletionSource<string?> warmedUp = new(TaskCreationOptions.RunContinuationsAsynchronously);
-    private int warmUpStarted;
     private readonly TaskCompletionSource listening = new(TaskCreationOptions.RunContinuationsAsynchronously);
+    private readonly TaskCompletionSource<string?> warmedUp = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private long lastActivity = Environment.TickCount64;
     private int active;
+    private int warmUpStarted;
 
     /// <summary>
     /// Completes once the socket accepts connections (tests: its file appears at the bind, a moment before the listen, and a

@@ -172,13 +172,7 @@ public class PackageBuildBenchmark
     private void PairWithOff(string timedCase)
     {
         var clock = Stopwatch.StartNew();
-        var (exitCode, output, error) = ChildProcess.Run("dotnet", ["build", "-nodeReuse:false", "-tl:off", "-v:m", "-p:DesignRulesEnabled=false"], root, Limit,
-            new Dictionary<string, string> { ["NUGET_PACKAGES"] = packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder });
-        if (exitCode != 0)
-        {
-            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output}\n{error}");
-        }
-
+        DotnetBuild("-p:DesignRulesEnabled=false");
         pairedOff = clock.Elapsed.TotalSeconds;
         pairedCase = timedCase;
     }
@@ -280,16 +274,10 @@ public class PackageBuildBenchmark
             extra = [.. extra, "-p:DesignRulesServer=false"];
         }
 
-        var environment = new Dictionary<string, string> { ["NUGET_PACKAGES"] = packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder };
         var before = ChildProcessorSeconds();
         var serverBefore = ServerTicks();
         var wall = Stopwatch.StartNew();
-        var (exitCode, output, error) = ChildProcess.Run("dotnet", ["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra], root, Limit, environment);
-        if (exitCode != 0)
-        {
-            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output}\n{error}");
-        }
-
+        var exitCode = DotnetBuild(extra);
         wallSeconds.Add(wall.Elapsed.TotalSeconds);
         if (pairedOff is { } off)
         {
@@ -300,6 +288,19 @@ public class PackageBuildBenchmark
         cpuSeconds.Add(ChildProcessorSeconds() - before);
         // A server started by this build counts from zero.
         serverDuringSeconds.Add((ServerTicks() - serverBefore) / (double)TicksPerSecond);
+        return exitCode;
+    }
+
+    /// <summary>One <c>dotnet build</c> of the repository with the case's package cache and server folder; throws when it fails.</summary>
+    private int DotnetBuild(params string[] extra)
+    {
+        var environment = new Dictionary<string, string> { ["NUGET_PACKAGES"] = packages, ["DESIGNRULES_SERVER_FOLDER"] = serverFolder };
+        var (exitCode, output, error) = ChildProcess.Run("dotnet", ["build", "-nodeReuse:false", "-tl:off", "-v:m", .. extra], root, Limit, environment);
+        if (exitCode != 0)
+        {
+            throw new InvalidOperationException($"dotnet build in {root} failed:\n{output}\n{error}");
+        }
+
         return exitCode;
     }
 
